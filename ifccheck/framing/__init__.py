@@ -1,0 +1,1 @@
+"""framing stage."""

@@ -1,0 +1,229 @@
+"""The shared vocabulary: plain typed data passed between pipeline stages.
+
+Everything is in SI base units (m, m², m⁴, m⁶, Pa, N, N·m) and global model
+coordinates. Only ``ifccheck.ifc`` builds these from ifcopenshell entities;
+every later stage works on these objects alone.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from enum import Enum
+
+import numpy as np
+from shapely.geometry import MultiPolygon, Polygon
+
+Point3 = tuple[float, float, float]
+
+
+class ShapeFamily(str, Enum):
+    """Cross-section families the tool distinguishes."""
+
+    I_SHAPE = "I"  # W, M, S, HP, IPE, HE…, and I-shaped built-ups
+    CHANNEL = "C"  # C, MC, UPN
+    TEE = "T"
+    ANGLE = "L"
+    HOLLOW_RECT = "HSS"
+    HOLLOW_ROUND = "PIPE"
+    OTHER = "other"
+
+
+class MaterialCategory(str, Enum):
+    STEEL = "steel"
+    CONCRETE = "concrete"
+    TIMBER = "timber"
+    OTHER = "other"
+    UNKNOWN = "unknown"
+
+
+class MemberRole(str, Enum):
+    """What a member does in the framing, from its IFC class and type."""
+
+    BEAM = "beam"  # IfcBeam (any predefined type except those below)
+    COLUMN = "column"  # IfcColumn
+    BRACE = "brace"  # IfcMember BRACE / kicker, diagonal members
+    STRUT = "strut"  # IfcMember STRUT / TIE, or a beam serving only as a strut
+    OTHER = "other"  # other IfcMember types (purlins, mullions...)
+
+
+@dataclass(frozen=True)
+class Section:
+    """Cross-section properties about the section's own principal axes.
+
+    x is the major (strong) axis, y the minor. Dimensions in m, areas m²,
+    moduli m³, second moments m⁴, warping constant m⁶.
+    """
+
+    name: str
+    family: ShapeFamily
+    d: float  # overall depth
+    bf: float  # flange width
+    tw: float  # web thickness
+    tf: float  # flange thickness
+    r: float  # fillet radius (web-to-flange), 0 when unknown
+    A: float
+    Ix: float
+    Iy: float
+    Sx: float
+    Sy: float
+    Zx: float
+    Zy: float
+    rx: float
+    ry: float
+    J: float
+    Cw: float
+    ho: float  # distance between flange centroids
+    rts: float  # effective radius of gyration for LTB (AISC F2-7)
+    source: str  # e.g. "AISC Shapes Database v16.0" or "computed from dimensions"
+    # Clear web height h used for web slenderness (AISC B4.1b: d - 2k for rolled
+    # shapes); when not tabulated, d - 2(tf + r).
+    h: float = 0.0
+    mass_per_length: float = 0.0  # kg/m, from A and 7850 kg/m³ unless tabulated
+
+    @property
+    def flange_slenderness(self) -> float:
+        """λf = bf / 2tf for I-shapes, bf / tf for channels (AISC Table B4.1b)."""
+        if self.family is ShapeFamily.CHANNEL:
+            return self.bf / self.tf
+        return self.bf / (2.0 * self.tf)
+
+    @property
+    def web_slenderness(self) -> float:
+        """λw = h / tw (AISC Table B4.1b)."""
+        return self.h / self.tw
+
+
+@dataclass(frozen=True)
+class Steel:
+    """A steel grade with the strengths that apply to one section."""
+
+    grade: str  # normalised name, e.g. "A992", "S355"
+    fy: float  # Pa, after any thickness reduction
+    fu: float  # Pa
+    E: float = 200e9  # Pa (29,000 ksi = 199.95 GPa for AISC; 210 GPa for EN)
+    G: float = 77.2e9  # Pa
+    source: str = ""  # where the grade came from (material name, property, default)
+
+
+@dataclass
+class Member:
+    """A linear structural element: beam, column, brace, strut.
+
+    ``start`` and ``end`` lie on the centroid line (not the modelling
+    reference line). ``web_up`` is the unit vector of the section's local
+    depth direction (from bottom flange to top flange) in global coordinates.
+    """
+
+    guid: str
+    ifc_class: str
+    predefined_type: str
+    name: str
+    storey: str
+    role: MemberRole
+    start: Point3
+    end: Point3
+    web_up: Point3
+    profile_name: str
+    section: Section | None
+    steel: Steel | None
+    material_name: str
+    material: MaterialCategory
+    axis_source: str  # "axis", "extrusion" or "geometry"
+    profile_source: str  # "profile set", "swept area", "type", "name", ...
+    grade_source: str  # "material name", "material property", "default"
+    notes: list[str] = field(default_factory=list)
+    # Why this member cannot be checked at all (unresolved profile, non-steel...).
+    unresolved: str = ""
+
+    @property
+    def length(self) -> float:
+        return float(np.linalg.norm(np.subtract(self.end, self.start)))
+
+    @property
+    def direction(self) -> np.ndarray:
+        v = np.subtract(self.end, self.start)
+        n = np.linalg.norm(v)
+        return v / n if n > 0 else v
+
+    @property
+    def depth(self) -> float:
+        return self.section.d if self.section else 0.0
+
+    @property
+    def flange_width(self) -> float:
+        return self.section.bf if self.section else 0.0
+
+    @property
+    def top_of_steel(self) -> float:
+        """Highest elevation of the section along the member (m)."""
+        half = 0.5 * self.depth * abs(self.web_up[2])
+        return max(self.start[2], self.end[2]) + half
+
+    @property
+    def is_vertical(self) -> bool:
+        return abs(self.direction[2]) > 0.9
+
+
+@dataclass
+class Slab:
+    """A floor slab or deck in plan, with its openings as holes."""
+
+    guid: str
+    name: str
+    storey: str
+    footprint: Polygon | MultiPolygon  # plan (x, y), openings removed
+    underside: float  # m
+    top: float  # m
+    ifc_class: str = "IfcSlab"
+    openings: list[Polygon] = field(default_factory=list)
+    notes: list[str] = field(default_factory=list)
+
+    @property
+    def thickness(self) -> float:
+        return self.top - self.underside
+
+
+@dataclass
+class Wall:
+    """A wall that can support or anchor framing: plan footprint and height."""
+
+    guid: str
+    name: str
+    storey: str
+    footprint: Polygon
+    base: float
+    top: float
+    material: MaterialCategory = MaterialCategory.UNKNOWN
+
+
+@dataclass
+class Storey:
+    guid: str
+    name: str
+    elevation: float  # m
+
+
+@dataclass
+class Model:
+    """What the reader produced from one model file."""
+
+    source: str  # file name
+    schema: str  # IFC2X3, IFC4, IFC4X3...
+    length_unit: str  # the file's own length unit name, e.g. "foot", "millimetre"
+    length_scale: float  # metres per file length unit
+    storeys: list[Storey] = field(default_factory=list)
+    members: list[Member] = field(default_factory=list)
+    slabs: list[Slab] = field(default_factory=list)
+    walls: list[Wall] = field(default_factory=list)
+    warnings: list[tuple[str, str]] = field(default_factory=list)  # (guid, message)
+    geometry_fallbacks: int = 0
+
+    @property
+    def imperial(self) -> bool:
+        return self.length_unit in {"foot", "inch", "yard", "mile"}
+
+    def member(self, guid: str) -> Member:
+        for m in self.members:
+            if m.guid == guid:
+                return m
+        raise KeyError(guid)
