@@ -8,7 +8,7 @@ every later stage works on these objects alone.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from enum import Enum
+from enum import StrEnum
 
 import numpy as np
 from shapely.geometry import MultiPolygon, Polygon
@@ -16,7 +16,7 @@ from shapely.geometry import MultiPolygon, Polygon
 Point3 = tuple[float, float, float]
 
 
-class ShapeFamily(str, Enum):
+class ShapeFamily(StrEnum):
     """Cross-section families the tool distinguishes."""
 
     I_SHAPE = "I"  # W, M, S, HP, IPE, HE…, and I-shaped built-ups
@@ -28,7 +28,7 @@ class ShapeFamily(str, Enum):
     OTHER = "other"
 
 
-class MaterialCategory(str, Enum):
+class MaterialCategory(StrEnum):
     STEEL = "steel"
     CONCRETE = "concrete"
     TIMBER = "timber"
@@ -36,7 +36,7 @@ class MaterialCategory(str, Enum):
     UNKNOWN = "unknown"
 
 
-class MemberRole(str, Enum):
+class MemberRole(StrEnum):
     """What a member does in the framing, from its IFC class and type."""
 
     BEAM = "beam"  # IfcBeam (any predefined type except those below)
@@ -134,6 +134,8 @@ class Member:
     notes: list[str] = field(default_factory=list)
     # Why this member cannot be checked at all (unresolved profile, non-steel...).
     unresolved: str = ""
+    # Outline depth and width (m) when known without a full section.
+    envelope: tuple[float, float] = (0.0, 0.0)
 
     @property
     def length(self) -> float:
@@ -147,11 +149,11 @@ class Member:
 
     @property
     def depth(self) -> float:
-        return self.section.d if self.section else 0.0
+        return self.section.d if self.section else self.envelope[0]
 
     @property
     def flange_width(self) -> float:
-        return self.section.bf if self.section else 0.0
+        return self.section.bf if self.section else self.envelope[1]
 
     @property
     def top_of_steel(self) -> float:

@@ -1,0 +1,84 @@
+"""What the framing stage produces: supports, brace points, slab-braced
+intervals, load-path order and anchorage findings, per member.
+
+Stations are distances in metres along a member's centroid line from its
+``start`` point.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Literal
+
+import networkx as nx
+
+Flange = Literal["top", "bottom", "both"]
+BraceKind = Literal["framing", "brace", "support"]
+EndName = Literal["start", "end"]
+SupportState = Literal["supported", "cantilever", "unsupported"]
+
+
+@dataclass(frozen=True)
+class Support:
+    """An end (or an intermediate point) of a beam bearing on another member."""
+
+    station: float
+    by: str  # GUID of the supporting member (column, girder, wall)
+    by_class: str  # its IFC class, e.g. "IfcColumn"
+    end: EndName | None  # which end of the beam bears, None for intermediate
+
+
+@dataclass(frozen=True)
+class BracePoint:
+    """A station where lateral movement / twist of the member is restrained."""
+
+    station: float
+    kind: BraceKind
+    by: str  # GUID of the bracing member (or the support for kind="support")
+    flange: Flange
+    counts: bool = True
+    reason: str = ""  # why it does not count, when counts is False
+
+
+@dataclass
+class MemberFraming:
+    """Framing facts for one beam-like member."""
+
+    guid: str
+    supports: list[Support] = field(default_factory=list)
+    brace_points: list[BracePoint] = field(default_factory=list)
+    # top-flange station intervals [start, end] covered by a slab bearing on it
+    continuous_bracing: list[tuple[float, float]] = field(default_factory=list)
+    free_ends: list[EndName] = field(default_factory=list)
+    state: SupportState = "supported"
+    # GUIDs of members framing into this one (their reactions load it)
+    carries: list[str] = field(default_factory=list)
+    notes: list[str] = field(default_factory=list)
+
+    def counting_braces(self, flange: Literal["top", "bottom"]) -> list[float]:
+        """Sorted stations of brace points that restrain the given flange."""
+        return sorted(
+            {
+                round(b.station, 9)
+                for b in self.brace_points
+                if b.counts and b.flange in (flange, "both")
+            }
+        )
+
+
+@dataclass
+class Framing:
+    """The framing graph and its per-member digest.
+
+    Graph nodes are member GUIDs. Directed edges run from the connecting
+    member to the host it connects to, with attributes ``station`` (along the
+    host), ``kind`` ("framing", "brace" or "support"), ``by`` (the connecting
+    member's GUID), ``end`` (which end of the connecting member) and ``flange``
+    (which flange of the host it restrains).
+    """
+
+    graph: nx.MultiDiGraph
+    members: dict[str, MemberFraming]
+    load_order: list[str]  # carried before carrier: infill → girder → column
+    cycles: list[list[str]] = field(default_factory=list)
+    warnings: list[tuple[str, str]] = field(default_factory=list)  # (guid, message)
