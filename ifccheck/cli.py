@@ -11,10 +11,12 @@ import json
 import os
 import sys
 import time
+from pathlib import Path
 
 import click
 
-from ifccheck import __version__
+from ifccheck import CAUTION, __version__
+from ifccheck.strength_cli import strength
 
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 3
@@ -94,16 +96,177 @@ def inspect(model_path: str, as_json: bool, default_grade: str) -> None:
         click.echo(inspect_text(model, seconds, model.imperial))
 
 
-def _register_optional() -> None:
-    """Commands from stage packages, registered when present."""
-    try:
-        from ifccheck.strength_cli import strength
-    except ImportError:
-        return
-    main.add_command(strength)
+def _settings(config: str | None, method: str | None):
+    from ifccheck.config import load_settings
+
+    settings = load_settings(Path(config) if config else None)
+    if method:
+        settings.design.method = method.upper()
+    return settings
 
 
-_register_optional()
+def _progress():
+    """A progress callback drawing a bar on a terminal, None when not a TTY."""
+    if not sys.stderr.isatty():
+        return None
+    state: dict[str, object] = {}
+
+    def update(done: int, total: int) -> None:
+        bar = state.get("bar")
+        if bar is None:
+            bar = click.progressbar(length=total, label="checking beams", file=sys.stderr)
+            bar.__enter__()
+            state["bar"] = bar
+        bar.update(done - bar.pos)  # type: ignore[attr-defined]
+        if done >= total:
+            bar.__exit__(None, None, None)  # type: ignore[attr-defined]
+
+    return update
+
+
+def _units(units: str | None, model_imperial: bool) -> str:
+    return units or ("imperial" if model_imperial else "si")
+
+
+def _summary_line(result, units: str) -> str:
+    from ifccheck.units import format_length, format_moment
+
+    s = result.summary()
+    line = (
+        f"{result.model.file}: {s['total']} beams checked to {result.standard} "
+        f"{result.method}: {s['pass']} pass, {s['fail']} fail, {s['not_checked']} not checked"
+    )
+    worst = max(
+        (b for b in result.beams if b.ratio is not None), key=lambda b: b.ratio, default=None
+    )
+    if worst is not None:
+        line += f"; highest ratio {worst.ratio:.2f} at {worst.name or worst.guid} ({worst.profile}"
+        gov = worst.governing
+        if worst.governing_check == "flexure" and gov is not None:
+            line += (
+                f", {gov.limit_state.replace('_', ' ')} over Lb = {format_length(gov.lb, units)}, "
+                f"Mu = {format_moment(gov.moment_demand, units)}"
+            )
+        elif worst.governing_check:
+            line += f", {worst.governing_check}"
+        line += ")"
+    return line
+
+
+@main.command()
+@click.argument("model_path", metavar="MODEL", type=click.Path(dir_okay=False))
+@click.option(
+    "--config",
+    type=click.Path(exists=True, dir_okay=False),
+    help="Settings file (TOML); documented defaults without one.",
+)
+@click.option(
+    "--demands",
+    type=click.Path(exists=True, dir_okay=False),
+    help="CSV of GUID, moment (and shear) from an analysis, overriding computed demand.",
+)
+@click.option(
+    "--out",
+    "out_dir",
+    default="ifccheck-results",
+    show_default=True,
+    type=click.Path(file_okay=False),
+    help="Directory for the outputs.",
+)
+@click.option(
+    "--units",
+    type=click.Choice(["si", "imperial"]),
+    help="Units of the CSV and report (default: the model's unit system).",
+)
+@click.option("--method", type=click.Choice(["LRFD", "ASD"], case_sensitive=False),
+              help="Design method (overrides the settings file).")  # fmt: skip
+def check(model_path, config, demands, out_dir, units, method) -> None:
+    """Check every beam of MODEL and write the results to --out.
+
+    Exit code 0 when every beam passes, 1 when any fails or cannot be checked.
+    """
+    from ifccheck.check import run_check
+    from ifccheck.report import write_all
+
+    settings = _settings(config, method)
+    result, model, _ = run_check(model_path, settings, demands, _progress())
+    chosen = _units(units, model.imperial)
+    written = write_all(result, Path(model_path), Path(out_dir), chosen)
+    for guid, message in result.warnings:
+        click.echo(f"warning: {guid}: {message}", err=True)
+    click.echo(_summary_line(result, chosen))
+    names = ", ".join(p.name for p in written.values())
+    click.echo(f"results written to {Path(out_dir)}: {names}")
+    click.echo(CAUTION)
+    s = result.summary()
+    sys.exit(1 if s["fail"] or s["not_checked"] else 0)
+
+
+@main.command()
+@click.argument("old_path", metavar="OLD", type=click.Path(dir_okay=False))
+@click.argument("new_path", metavar="NEW", type=click.Path(dir_okay=False))
+@click.option(
+    "--config",
+    type=click.Path(exists=True, dir_okay=False),
+    help="Settings file (TOML) used for both revisions.",
+)
+@click.option(
+    "--out",
+    "out_dir",
+    default="ifccheck-results",
+    show_default=True,
+    type=click.Path(file_okay=False),
+    help="Directory for the outputs.",
+)
+@click.option(
+    "--units",
+    type=click.Choice(["si", "imperial"]),
+    help="Units of the CSV and report (default: the model's unit system).",
+)
+@click.option("--method", type=click.Choice(["LRFD", "ASD"], case_sensitive=False),
+              help="Design method (overrides the settings file).")  # fmt: skip
+def diff(old_path, new_path, config, out_dir, units, method) -> None:
+    """Compare two revisions: which beams lost bracing or support, or got worse.
+
+    Exit code 1 when any beam regressed, 0 when none did.
+    """
+    from ifccheck.check import run_check
+    from ifccheck.diff import diff_results
+    from ifccheck.report import write_diff_all
+    from ifccheck.units import format_length
+
+    settings = _settings(config, method)
+    old, _, _ = run_check(old_path, settings)
+    new, model, _ = run_check(new_path, settings)
+    result = diff_results(old, new)
+    chosen = _units(units, model.imperial)
+    written = write_diff_all(result, Path(out_dir), chosen)
+    regressions = result.regressions
+    click.echo(
+        f"{old.model.file} → {new.model.file}: {result.matched} beams matched, "
+        f"{len(result.added)} added, {len(result.removed)} removed; "
+        f"{len(regressions)} regression(s)"
+    )
+    for c in regressions:
+        lb = ""
+        if c.lb_before is not None and c.lb_after is not None:
+            lb = f", Lb {format_length(c.lb_before, chosen)} → {format_length(c.lb_after, chosen)}"
+        ratio = ""
+        if c.ratio_before is not None or c.ratio_after is not None:
+            rb = "-" if c.ratio_before is None else f"{c.ratio_before:.2f}"
+            ra = "-" if c.ratio_after is None else f"{c.ratio_after:.2f}"
+            ratio = f", ratio {rb} → {ra}"
+        click.echo(
+            f"  {c.name or c.guid} ({c.storey}): {c.status_before} → {c.status_after}{lb}{ratio}; "
+            + "; ".join(c.reasons)
+        )
+    names = ", ".join(p.name for p in written.values())
+    click.echo(f"diff written to {Path(out_dir)}: {names}")
+    click.echo(CAUTION)
+    sys.exit(1 if regressions else 0)
+
+
+main.add_command(strength)
 
 
 if __name__ == "__main__":  # pragma: no cover

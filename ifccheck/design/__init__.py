@@ -1,1 +1,33 @@
-"""design stage."""
+"""Design standards behind one interface; AISC 360-16 is registered on import."""
+
+from ifccheck.design import aisc360
+from ifccheck.design.base import (
+    DesignStandard,
+    FlexureResult,
+    OutOfScopeError,
+    ShearResult,
+    StrengthCurve,
+    allowable_deflection,
+    available_standards,
+    check_method,
+    deflection_limits,
+    deflection_ratio,
+    get_standard,
+    register_standard,
+)
+
+__all__ = [
+    "DesignStandard",
+    "FlexureResult",
+    "OutOfScopeError",
+    "ShearResult",
+    "StrengthCurve",
+    "aisc360",
+    "allowable_deflection",
+    "available_standards",
+    "check_method",
+    "deflection_limits",
+    "deflection_ratio",
+    "get_standard",
+    "register_standard",
+]

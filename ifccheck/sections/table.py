@@ -13,8 +13,6 @@ from dataclasses import dataclass
 from functools import cache
 from pathlib import Path
 
-import pandas as pd
-
 from ifccheck.model import Section, ShapeFamily
 
 SOURCE = "AISC Shapes Database v16.0"
@@ -120,6 +118,8 @@ def _data_dir() -> Path:
 @cache
 def _table() -> dict[str, _Row]:
     """All database rows by matching key (read once)."""
+    import pandas as pd  # imported here: only the first lookup pays for it
+
     rows: dict[str, _Row] = {}
     folder = _data_dir()
     for stem, (family, style) in _FILES.items():
@@ -196,6 +196,8 @@ def _section(row: _Row) -> Section:
     if fam in (ShapeFamily.I_SHAPE, ShapeFamily.CHANNEL, ShapeFamily.TEE):
         d, bf, tw, tf = v["d"], v["bf"], v["tw"], v["tf"]
         kdes = v.get("k", tf)
+        # Fillet radius r = kdes − tf. For the sloped-flange S, C and MC shapes
+        # this also holds the slope's rise at the web face, so it overstates r.
         r = max(kdes - tf, 0.0)
         # h for web slenderness (AISC 360-16 B4.1b: clear distance between
         # flanges less the fillets) from d − 2·kdes: the database's own h/tw is

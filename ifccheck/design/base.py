@@ -1,0 +1,171 @@
+"""The interface every design standard implements, and the registry.
+
+A standard takes a section, a steel, unbraced lengths Lb and moment-gradient
+factors Cb (numpy arrays, one entry per segment) and a method ("LRFD" or
+"ASD"), and returns numpy arrays. The pipeline talks only to this interface,
+so another standard (EN 1993-1-1, ...) is a new module that registers itself.
+"""
+
+from __future__ import annotations
+
+from abc import ABC, abstractmethod
+from collections.abc import Callable
+from dataclasses import dataclass
+from typing import Literal
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from ifccheck.model import Section, Steel
+
+Method = Literal["LRFD", "ASD"]
+FloatArray = NDArray[np.float64]
+
+
+class OutOfScopeError(ValueError):
+    """The section or case is not covered by the implemented clauses."""
+
+
+def check_method(method: str) -> Method:
+    """Normalise 'lrfd'/'asd' to 'LRFD'/'ASD'; ValueError otherwise."""
+    m = method.strip().upper()
+    if m not in ("LRFD", "ASD"):
+        raise ValueError(f"method must be LRFD or ASD, got {method!r}")
+    return m  # type: ignore[return-value]
+
+
+@dataclass(frozen=True)
+class FlexureResult:
+    """Flexural strength per segment (arrays of one length), SI units.
+
+    ``design_strength`` is φMn (LRFD) or Mn/Ω (ASD); ``factor`` is φ or Ω.
+    ``limit_state`` names the limit state that governs ``mn``.
+    """
+
+    mp: FloatArray  # plastic moment, N·m
+    mn: FloatArray  # nominal flexural strength, N·m
+    design_strength: FloatArray  # N·m
+    limit_state: NDArray[np.object_]  # str per segment
+    lp: FloatArray  # limiting unbraced length for yielding, m
+    lr: FloatArray  # limiting unbraced length for inelastic LTB, m
+    mr: FloatArray  # moment at Lr (0.7·Fy·Sx for AISC), N·m
+    factor: float
+    method: Method
+
+    def __len__(self) -> int:
+        return int(self.mn.shape[0])
+
+
+@dataclass(frozen=True)
+class ShearResult:
+    """Shear strength of the web, SI units."""
+
+    vn: float  # nominal shear strength, N
+    design_strength: float  # φVn or Vn/Ω, N
+    cv1: float  # web shear strength coefficient
+    factor: float  # φv or Ωv
+    method: Method
+    clause: str  # which provision applied, e.g. "AISC 360-16 G2.1(a)"
+
+
+@dataclass(frozen=True)
+class StrengthCurve:
+    """Design strength against unbraced length for plots and reports."""
+
+    lb: FloatArray
+    design_strength: FloatArray
+    limit_state: NDArray[np.object_]
+
+
+class DesignStandard(ABC):
+    """What the pipeline needs from a design standard."""
+
+    name: str
+
+    @abstractmethod
+    def scope(self, section: Section, steel: Steel | None = None) -> str:
+        """'' if flexure of this section is covered, else the reason with the clause."""
+
+    @abstractmethod
+    def flexure(
+        self,
+        section: Section,
+        steel: Steel,
+        lb: ArrayLike,
+        cb: ArrayLike = 1.0,
+        method: str = "LRFD",
+    ) -> FlexureResult:
+        """Major-axis flexural strength for each (Lb, Cb); OutOfScopeError if not covered."""
+
+    @abstractmethod
+    def shear(self, section: Section, steel: Steel, method: str = "LRFD") -> ShearResult:
+        """Major-axis shear strength of the web."""
+
+    def strength_curve(
+        self,
+        section: Section,
+        steel: Steel,
+        cb: float = 1.0,
+        method: str = "LRFD",
+        lb_max: float | None = None,
+        n: int = 200,
+    ) -> StrengthCurve:
+        """Design strength sampled over Lb from 0 to ``lb_max``."""
+        if lb_max is None:
+            probe = self.flexure(section, steel, [0.0], [1.0], method)
+            lb_max = 1.5 * float(max(probe.lr[0], 1.5 * probe.lp[0]))
+        if not lb_max > 0.0 or n < 2:
+            raise ValueError("lb_max must be positive and n at least 2")
+        lb = np.linspace(0.0, lb_max, n)
+        res = self.flexure(section, steel, lb, np.full(n, cb), method)
+        return StrengthCurve(lb, res.design_strength, res.limit_state)
+
+
+_REGISTRY: dict[str, Callable[[], DesignStandard]] = {}
+
+
+def _key(name: str) -> str:
+    return "".join(ch for ch in name.upper() if ch.isalnum())
+
+
+def register_standard(name: str, factory: Callable[[], DesignStandard]) -> None:
+    """Make a standard available to ``get_standard`` under ``name``."""
+    _REGISTRY[_key(name)] = factory
+
+
+def get_standard(name: str) -> DesignStandard:
+    """The design standard registered under ``name`` ("AISC 360-16", "aisc360-16"...)."""
+    factory = _REGISTRY.get(_key(name))
+    if factory is None:
+        known = ", ".join(sorted(available_standards()))
+        raise ValueError(f"unknown design standard {name!r}; available: {known}")
+    return factory()
+
+
+def available_standards() -> list[str]:
+    """Registered standards by their display names."""
+    return [factory().name for factory in _REGISTRY.values()]
+
+
+# Deflection (serviceability) helpers, common to every standard.
+
+
+def allowable_deflection(span: ArrayLike, ratio: ArrayLike) -> FloatArray:
+    """Allowable deflection span/ratio (common practice: L/360 live, L/240 total)."""
+    span_a = np.asarray(span, dtype=float)
+    ratio_a = np.asarray(ratio, dtype=float)
+    if np.any(ratio_a <= 0.0):
+        raise ValueError("deflection ratio must be positive")
+    return span_a / ratio_a
+
+
+def deflection_ratio(actual: ArrayLike, span: ArrayLike, ratio: ArrayLike) -> FloatArray:
+    """|actual| / allowable: 1.0 is at the limit."""
+    return np.abs(np.asarray(actual, dtype=float)) / allowable_deflection(span, ratio)
+
+
+def deflection_limits(
+    span: ArrayLike, live_ratio: float = 360.0, total_ratio: float = 240.0
+) -> tuple[FloatArray, FloatArray]:
+    """(live-load, total-load) allowable deflections; defaults L/360 and L/240 (common practice)."""
+    return allowable_deflection(span, live_ratio), allowable_deflection(span, total_ratio)
