@@ -462,6 +462,27 @@ class AISC360(DesignStandard):
     def shear(self, section: Section, steel: Steel, method: str = "LRFD") -> ShearResult:
         return shear(section, steel, method)
 
+    def moment_gradient(
+        self,
+        x: ArrayLike,
+        m: ArrayLike,
+        start: ArrayLike,
+        end: ArrayLike,
+        cantilever: ArrayLike = False,
+    ) -> FloatArray:
+        """Cb by Eq. F1-1 (1.0 for a cantilever with a free unbraced tip)."""
+        return cb_from_diagram(x, m, start, end, cantilever)
+
+    def flexure_many(
+        self,
+        pairs: Sequence[tuple[Section, Steel]],
+        index: ArrayLike,
+        lb: ArrayLike,
+        cb: ArrayLike,
+        method: str = "LRFD",
+    ) -> FlexureResult:
+        return flexure_segments(pairs, index, lb, cb, method)
+
     def strength_curve(
         self,
         section: Section,

@@ -9,7 +9,7 @@ so another standard (EN 1993-1-1, ...) is a new module that registers itself.
 from __future__ import annotations
 
 from abc import ABC, abstractmethod
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from typing import Literal
 
@@ -100,6 +100,50 @@ class DesignStandard(ABC):
     @abstractmethod
     def shear(self, section: Section, steel: Steel, method: str = "LRFD") -> ShearResult:
         """Major-axis shear strength of the web."""
+
+    @abstractmethod
+    def moment_gradient(
+        self,
+        x: ArrayLike,
+        m: ArrayLike,
+        start: ArrayLike,
+        end: ArrayLike,
+        cantilever: ArrayLike = False,
+    ) -> FloatArray:
+        """The standard's moment-gradient factor (Cb, C1, ...) of segments [start, end]
+        of a sampled moment diagram; ``cantilever`` marks segments with a free tip."""
+
+    def flexure_many(
+        self,
+        pairs: Sequence[tuple[Section, Steel]],
+        index: ArrayLike,
+        lb: ArrayLike,
+        cb: ArrayLike,
+        method: str = "LRFD",
+    ) -> FlexureResult:
+        """Flexure of many segments of many sections in one call.
+
+        ``pairs`` are distinct (section, steel) combinations and ``index`` the
+        pair of each segment. This default evaluates pair by pair; a standard
+        may override it with a fully vectorised version.
+        """
+        idx = np.asarray(index, dtype=np.intp)
+        lb_a = np.asarray(lb, dtype=float)
+        cb_a = np.asarray(cb, dtype=float)
+        fields = ("mp", "mn", "design_strength", "lp", "lr", "mr")
+        out = {f: np.zeros(idx.size) for f in fields}
+        states = np.empty(idx.size, dtype=object)
+        factor = 0.0
+        for k, (section, steel) in enumerate(pairs):
+            sel = np.flatnonzero(idx == k)
+            if sel.size == 0:
+                continue
+            res = self.flexure(section, steel, lb_a[sel], cb_a[sel], method)
+            for f in fields:
+                out[f][sel] = getattr(res, f)
+            states[sel] = res.limit_state
+            factor = res.factor
+        return FlexureResult(limit_state=states, factor=factor, method=check_method(method), **out)
 
     def strength_curve(
         self,

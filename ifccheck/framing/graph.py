@@ -1,0 +1,236 @@
+"""Assemble the framing graph and the per-member digest from the links."""
+
+from __future__ import annotations
+
+from operator import attrgetter
+
+import networkx as nx
+import numpy as np
+
+from ifccheck.framing.anchorage import Anchorage
+from ifccheck.framing.connections import KIND_BRACE, KIND_FRAMING, KIND_SUPPORT, Links
+from ifccheck.framing.index import FALLBACK_DEPTH, FALLBACK_WIDTH, MemberGeometry, paused_gc
+from ifccheck.framing.slabs import Interval
+from ifccheck.framing.types import BracePoint, EndName, Framing, MemberFraming, Support
+from ifccheck.model import Model
+
+END_NAMES: dict[int, EndName | None] = {0: "start", 1: "end", -1: None}
+WALL_CLASS = "IfcWall"
+
+NOTE_NO_SLAB = (
+    "no slab or other diaphragm modelled on this storey; framing braces assumed anchored "
+    "(common practice)"
+)
+NOTE_SLAB_OFF = (
+    "slab bracing switched off (construction stage); framing braces assumed anchored "
+    "(common practice)"
+)
+
+
+def _fallback_note(profile: str) -> str:
+    return (
+        f"no section resolved for profile {profile!r}; framing used a fallback depth of "
+        f"{FALLBACK_DEPTH:.3f} m and flange width of {FALLBACK_WIDTH:.3f} m"
+    )
+
+
+def _line_reason(geom: MemberGeometry, rows: list[int]) -> str:
+    kind = "strut" if all(geom.members[r].role.value == "strut" for r in rows) else "bracing"
+    names = ", ".join(geom.guids[r] for r in rows)
+    return f"{kind} line {names} reaches no anchor (column, wall, slab or braced bay)"
+
+
+def build_framing(
+    model: Model,
+    geom: MemberGeometry,
+    links: Links,
+    coverage: dict[int, list[Interval]],
+    anchorage: Anchorage,
+    slab_bracing: bool,
+) -> Framing:
+    """The MultiDiGraph, the MemberFraming per beam/strut/brace, the load
+    order and the support cycles."""
+    with paused_gc():
+        return _build(model, geom, links, coverage, anchorage, slab_bracing)
+
+
+def _build(
+    model: Model,
+    geom: MemberGeometry,
+    links: Links,
+    coverage: dict[int, list[Interval]],
+    anchorage: Anchorage,
+    slab_bracing: bool,
+) -> Framing:
+    graph = nx.MultiDiGraph()
+    for i, m in enumerate(geom.members):
+        if geom.in_graph[i]:
+            graph.add_node(m.guid, role=m.role.value, ifc_class=m.ifc_class)
+    for w in model.walls:
+        graph.add_node(w.guid, role="wall", ifc_class=WALL_CLASS)
+
+    framings: dict[int, MemberFraming] = {}
+    warnings: list[tuple[str, str]] = []
+    for i in np.flatnonzero(geom.is_connector).tolist():
+        m = geom.members[i]
+        mf = MemberFraming(guid=m.guid)
+        if geom.fallback[i]:
+            mf.notes.append(_fallback_note(m.profile_name))
+        if not geom.valid[i]:
+            mf.notes.append("zero-length member: no framing found")
+            warnings.append((m.guid, "zero-length member ignored by the framing analysis"))
+        framings[i] = mf
+    for i in np.flatnonzero(geom.in_graph & ~geom.is_connector & geom.fallback).tolist():
+        m = geom.members[i]
+        warnings.append((m.guid, _fallback_note(m.profile_name)))
+
+    reasons = {
+        r: _line_reason(geom, anchorage.line[r]) for r, ok in anchorage.anchored.items() if not ok
+    }
+    for r in sorted(reasons):
+        warnings.append((geom.guids[r], reasons[r] + "; its brace points do not count"))
+
+    # per-link values gathered with numpy, then one pass in Python
+    nm = geom.n
+    names = np.array(geom.guids + [w.guid for w in model.walls], dtype=object)
+    classes = np.array(
+        [m.ifc_class for m in geom.members] + [WALL_CLASS] * len(model.walls), dtype=object
+    )
+    key = np.where(links.host_wall, nm + links.host, links.host)
+    conn = links.conn.tolist()
+    conn_guid = names[links.conn].tolist()
+    host_guid = names[key].tolist()
+    host_class = classes[key].tolist()
+    ends = [END_NAMES[e] for e in links.end.tolist()]
+    beam_conn = geom.is_beam[links.conn].tolist()
+    host_row = np.where(links.host_wall, -1, links.host).tolist()
+    rows = zip(
+        conn,
+        conn_guid,
+        host_row,
+        host_guid,
+        host_class,
+        ends,
+        beam_conn,
+        links.station.tolist(),
+        links.at.tolist(),
+        links.kind.tolist(),
+        links.flange.tolist(),
+        strict=True,
+    )
+    edges = []
+    support_edges: list[tuple[str, str]] = []
+    for c, cg, h, hg, h_class, end, is_beam, station, at, kind, flange in rows:
+        counts, reason = True, ""
+        if kind == KIND_BRACE and c in reasons:
+            counts, reason = False, reasons[c]
+        edges.append(
+            (
+                cg,
+                hg,
+                {
+                    "station": station,
+                    "kind": kind,
+                    "by": cg,
+                    "end": end,
+                    "flange": flange,
+                    "at": at,
+                    "counts": counts,
+                },
+            )
+        )
+        own = framings[c]
+        own.supports.append(Support(station=at, by=hg, by_class=h_class, end=end))
+        own.brace_points.append(BracePoint(station=at, kind="support", by=hg, flange="both"))
+        if is_beam and kind != KIND_BRACE and h >= 0:
+            support_edges.append((cg, hg))
+        host = framings.get(h)
+        if host is not None and kind != KIND_SUPPORT:
+            host.brace_points.append(
+                BracePoint(
+                    station=station,
+                    kind="framing" if kind == KIND_FRAMING else "brace",
+                    by=cg,
+                    flange=flange,
+                    counts=counts,
+                    reason=reason,
+                )
+            )
+            if kind == KIND_FRAMING and is_beam and cg not in host.carries:
+                host.carries.append(cg)
+    graph.add_edges_from(edges)
+
+    linked = np.zeros((nm, 2), dtype=bool)
+    at_end = links.end >= 0
+    linked[links.conn[at_end], links.end[at_end]] = True
+    storeys_with_slab = {s.storey for s in model.slabs}
+    by_station = attrgetter("station", "by")
+    bp_order = attrgetter("station", "kind", "by")
+    for i, mf in framings.items():
+        m = geom.members[i]
+        if not linked[i, 0]:
+            mf.free_ends.append("start")
+        if not linked[i, 1]:
+            mf.free_ends.append("end")
+        if not mf.supports:
+            mf.state = "unsupported"
+        elif mf.free_ends:
+            mf.state = "cantilever"
+        mf.supports.sort(key=by_station)
+        mf.brace_points.sort(key=bp_order)
+        if len(mf.carries) > 1:  # in station order along this member
+            carried = set(mf.carries)
+            mf.carries = list(dict.fromkeys(b.by for b in mf.brace_points if b.by in carried))
+        if slab_bracing:
+            mf.continuous_bracing = list(coverage.get(i, []))
+        if any(b.kind == "framing" and b.counts for b in mf.brace_points):
+            if m.storey not in storeys_with_slab and not coverage.get(i):
+                mf.notes.append(NOTE_NO_SLAB)
+            elif not slab_bracing:
+                mf.notes.append(NOTE_SLAB_OFF)
+
+    order_nodes = [g for i, g in enumerate(geom.guids) if geom.in_graph[i]]
+    load_order, cycles = load_path_order(order_nodes, support_edges)
+    for cyc in cycles:
+        path = " → ".join([*cyc, cyc[0]])
+        warnings.append(
+            (
+                cyc[0],
+                f"support cycle {path}: these members bear on each other (model problem); "
+                "load path taken through them as one group",
+            )
+        )
+    return Framing(
+        graph=graph,
+        members={geom.guids[i]: mf for i, mf in framings.items()},
+        load_order=load_order,
+        cycles=cycles,
+        warnings=warnings,
+    )
+
+
+def load_path_order(
+    nodes: list[str], edges: list[tuple[str, str]]
+) -> tuple[list[str], list[list[str]]]:
+    """Topological order of carried → carrier; strongly connected groups
+    (support cycles) are condensed to one step and reported."""
+    d = nx.DiGraph()
+    d.add_nodes_from(nodes)
+    d.add_edges_from(edges)
+    try:
+        return list(nx.topological_sort(d)), []
+    except nx.NetworkXUnfeasible:
+        pass
+    rank = {g: i for i, g in enumerate(nodes)}
+    sccs = list(nx.strongly_connected_components(d))
+    cond = nx.condensation(d, sccs)
+    order: list[str] = []
+    cycles: list[list[str]] = []
+    for n in nx.topological_sort(cond):
+        group = sorted(cond.nodes[n]["members"], key=rank.__getitem__)
+        order.extend(group)
+        if len(group) > 1:
+            ring = [u for u, _ in nx.find_cycle(d.subgraph(group))]
+            cycles.append(ring + [g for g in group if g not in ring])
+    cycles.sort(key=lambda c: min(rank[g] for g in c))
+    return order, cycles
