@@ -8,6 +8,7 @@ by name or reported with the reason it could not be.
 
 from __future__ import annotations
 
+import copy
 import re
 from dataclasses import dataclass, field
 
@@ -65,8 +66,34 @@ def designation_in(text: str | None) -> str | None:
     return None
 
 
+_PROFILE_CACHE: dict[tuple, ResolvedProfile] = {}
+
+
+def _profile_key(profile: Entity, scale: float) -> tuple | None:
+    """Profiles equal in class, name and dimensions give equal sections."""
+    if not profile.is_a("IfcParameterizedProfileDef"):
+        return None
+    info = profile.get_info(recursive=False, include_identifier=False)
+    info.pop("Position", None)
+    return (scale, *sorted((k, v) for k, v in info.items() if not hasattr(v, "is_a")))
+
+
 def section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
-    """Section for one IFC profile definition (dimensions scaled to metres)."""
+    """Section for one IFC profile definition (dimensions scaled to metres).
+
+    Parameterised profiles are cached by class, name and dimensions: real
+    models repeat a few dozen profiles over thousands of members.
+    """
+    key = _profile_key(profile, scale)
+    if key is None:
+        return _section_from_profile(profile, scale)
+    found = _PROFILE_CACHE.get(key)
+    if found is None:
+        found = _PROFILE_CACHE[key] = _section_from_profile(profile, scale)
+    return copy.deepcopy(found) if found.notes else copy.copy(found)
+
+
+def _section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
     name = (profile.ProfileName or "").strip()
     if profile.is_a("IfcIShapeProfileDef") and not profile.is_a("IfcAsymmetricIShapeProfileDef"):
         d = profile.OverallDepth * scale
@@ -202,13 +229,35 @@ def resolve_material(
     section: Section | None,
     default: Steel,
     pressure_scale: float,
+    cache: dict | None = None,
 ) -> ResolvedMaterial:
-    """Steel grade (or material category) of an element, with its source."""
+    """Steel grade (or material category) of an element, with its source.
+
+    ``cache`` (one per file) reuses the answer for members sharing materials.
+    """
     select = uelement.get_material(element, should_skip_usage=False, should_inherit=True)
     mats = material_names(select)
+    thickest = max(section.tf, section.tw) if section else None
+    key = (tuple(m.id() for m in mats), thickest, default.grade, pressure_scale)
+    resolved = cache.get(key) if cache is not None else None
+    if resolved is None:
+        resolved = _resolve(ifc, mats, thickest, default, pressure_scale)
+        if cache is not None:
+            cache[key] = resolved
+    return ResolvedMaterial(
+        resolved.name, resolved.category, resolved.steel, resolved.source, list(resolved.notes)
+    )
+
+
+def _resolve(
+    ifc: ifcopenshell.file,
+    mats: list[Entity],
+    thickest: float | None,
+    default: Steel,
+    pressure_scale: float,
+) -> ResolvedMaterial:
     names = [m.Name or "" for m in mats]
     label = " / ".join(n for n in names if n) or "(no material)"
-    thickest = max(section.tf, section.tw) if section else None
     for mat in mats:
         steel = steel_from_name(mat.Name or "", thickest)
         if steel is not None:

@@ -120,6 +120,7 @@ class _Reader:
             length_scale=self.scale,
         )
         self.placements = geo.PlacementCache()
+        self._materials: dict = {}
 
     # --- entry ------------------------------------------------------------------
     def read(self) -> Model:
@@ -170,9 +171,10 @@ class _Reader:
         notes: list[str] = []
         predefined = (uelement.get_predefined_type(element) or "").upper()
         role = _role(element, predefined)
-        profile = self._profile(element)
+        extrusion = geo.first_extrusion(element)
+        profile = self._profile(element, extrusion)
         notes += profile.notes
-        line = self._centroid_line(element, profile, notes)
+        line = self._centroid_line(element, profile, notes, extrusion)
         if line is None:
             self.model.warnings.append(
                 (element.GlobalId, f"{element.is_a()} '{element.Name}' has no readable geometry")
@@ -180,8 +182,9 @@ class _Reader:
             return None
         start, end, web_up, axis_source = line
         material = resolve_material(
-            self.ifc, element, profile.section, self.default, self.pressure_scale
-        )
+            self.ifc, element, profile.section, self.default, self.pressure_scale,
+            self._materials,
+        )  # fmt: skip
         notes += material.notes
         unresolved = profile.reason
         if material.category in (MaterialCategory.CONCRETE, MaterialCategory.TIMBER):
@@ -210,7 +213,7 @@ class _Reader:
         )
         return member
 
-    def _profile(self, element: Entity) -> ResolvedProfile:
+    def _profile(self, element: Entity, extrusion) -> ResolvedProfile:
         """Profile from the material profile set, else the swept area, else a name."""
         select = uelement.get_material(element, should_skip_usage=True, should_inherit=False)
         source = "profile set"
@@ -229,7 +232,6 @@ class _Reader:
                         by_set_name.source = source
                         return by_set_name
                 return resolved
-        extrusion = geo.first_extrusion(element)
         if extrusion is not None:
             resolved = section_from_profile(extrusion[1].SweptArea, self.scale)
             resolved.source = "swept area"
@@ -261,10 +263,9 @@ class _Reader:
         return None
 
     def _centroid_line(
-        self, element: Entity, profile: ResolvedProfile, notes: list[str]
+        self, element: Entity, profile: ResolvedProfile, notes: list[str], extrusion
     ) -> tuple[np.ndarray, np.ndarray, np.ndarray, str] | None:
         obj = self.placements.of(element)
-        extrusion = geo.first_extrusion(element)
         ext_line = None
         if extrusion is not None:
             ext_line = self._extrusion_line(obj, *extrusion)

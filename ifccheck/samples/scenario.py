@@ -105,12 +105,13 @@ def quillfeather(revision: str) -> ModelAuthor:
 
     # Balcony: continuous over column (90, 30), 8 ft overhang, with kickers
     # from its bottom flange up to the slab-braced infill beams either side.
+    balcony_beam = w_shape("W21X50")
     a.beam(
-        LEVEL2, (60.0, 30.0, 0.0), (BALCONY_TIP, 30.0, 0.0), infill, key="L2:balcony",
+        LEVEL2, (60.0, 30.0, 0.0), (BALCONY_TIP, 30.0, 0.0), balcony_beam, key="L2:balcony",
         name="L2-BALCONY", cardinal_point=8,
     )  # fmt: skip
     kicker = channel("C6X8.2")
-    depth = infill.d
+    depth = balcony_beam.d
     for y in (20.0, 40.0):
         a.member(
             LEVEL2, (84.0, 30.0, -depth + 0.25), (84.0, y, -0.25), kicker, predefined="BRACE",

@@ -1,0 +1,473 @@
+"""Per-beam orchestration: segments → demand and capacity → governing result.
+
+read → framing → demand → for each beam: unbraced segments of each flange,
+the moment compressing that flange in each strength combination, Cb, the
+design strength from the design standard, and the ratio; the governing
+segment is the one with the highest ratio, not the longest.
+"""
+
+from __future__ import annotations
+
+import functools
+import hashlib
+import itertools
+import math
+from collections.abc import Callable
+from dataclasses import dataclass
+from datetime import UTC, datetime
+from pathlib import Path
+
+import numpy as np
+
+from ifccheck import CAUTION, __version__
+from ifccheck.config import Settings, settings_to_dict
+from ifccheck.design import get_standard
+from ifccheck.design.base import DesignStandard, OutOfScopeError
+from ifccheck.framing import analyse_framing
+from ifccheck.framing.types import Framing, MemberFraming
+from ifccheck.ifc.reader import read_model
+from ifccheck.loads.combinations import LIVE_DEFLECTION, TOTAL_DEFLECTION
+from ifccheck.loads.demand import BeamDemand, compute_demand, load_demand_csv
+from ifccheck.loads.statics import Diagram
+from ifccheck.model import MaterialCategory, Member, MemberRole, Model
+from ifccheck.results import (
+    BeamResult,
+    BracePointOut,
+    CheckResult,
+    ModelInfo,
+    SegmentResult,
+    SlabOutline,
+)
+from ifccheck.results import Diagram as DiagramOut
+from ifccheck.segments import SegmentSpec, beam_segments
+
+# A segment whose compression-flange moment is below this share of the beam's
+# largest moment does not load that flange and is not listed.
+NEGLIGIBLE_MOMENT = 1e-3
+DIAGRAM_POINTS = 161  # stations kept per beam for the report's moment diagram
+CURVE_POINTS = 120
+# Cantilever deflection limits use twice the overhang length (common practice).
+OVERHANG_FACTOR = 2.0
+
+Progress = Callable[[int, int], None]
+
+
+def sha256_of(path: Path) -> str:
+    h = hashlib.sha256()
+    with path.open("rb") as fh:
+        for chunk in iter(lambda: fh.read(1 << 20), b""):
+            h.update(chunk)
+    return h.hexdigest()
+
+
+def run_check(
+    model_path: str | Path,
+    settings: Settings,
+    demands_path: str | Path | None = None,
+    progress: Progress | None = None,
+) -> tuple[CheckResult, Model, Framing]:
+    """The whole job on one model file."""
+    path = Path(model_path)
+    model = read_model(path, default_grade=settings.steel.default_grade)
+    framing = analyse_framing(model, settings.framing, settings.bracing)
+    overrides = None
+    warnings: list[tuple[str, str]] = list(model.warnings) + list(framing.warnings)
+    if demands_path is not None:
+        overrides = load_demand_csv(Path(demands_path))
+        known = {m.guid for m in model.members}
+        for guid in sorted(set(overrides) - known):
+            warnings.append((guid, f"demand file names GUID {guid}, which is not in the model"))
+    demand = compute_demand(model, framing, settings, overrides)
+    warnings += [w for w in demand.warnings if w not in warnings]
+    standard = get_standard(settings.design.standard)
+    beams = [
+        (m, framing.members.get(m.guid), demand.beams.get(m.guid))
+        for m in model.members
+        if m.role is MemberRole.BEAM
+    ]
+    results = check_beams(beams, standard, settings, progress)
+    slabs = [
+        SlabOutline(
+            s.guid,
+            s.storey,
+            [(float(x), float(y)) for x, y in poly.exterior.coords],
+            [[(float(x), float(y)) for x, y in r.coords] for r in poly.interiors],
+        )
+        for s in model.slabs
+        for poly in getattr(s.footprint, "geoms", [s.footprint])
+    ]
+    result = CheckResult(
+        tool="ifccheck",
+        version=__version__,
+        model=ModelInfo(path.name, model.schema, sha256_of(path), model.length_unit),
+        settings=settings_to_dict(settings),
+        standard=standard.name,
+        method=settings.design.method,
+        checked_at=datetime.now(UTC).replace(microsecond=0).isoformat(),
+        beams=results,
+        storeys=[(s.name, s.elevation) for s in model.storeys],
+        slabs=slabs,
+        warnings=warnings,
+        caution=CAUTION,
+    )
+    return result, model, framing
+
+
+def _base(m: Member, mf: MemberFraming | None) -> BeamResult:
+    supports = sorted(mf.supports, key=lambda s: s.station) if mf else []
+    stations = [s.station for s in supports]
+    span = max((b - a for a, b in itertools.pairwise(stations)), default=0.0)
+    if mf and mf.state == "cantilever" and supports:
+        span = max(span, stations[0], m.length - stations[-1])
+    return BeamResult(
+        guid=m.guid,
+        name=m.name,
+        storey=m.storey,
+        ifc_class=m.ifc_class,
+        profile=m.profile_name,
+        grade=m.steel.grade if m.steel else "",
+        fy=m.steel.fy if m.steel else 0.0,
+        start=m.start,
+        end=m.end,
+        length=m.length,
+        span=span,
+        supports=[{"station": s.station, "by": s.by} for s in supports],
+        brace_points=[
+            BracePointOut(b.station, b.kind, b.by, b.flange, b.counts, b.reason)
+            for b in sorted(mf.brace_points, key=lambda b: b.station)
+        ]
+        if mf
+        else [],
+        continuous_bracing=list(mf.continuous_bracing) if mf else [],
+        free_ends=list(mf.free_ends) if mf else [],
+        notes=list(m.notes) + (list(mf.notes) if mf else []),
+    )
+
+
+def _not_checked_reason(
+    m: Member, mf: MemberFraming | None, bd: BeamDemand | None, standard: DesignStandard
+) -> str:
+    if m.unresolved:
+        return m.unresolved
+    if m.material is not MaterialCategory.STEEL or m.steel is None:
+        return f"out of scope: {m.material.value} member"
+    if m.section is None:
+        return "profile not resolved"
+    scope = standard.scope(m.section, m.steel)
+    if scope:
+        return f"out of scope: {scope}"
+    if mf is None:
+        return "not in the framing analysis"
+    if mf.state == "unsupported":
+        return "unsupported: neither end bears on a column, girder or wall"
+    if bd is None:
+        return "no demand computed"
+    if bd.reason:
+        return bd.reason
+    if bd.analysis is None and bd.source != "analysis":
+        return "no demand computed"
+    return ""
+
+
+@dataclass
+class _Pending:
+    """A beam whose segments await the model-wide capacity evaluation."""
+
+    out: BeamResult
+    member: Member
+    demand: BeamDemand
+    diagrams: list
+    specs: list[SegmentSpec]
+    rows: list[tuple[int, str, float, float]]  # (spec index, combination, demand, Cb)
+    first: int = 0  # position of its first row in the model-wide arrays
+
+
+def check_beam(
+    m: Member,
+    mf: MemberFraming | None,
+    bd: BeamDemand | None,
+    standard: DesignStandard,
+    settings: Settings,
+) -> BeamResult:
+    """The governing result of one beam (status not_checked with a reason when it cannot be)."""
+    return check_beams([(m, mf, bd)], standard, settings)[0]
+
+
+def check_beams(
+    beams: list[tuple[Member, MemberFraming | None, BeamDemand | None]],
+    standard: DesignStandard,
+    settings: Settings,
+    progress: Progress | None = None,
+) -> list[BeamResult]:
+    """Check many beams: segment demands per beam, then one capacity call for all."""
+    method = settings.design.method
+    results: list[BeamResult] = []
+    pending: list[_Pending] = []
+    pairs: dict[tuple[int, int], int] = {}
+    pair_list: list[tuple] = []
+    index: list[int] = []
+    lbs: list[float] = []
+    cbs: list[float] = []
+    for m, mf, bd in beams:
+        prepared = _prepare(m, mf, bd, standard, settings)
+        results.append(prepared.out if isinstance(prepared, _Pending) else prepared)
+        if not isinstance(prepared, _Pending):
+            continue
+        key = (id(m.section), id(m.steel))
+        k = pairs.get(key)
+        if k is None:
+            k = pairs[key] = len(pair_list)
+            pair_list.append((m.section, m.steel))
+        prepared.first = len(lbs)
+        for spec_i, _name, _demand, cb in prepared.rows:
+            index.append(k)
+            lbs.append(prepared.specs[spec_i].lb)
+            cbs.append(cb)
+        pending.append(prepared)
+    if pending:
+        flex = standard.flexure_many(pair_list, index, lbs, cbs, method)
+        for i, p in enumerate(pending):
+            _finish(p, flex, standard, settings)
+            if progress is not None:
+                progress(i + 1, len(pending))
+    return results
+
+
+def _prepare(
+    m: Member,
+    mf: MemberFraming | None,
+    bd: BeamDemand | None,
+    standard: DesignStandard,
+    settings: Settings,
+) -> _Pending | BeamResult:
+    out = _base(m, mf)
+    if bd is not None:
+        out.demand = bd.to_output()
+        out.notes += [n for n in bd.notes if n not in out.notes]
+    reason = _not_checked_reason(m, mf, bd, standard)
+    if reason:
+        out.status, out.reason = "not_checked", reason
+        return out
+    assert mf is not None and bd is not None
+    specs = beam_segments(m.length, mf, settings.bracing.slab)
+    diagrams = _strength_diagrams(bd, m.length, out)
+    rows: list[tuple[int, str, float, float]] = []
+    if specs:
+        starts = np.array([s.start for s in specs])
+        ends = np.array([s.end for s in specs])
+        tips = np.array([s.cantilever for s in specs])
+        top = np.array([s.flange == "top" for s in specs])
+        loose = ~np.array([s.continuous for s in specs])
+        for name, d in diagrams:
+            demand, cb = _segment_demands(d, starts, ends, tips, top, standard)
+            cb = np.where(loose, cb, 1.0)
+            rows += [(i, name, float(demand[i]), float(cb[i])) for i in range(len(specs))]
+    return _Pending(out, m, bd, diagrams, specs, rows)
+
+
+def _finish(p: _Pending, flex, standard: DesignStandard, settings: Settings) -> None:
+    out, m, bd = p.out, p.member, p.demand
+    n = len(p.rows)
+    sl = slice(p.first, p.first + n)
+    capacity = flex.design_strength[sl]
+    mn = flex.mn[sl]
+    states = flex.limit_state[sl]
+    demand = np.array([r[2] for r in p.rows])
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ratio = np.where(capacity > 0, demand / np.where(capacity > 0, capacity, 1.0), np.inf)
+    peak = max((float(np.max(np.abs(d.M))) for _, d in p.diagrams), default=0.0)
+    best: dict[int, int] = {}
+    for i, (spec_i, _name, _d, _cb) in enumerate(p.rows):
+        j = best.get(spec_i)
+        if j is None or ratio[i] > ratio[j]:
+            best[spec_i] = i
+    for spec_i in sorted(best, key=lambda k: (p.specs[k].start, p.specs[k].flange)):
+        i = best[spec_i]
+        spec = p.specs[spec_i]
+        _s, name, dem, cb = p.rows[i]
+        if dem <= NEGLIGIBLE_MOMENT * peak:
+            continue
+        out.segments.append(
+            SegmentResult(
+                start=spec.start,
+                end=spec.end,
+                lb=spec.lb,
+                cb=cb,
+                flange=spec.flange,
+                moment_demand=dem,
+                moment_capacity=float(capacity[i]),
+                nominal_moment=float(mn[i]),
+                ratio=float(ratio[i]),
+                limit_state=str(states[i]),
+                combination=name,
+                braced_by=list(spec.braced_by),
+                continuous=spec.continuous,
+            )
+        )
+    if out.segments:
+        out.governing_segment = int(np.argmax([s.ratio for s in out.segments]))
+        out.flexure_ratio = out.segments[out.governing_segment].ratio
+    else:
+        out.flexure_ratio = 0.0
+    method = settings.design.method
+    _shear(out, m, bd, standard, method)
+    _deflection(out, m, bd, settings)
+    checks = {
+        "flexure": out.flexure_ratio or 0.0,
+        "shear": out.shear_ratio or 0.0,
+        "deflection": out.deflection_ratio or 0.0,
+    }
+    out.governing_check = max(checks, key=lambda k: checks[k])
+    out.ratio = checks[out.governing_check]
+    out.status = "pass" if out.ratio <= 1.0 else "fail"
+    gov_name = bd.governing_moment or (p.diagrams[-1][0] if p.diagrams else "")
+    gov = dict(p.diagrams).get(gov_name)
+    if gov is not None:
+        out.diagram = _diagram_out(gov)
+    _curve(out, m, standard, method)
+
+
+def _segment_demands(
+    d, starts: np.ndarray, ends: np.ndarray, tips: np.ndarray, top: np.ndarray, standard
+) -> tuple[np.ndarray, np.ndarray]:
+    """Per segment: the moment compressing its flange, and the moment-gradient factor."""
+    from ifccheck.design.aisc360 import segment_moments
+
+    # node stations appear twice and may differ by rounding: keep them monotone
+    x = np.maximum.accumulate(np.asarray(d.x, dtype=float))
+    moment = np.asarray(d.M, dtype=float)
+    sagging = segment_moments(x, np.maximum(moment, 0.0), starts, ends)[0]
+    hogging = segment_moments(x, np.maximum(-moment, 0.0), starts, ends)[0]
+    demand = np.where(top, sagging, hogging)
+    cb = standard.moment_gradient(x, moment, starts, ends, tips)
+    return demand, np.asarray(cb, dtype=float)
+
+
+class _UniformMoment:
+    """A constant moment along the beam: demand from an analysis with no diagram."""
+
+    def __init__(self, length: float, moment: float) -> None:
+        self.length = length
+        self.x = np.array([0.0, length])
+        self.M = np.array([moment, moment])
+        self.nodes = self.x
+
+    def moment_at(self, stations) -> np.ndarray:
+        return np.full(np.shape(np.atleast_1d(stations)), self.M[0])
+
+    def shear_at(self, stations) -> np.ndarray:
+        return np.zeros(np.shape(np.atleast_1d(stations)))
+
+
+def _strength_diagrams(bd: BeamDemand, length: float, out: BeamResult) -> list:
+    """(combination, diagram) pairs; analysis demand rescales or replaces them."""
+    computed = (
+        [(c.name, bd.analysis.combine(c.factors)) for c in bd.combinations]
+        if bd.analysis is not None
+        else []
+    )
+    if bd.source != "analysis":
+        return computed
+    if computed:
+        peak = max(float(np.max(np.abs(d.M))) for _, d in computed)
+        if peak > 0:
+            scale = bd.max_moment / peak
+            out.notes.append(
+                f"analysis moment applied to the computed moment shape (scaled by {scale:.3f})"
+            )
+            return [("analysis", _Scaled(d, scale)) for _, d in computed[-1:]]
+    out.notes.append("analysis moment taken as uniform along the beam (Cb = 1.0)")
+    return [("analysis", _UniformMoment(length, bd.max_moment))]
+
+
+class _Scaled:
+    """A computed diagram scaled to an analysis moment, keeping its shape for Cb."""
+
+    def __init__(self, d: Diagram, scale: float) -> None:
+        self._d, self._k = d, scale
+        self.x, self.M, self.nodes, self.length = d.x, d.M * scale, d.nodes, d.length
+
+    def moment_at(self, stations) -> np.ndarray:
+        return self._d.moment_at(stations) * self._k
+
+    def shear_at(self, stations) -> np.ndarray:
+        return self._d.shear_at(stations) * self._k
+
+
+def _shear(
+    out: BeamResult, m: Member, bd: BeamDemand, standard: DesignStandard, method: str
+) -> None:
+    assert m.section is not None and m.steel is not None
+    try:
+        res = standard.shear(m.section, m.steel, method)
+    except OutOfScopeError as exc:
+        out.notes.append(f"shear not checked: {exc}")
+        return
+    out.shear_demand = float(bd.max_shear)
+    out.shear_capacity = float(res.design_strength)
+    out.shear_ratio = out.shear_demand / out.shear_capacity if out.shear_capacity > 0 else None
+
+
+def _deflection(out: BeamResult, m: Member, bd: BeamDemand, settings: Settings) -> None:
+    if bd.analysis is None:
+        out.notes.append("deflection not checked: no computed loads")
+        return
+    ratios = []
+    for combo, limit_ratio, attr in (
+        (LIVE_DEFLECTION, settings.deflection.live, "live"),
+        (TOTAL_DEFLECTION, settings.deflection.total, "total"),
+    ):
+        d = bd.analysis.combine(combo.factors)
+        worst = (0.0, 0.0, 0.0)  # (ratio, deflection, allowed)
+        for a, b, kind, w in d.span_deflections():
+            if not np.isfinite(w):
+                continue
+            length = (b - a) * (OVERHANG_FACTOR if kind == "overhang" else 1.0)
+            allowed = length / limit_ratio
+            if allowed > 0 and w / allowed > worst[0]:
+                worst = (w / allowed, w, allowed)
+        setattr(out, f"deflection_{attr}", worst[1])
+        setattr(out, f"deflection_{attr}_limit", worst[2] or None)
+        ratios.append(worst[0])
+    out.deflection_ratio = max(ratios) if ratios else None
+
+
+def _diagram_out(d: Diagram) -> DiagramOut:
+    xs = np.linspace(0.0, float(d.length), DIAGRAM_POINTS)
+    xs = np.union1d(xs, d.nodes)
+    return DiagramOut(
+        stations=[float(v) for v in xs],
+        moment=[float(v) for v in d.moment_at(xs)],
+        shear=[float(v) for v in d.shear_at(xs)],
+    )
+
+
+def _curve(out: BeamResult, m: Member, standard: DesignStandard, method: str) -> None:
+    gov = out.governing
+    if gov is None:
+        return
+    assert m.section is not None and m.steel is not None
+    out.curve = list(_curve_points(standard, m.section, m.steel, round(gov.cb, 2), method, gov.lb))
+
+
+@functools.lru_cache(maxsize=4096)
+def _curve_limits(standard: DesignStandard, section, steel, method: str) -> float:
+    return float(standard.flexure(section, steel, [0.0], [1.0], method).lr[0])
+
+
+def _curve_points(
+    standard: DesignStandard, section, steel, cb: float, method: str, lb: float
+) -> tuple[tuple[float, float], ...]:
+    """Strength-versus-Lb curve through 1.5·Lr (or past the beam's own Lb), cached:
+    many beams share a shape, grade and Cb."""
+    lr = _curve_limits(standard, section, steel, method)
+    lb_max = max(1.5 * lr, math.ceil(1.25 * lb), 1.0)
+    return _curve_cached(standard, section, steel, cb, method, lb_max)
+
+
+@functools.lru_cache(maxsize=4096)
+def _curve_cached(
+    standard: DesignStandard, section, steel, cb: float, method: str, lb_max: float
+) -> tuple[tuple[float, float], ...]:
+    curve = standard.strength_curve(section, steel, cb, method, lb_max, CURVE_POINTS)
+    return tuple((float(a), float(b)) for a, b in zip(curve.lb, curve.design_strength, strict=True))

@@ -1,0 +1,259 @@
+"""Settings: typed, validated, SI base units.
+
+The TOML loader (``load_settings``) turns quantity strings such as "60 psf"
+or "2.4 kPa" into these dataclasses; without a file the defaults apply.
+"""
+
+from __future__ import annotations
+
+import tomllib
+from collections.abc import Callable, Mapping
+from dataclasses import asdict, dataclass, field
+from pathlib import Path
+from typing import Any
+
+from ifccheck.units import QuantityError, parse_quantity
+
+
+@dataclass
+class DesignSettings:
+    standard: str = "AISC 360-16"
+    method: str = "LRFD"  # or "ASD"
+
+
+@dataclass
+class SteelSettings:
+    default_grade: str = "A992"
+
+
+@dataclass
+class FramingSettings:
+    # An end within half the host's flange width plus this gap (plan) counts
+    # as framing into it; covers setbacks of an infill end short of a web.
+    gap: float = 0.050  # m (common practice: 2 in)
+    # Extra vertical tolerance beyond the host's depth.
+    elevation_tolerance: float = 0.050  # m
+    # A slab underside within this of the top of steel bears on the beam.
+    slab_bearing_tolerance: float = 0.050  # m
+
+
+@dataclass
+class BracingSettings:
+    slab: bool = True  # a slab on the top flange braces it continuously
+
+
+@dataclass
+class StoreyLoads:
+    dead: float | None = None  # Pa, superimposed dead
+    live: float | None = None  # Pa
+    deck_span: str | None = None  # "x", "y" or an angle in degrees as text
+
+
+@dataclass
+class LoadSettings:
+    dead: float = 2872.8  # Pa (60 psf) superimposed dead on every floor
+    live: float = 4788.0  # Pa (100 psf)
+    concrete_density: float = 2400.0  # kg/m³, normal-weight concrete
+    steel_density: float = 7850.0  # kg/m³
+    storeys: dict[str, StoreyLoads] = field(default_factory=dict)
+    slabs: dict[str, StoreyLoads] = field(default_factory=dict)  # by slab GUID
+
+
+@dataclass
+class DeflectionSettings:
+    live: float = 360.0  # span / 360
+    total: float = 240.0  # span / 240
+
+
+@dataclass
+class Settings:
+    design: DesignSettings = field(default_factory=DesignSettings)
+    steel: SteelSettings = field(default_factory=SteelSettings)
+    framing: FramingSettings = field(default_factory=FramingSettings)
+    bracing: BracingSettings = field(default_factory=BracingSettings)
+    loads: LoadSettings = field(default_factory=LoadSettings)
+    deflection: DeflectionSettings = field(default_factory=DeflectionSettings)
+
+
+# --------------------------------------------------------------------------
+# TOML loading and validation
+# --------------------------------------------------------------------------
+
+
+class SettingsError(ValueError):
+    """A settings file or value that cannot be used; the message names the key."""
+
+
+def load_settings(path: Path | None) -> Settings:
+    """Read a TOML settings file; ``None`` gives the defaults."""
+    if path is None:
+        return Settings()
+    path = Path(path)
+    try:
+        text = path.read_bytes()
+    except FileNotFoundError:
+        raise SettingsError(f"settings: {path}: no such file") from None
+    except OSError as e:
+        raise SettingsError(f"settings: {path}: cannot be read ({e.strerror})") from None
+    try:
+        data = tomllib.loads(text.decode("utf-8"))
+    except UnicodeDecodeError:
+        raise SettingsError(f"settings: {path}: not UTF-8 text") from None
+    except tomllib.TOMLDecodeError as e:
+        raise SettingsError(f"settings: {path}: invalid TOML: {e}") from None
+    return settings_from_dict(data)
+
+
+def settings_from_dict(d: Mapping[str, Any]) -> Settings:
+    """Validate a parsed TOML document (nested dicts) into :class:`Settings`."""
+    s = Settings()
+    _check_table(d, "", set(_SECTIONS))
+    for section, fields in _SECTIONS.items():
+        table = d.get(section)
+        if table is None:
+            continue
+        _check_table(table, section, set(fields))
+        target = getattr(s, section)
+        for key, value in table.items():
+            setattr(target, key, fields[key](value, f"{section}.{key}"))
+    return s
+
+
+def settings_to_dict(s: Settings) -> dict[str, Any]:
+    """Plain dict of the settings in SI base units (Pa, m, kg/m³; deflection as span/N)."""
+    return asdict(s)
+
+
+def deck_span_degrees(text: str) -> float:
+    """Plan angle (degrees from +x, in [0, 180)) of a normalised deck_span value."""
+    if text == "x":
+        return 0.0
+    if text == "y":
+        return 90.0
+    return float(text) % 180.0
+
+
+def _key(path: str, key: str) -> str:
+    part = key if key.replace("_", "").replace("-", "").isalnum() else f'"{key}"'
+    return f"{path}.{part}" if path else part
+
+
+def _fail(key: str, message: str) -> SettingsError:
+    return SettingsError(f"settings: {key}: {message}")
+
+
+def _check_table(value: Any, key: str, allowed: set[str]) -> None:
+    if not isinstance(value, Mapping):
+        raise _fail(key or "(top level)", f"{value!r} is not a table")
+    for k in value:
+        if k not in allowed:
+            where = _key(key, k)
+            raise _fail(where, f"unknown key (expected one of: {', '.join(sorted(allowed))})")
+
+
+def _quantity(
+    dimension: str, minimum: float = 0.0, strict: bool = False
+) -> Callable[[Any, str], float]:
+    def parse(value: Any, key: str) -> float:
+        if isinstance(value, int | float) and not isinstance(value, bool) and value == 0:
+            q = 0.0  # a bare zero needs no unit
+        else:
+            try:
+                q = parse_quantity(value, dimension)
+            except QuantityError as e:
+                raise _fail(key, str(e)) from None
+        if strict and q <= minimum:
+            raise _fail(key, f"{value!r} must be greater than {minimum:g}")
+        if q < minimum:
+            raise _fail(key, f"{value!r} must not be negative")
+        return q
+
+    return parse
+
+
+def _string(value: Any, key: str) -> str:
+    if not isinstance(value, str) or not value.strip():
+        raise _fail(key, f"{value!r} is not a non-empty string")
+    return value.strip()
+
+
+def _method(value: Any, key: str) -> str:
+    text = _string(value, key).upper()
+    if text not in ("LRFD", "ASD"):
+        raise _fail(key, f"{value!r} is not 'LRFD' or 'ASD'")
+    return text
+
+
+def _bool(value: Any, key: str) -> bool:
+    if not isinstance(value, bool):
+        raise _fail(key, f"{value!r} is not true or false")
+    return value
+
+
+def _ratio(value: Any, key: str) -> float:
+    """A deflection limit as span/N: 360, 360.0, "360" or "L/360"."""
+    number: Any = value
+    if isinstance(value, str):
+        text = value.strip().replace(" ", "")
+        if text[:2].upper() == "L/":
+            text = text[2:]
+        try:
+            number = float(text)
+        except ValueError:
+            raise _fail(key, f"{value!r} is not a span ratio like 360 or 'L/360'") from None
+    if isinstance(number, bool) or not isinstance(number, int | float):
+        raise _fail(key, f"{value!r} is not a span ratio like 360 or 'L/360'")
+    if not number > 0 or number == float("inf"):
+        raise _fail(key, f"{value!r} must be a positive span ratio")
+    return float(number)
+
+
+def _deck_span(value: Any, key: str) -> str:
+    if isinstance(value, str) and value.strip().lower() in ("x", "y"):
+        return value.strip().lower()
+    try:
+        degrees = parse_quantity(value, "angle")
+    except QuantityError:
+        raise _fail(key, f"{value!r} is not 'x', 'y' or an angle like '30 deg'") from None
+    return f"{degrees % 180.0:g}"
+
+
+_STOREY_FIELDS: dict[str, Callable[[Any, str], Any]] = {
+    "dead": _quantity("pressure"),
+    "live": _quantity("pressure"),
+    "deck_span": _deck_span,
+}
+
+
+def _storey_table(value: Any, key: str) -> dict[str, StoreyLoads]:
+    if not isinstance(value, Mapping):
+        raise _fail(key, f"{value!r} is not a table")
+    out: dict[str, StoreyLoads] = {}
+    for name, entry in value.items():
+        where = _key(key, name)
+        _check_table(entry, where, set(_STOREY_FIELDS))
+        out[name] = StoreyLoads(
+            **{k: _STOREY_FIELDS[k](v, _key(where, k)) for k, v in entry.items()}
+        )
+    return out
+
+
+_SECTIONS: dict[str, dict[str, Callable[[Any, str], Any]]] = {
+    "design": {"standard": _string, "method": _method},
+    "steel": {"default_grade": _string},
+    "framing": {
+        "gap": _quantity("length"),
+        "elevation_tolerance": _quantity("length"),
+        "slab_bearing_tolerance": _quantity("length"),
+    },
+    "bracing": {"slab": _bool},
+    "loads": {
+        "dead": _quantity("pressure"),
+        "live": _quantity("pressure"),
+        "concrete_density": _quantity("density", strict=True),
+        "steel_density": _quantity("density", strict=True),
+        "storeys": _storey_table,
+        "slabs": _storey_table,
+    },
+    "deflection": {"live": _ratio, "total": _ratio},
+}

@@ -1,0 +1,195 @@
+"""Compare the checks of two revisions: which beams lost bracing or got worse.
+
+Beams match by GlobalId; beams whose GUIDs were regenerated match by
+geometry (centroid line within a tolerance and the same profile). Brace
+stations of the old beam are carried onto the new beam's axis by projecting
+their points, so a beam that was redrawn in the other direction still
+compares station for station.
+"""
+
+from __future__ import annotations
+
+from collections import defaultdict
+
+import numpy as np
+
+from ifccheck.results import BeamChange, BeamResult, CheckResult, DiffResult
+
+# Two brace points closer than this are the same point (common practice:
+# modelled framing moves by inches between revisions without meaning).
+STATION_TOLERANCE = 0.15  # m
+# Beams whose ends lie this close (and share a profile) are the same beam.
+MATCH_TOLERANCE = 0.05  # m
+# Ratio increases below this are noise from load redistribution rounding.
+RATIO_TOLERANCE = 0.005
+STATUS_RANK = {"pass": 0, "fail": 1, "not_checked": 2}
+
+
+def match_beams(
+    old: list[BeamResult], new: list[BeamResult]
+) -> tuple[list[tuple[BeamResult, BeamResult, str]], list[BeamResult], list[BeamResult]]:
+    """(matched pairs with how, added in new, removed from old)."""
+    old_by_guid = {b.guid: b for b in old}
+    pairs: list[tuple[BeamResult, BeamResult, str]] = []
+    unmatched_new: list[BeamResult] = []
+    for b in new:
+        o = old_by_guid.pop(b.guid, None)
+        if o is not None:
+            pairs.append((o, b, "guid"))
+        else:
+            unmatched_new.append(b)
+    # geometry fallback through a grid hash of midpoints: O(n), no all-pairs
+    cell = MATCH_TOLERANCE * 2
+    grid: dict[tuple[int, int, int], list[BeamResult]] = defaultdict(list)
+    for o in old_by_guid.values():
+        grid[_cell(_mid(o), cell)].append(o)
+    added: list[BeamResult] = []
+    for b in unmatched_new:
+        found = None
+        cx, cy, cz = _cell(_mid(b), cell)
+        for key in (
+            (cx + i, cy + j, cz + k) for i in (-1, 0, 1) for j in (-1, 0, 1) for k in (-1, 0, 1)
+        ):
+            for o in grid.get(key, ()):
+                if o.profile == b.profile and _same_line(o, b):
+                    found = o
+                    break
+            if found:
+                break
+        if found is None:
+            added.append(b)
+            continue
+        grid[_cell(_mid(found), cell)].remove(found)
+        old_by_guid.pop(found.guid)
+        pairs.append((found, b, "geometry"))
+    return pairs, added, list(old_by_guid.values())
+
+
+def _mid(b: BeamResult) -> np.ndarray:
+    return (np.asarray(b.start) + np.asarray(b.end)) / 2
+
+
+def _cell(p: np.ndarray, size: float) -> tuple[int, int, int]:
+    q = np.floor(p / size).astype(int)
+    return int(q[0]), int(q[1]), int(q[2])
+
+
+def _same_line(a: BeamResult, b: BeamResult) -> bool:
+    a0, a1, b0, b1 = (np.asarray(p) for p in (a.start, a.end, b.start, b.end))
+    same = max(np.linalg.norm(a0 - b0), np.linalg.norm(a1 - b1))
+    flipped = max(np.linalg.norm(a0 - b1), np.linalg.norm(a1 - b0))
+    return bool(min(same, flipped) <= MATCH_TOLERANCE)
+
+
+def _to_new_stations(old: BeamResult, new: BeamResult, stations: list[float]) -> list[float]:
+    """Old stations as points, projected onto the new beam's axis."""
+    o0, o1 = np.asarray(old.start), np.asarray(old.end)
+    n0, n1 = np.asarray(new.start), np.asarray(new.end)
+    ot = (o1 - o0) / max(np.linalg.norm(o1 - o0), 1e-12)
+    nt = (n1 - n0) / max(np.linalg.norm(n1 - n0), 1e-12)
+    pts = o0 + np.outer(stations, ot)
+    return [float(v) for v in (pts - n0) @ nt]
+
+
+def _braces(b: BeamResult) -> list[float]:
+    return sorted({round(p.station, 4) for p in b.brace_points if p.counts})
+
+
+def _unmatched(a: list[float], b: list[float]) -> list[float]:
+    """Stations of ``a`` with no station of ``b`` within the tolerance."""
+    bb = np.asarray(b)
+    return [s for s in a if bb.size == 0 or np.min(np.abs(bb - s)) > STATION_TOLERANCE]
+
+
+def _covered(b: BeamResult) -> float:
+    return sum(e - s for s, e in b.continuous_bracing)
+
+
+def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChange | None:
+    """The change of one matched beam, or None when nothing that matters changed."""
+    old_braces = _to_new_stations(old, new, _braces(old))
+    new_braces = _braces(new)
+    lost = _unmatched(old_braces, new_braces)
+    added = _unmatched(new_braces, old_braces)
+    old_sup = {s["by"] for s in old.supports}
+    new_sup = {s["by"] for s in new.supports}
+    lost_sup = sorted(old_sup - new_sup) if matched_by == "guid" else []
+    gained_sup = sorted(new_sup - old_sup) if matched_by == "guid" else []
+    if len(new.supports) < len(old.supports) and not lost_sup:
+        lost_sup = ["(support count fell)"]
+    lost_cover = max(0.0, _covered(old) - _covered(new))
+    lb_before = old.governing.lb if old.governing else None
+    lb_after = new.governing.lb if new.governing else None
+    change = BeamChange(
+        guid=new.guid,
+        old_guid=old.guid,
+        name=new.name,
+        storey=new.storey,
+        matched_by=matched_by,  # type: ignore[arg-type]
+        lost_brace_points=[round(s, 4) for s in lost],
+        added_brace_points=[round(s, 4) for s in added],
+        lost_supports=lost_sup,
+        gained_supports=gained_sup,
+        lost_continuous_bracing=round(lost_cover, 4),
+        lb_before=lb_before,
+        lb_after=lb_after,
+        ratio_before=old.ratio,
+        ratio_after=new.ratio,
+        status_before=old.status,
+        status_after=new.status,
+    )
+    worse, better = _assess(change)
+    if not worse and not better:
+        return None
+    change.severity = "regression" if worse else "improvement"
+    change.reasons = worse or better
+    return change
+
+
+def _assess(c: BeamChange) -> tuple[list[str], list[str]]:
+    worse: list[str] = []
+    better: list[str] = []
+    if c.lost_brace_points:
+        worse.append(
+            "lost brace point(s) at station(s) "
+            + ", ".join(f"{s:.2f} m" for s in c.lost_brace_points)
+        )
+    if c.added_brace_points:
+        better.append(f"{len(c.added_brace_points)} brace point(s) added")
+    if c.lost_supports:
+        worse.append("lost support(s): " + ", ".join(c.lost_supports))
+    if c.gained_supports:
+        better.append("gained support(s): " + ", ".join(c.gained_supports))
+    if c.lost_continuous_bracing > STATION_TOLERANCE:
+        worse.append(f"slab-braced length fell by {c.lost_continuous_bracing:.2f} m")
+    if (
+        c.lb_before is not None
+        and c.lb_after is not None
+        and c.lb_after > c.lb_before + STATION_TOLERANCE
+    ):
+        worse.append(f"governing Lb grew from {c.lb_before:.2f} m to {c.lb_after:.2f} m")
+    rank_b, rank_a = STATUS_RANK[c.status_before], STATUS_RANK[c.status_after]
+    if rank_a > rank_b:
+        worse.append(f"status went from {c.status_before} to {c.status_after}")
+    elif rank_a < rank_b:
+        better.append(f"status went from {c.status_before} to {c.status_after}")
+    if c.ratio_before is not None and c.ratio_after is not None:
+        if c.ratio_after > c.ratio_before + RATIO_TOLERANCE:
+            worse.append(f"ratio rose from {c.ratio_before:.3f} to {c.ratio_after:.3f}")
+        elif c.ratio_after < c.ratio_before - RATIO_TOLERANCE:
+            better.append(f"ratio fell from {c.ratio_before:.3f} to {c.ratio_after:.3f}")
+    return worse, better
+
+
+def diff_results(old: CheckResult, new: CheckResult) -> DiffResult:
+    pairs, added, removed = match_beams(old.beams, new.beams)
+    changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how)) is not None]
+    changes.sort(key=lambda c: (c.severity != "regression", c.storey, c.name))
+    return DiffResult(
+        old=old,
+        new=new,
+        matched=len(pairs),
+        added=[b.guid for b in added],
+        removed=[b.guid for b in removed],
+        changes=changes,
+    )

@@ -1,0 +1,555 @@
+"""Demand on every floor beam: Model + Framing + Settings → loads, diagrams, maxima.
+
+1. Tributary widths (``tributary.py``) turn area loads into line loads:
+   superimposed dead and live load on the floor area, slab self-weight from
+   each slab's modelled thickness, steel self-weight from the section area.
+2. The load path runs carried → carrier: beams are solved level by level
+   (infill, then the girders they frame into, ...), each beam's unfactored
+   end reactions per load case (D, L) becoming point loads on the members it
+   bears on at the station where it meets them. Columns, walls and other
+   non-beam supports collect the reactions (reported, not checked).
+3. Statics per beam (``statics.py``) and the ASCE 7-16 combinations
+   (``combinations.py``) give the diagrams and the governing combination for
+   moment and for shear.
+
+A beam that cannot be computed (fewer than two supports, part of a support
+cycle, outside the framing analysis) gets a ``reason``; the rest of the model
+is computed without it. Demand from an analysis (``load_demand_csv``)
+overrides the computed maxima of the beams it names.
+"""
+
+from __future__ import annotations
+
+import csv
+import re
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Literal
+
+import networkx as nx
+import numpy as np
+
+from ifccheck.config import Settings, StoreyLoads
+from ifccheck.framing.types import Framing, Support
+from ifccheck.loads.combinations import (
+    LIVE_DEFLECTION,
+    SERVICE,
+    TOTAL_DEFLECTION,
+    Combination,
+    governing,
+    strength_combinations,
+)
+from ifccheck.loads.statics import (
+    BeamAnalysis,
+    BeamProblem,
+    CaseLoads,
+    Diagram,
+    LineLoad,
+    PointLoad,
+    UnstableBeamError,
+    analyse_beams,
+)
+from ifccheck.loads.tributary import DeckSpan, Tributary, compute_tributary
+from ifccheck.model import Member, Model, Slab
+from ifccheck.results import DemandOut, LineLoadOut, PointLoadOut
+from ifccheck.units import G, QuantityError, parse_quantity
+
+CASES = ("D", "L")
+
+# Support priority when one beam end bears on several members at once (an
+# infill end at a column-girder joint): the reaction goes to the first kind.
+_SUPPORT_RANK = {"IfcColumn": 0, "IfcWall": 1}
+
+
+@dataclass(frozen=True)
+class LineLoadItem:
+    case: str  # "D" or "L"
+    w: float  # N/m, downward positive
+    start: float  # m along the beam
+    end: float
+    source: str  # "superimposed dead", "live", "slab self-weight <guid>", "steel self-weight"
+
+
+@dataclass(frozen=True)
+class PointLoadItem:
+    case: str
+    P: float  # N, downward positive (negative: uplift from a backspan)
+    station: float  # m along the beam
+    source: str  # GUID of the beam whose reaction this is
+
+
+@dataclass
+class SupportReaction:
+    """One support of a beam and its unfactored reaction per load case."""
+
+    station: float
+    by: str
+    by_class: str
+    end: str | None
+    reactions: dict[str, float] = field(default_factory=dict)  # case → N, upward positive
+
+
+@dataclass
+class BeamDemand:
+    """Loads, diagrams and maxima for one beam."""
+
+    guid: str
+    storey: str
+    length: float
+    role: str = "other"  # tributary role: deck, girder, other
+    reason: str = ""  # why no demand could be computed
+    notes: list[str] = field(default_factory=list)
+    tributary_left: float = 0.0  # m
+    tributary_right: float = 0.0
+    line_loads: list[LineLoadItem] = field(default_factory=list)
+    point_loads: list[PointLoadItem] = field(default_factory=list)
+    supports: list[SupportReaction] = field(default_factory=list)
+    analysis: BeamAnalysis | None = None
+    combinations: tuple[Combination, ...] = ()
+    governing_moment: str = ""
+    governing_shear: str = ""
+    max_moment: float = 0.0  # N·m, |M| of the governing combination
+    max_shear: float = 0.0  # N
+    source: Literal["computed", "analysis", "none"] = "none"
+
+    @property
+    def computed(self) -> bool:
+        return self.analysis is not None
+
+    @property
+    def spans(self) -> list[tuple[float, float, str]]:
+        """(start, end, "span" | "overhang") between supports, m."""
+        return self.analysis.spans if self.analysis is not None else []
+
+    def diagram(self, combination: str | Combination) -> Diagram:
+        """Diagram of a strength or service combination, or of a load case by name."""
+        if self.analysis is None:
+            raise ValueError(f"{self.guid}: no diagram ({self.reason or 'demand from analysis'})")
+        if isinstance(combination, Combination):
+            return self.analysis.combine(combination.factors)
+        for c in (*self.combinations, *SERVICE):
+            if c.name == combination:
+                return self.analysis.combine(c.factors)
+        if combination in self.analysis.cases:
+            return self.analysis.case(combination)
+        raise KeyError(f"no combination or load case named {combination!r}")
+
+    def governing_diagram(self, effect: Literal["moment", "shear"] = "moment") -> Diagram:
+        """The governing strength combination's diagram (scaled to an analysis
+        override of the maximum, where one was given)."""
+        name = self.governing_moment if effect == "moment" else self.governing_shear
+        combo = next((c for c in self.combinations if c.name == name), None)
+        if combo is None:
+            combo = self.combinations[-1] if self.combinations else None
+        if combo is None or self.analysis is None:
+            raise ValueError(f"{self.guid}: no diagram")
+        return self.analysis.combine(combo.factors)
+
+    def live_deflection(self) -> Diagram:
+        return self.diagram(LIVE_DEFLECTION)
+
+    def total_deflection(self) -> Diagram:
+        return self.diagram(TOTAL_DEFLECTION)
+
+    def to_output(self) -> DemandOut:
+        """The auditable summary for the results writers."""
+        return DemandOut(
+            source=self.source,
+            tributary_left=self.tributary_left,
+            tributary_right=self.tributary_right,
+            line_loads=[
+                LineLoadOut(x.case, x.w, x.start, x.end, x.source) for x in self.line_loads
+            ],
+            point_loads=[PointLoadOut(x.case, x.P, x.station, x.source) for x in self.point_loads],
+            moment_combination=self.governing_moment,
+            shear_combination=self.governing_shear,
+            max_moment=self.max_moment,
+            max_shear=self.max_shear,
+            reactions={c: [s.reactions.get(c, 0.0) for s in self.supports] for c in CASES},
+        )
+
+
+@dataclass
+class DemandResult:
+    beams: dict[str, BeamDemand]
+    deck_spans: dict[str, DeckSpan]
+    # unfactored reactions per case on columns, walls and other non-beam supports
+    support_reactions: dict[str, dict[str, float]]
+    method: str
+    warnings: list[tuple[str, str]] = field(default_factory=list)
+
+
+class DemandFileError(ValueError):
+    """A demand CSV that cannot be read; the message is one line."""
+
+
+def _pressures(settings: Settings, storey: str, slab: Slab | None) -> tuple[float, float]:
+    """(superimposed dead, live) in Pa: slab override, then storey, then default."""
+    loads = settings.loads
+    chain: list[StoreyLoads | None] = []
+    if slab is not None:
+        chain += [loads.slabs.get(slab.guid), loads.storeys.get(slab.storey)]
+    chain.append(loads.storeys.get(storey))
+    dead = next((e.dead for e in chain if e is not None and e.dead is not None), loads.dead)
+    live = next((e.live for e in chain if e is not None and e.live is not None), loads.live)
+    return dead, live
+
+
+def _own_loads(
+    m: Member, length: float, tr: Tributary | None, settings: Settings, slabs: Mapping[str, Slab]
+) -> list[LineLoadItem]:
+    out: list[LineLoadItem] = []
+    if m.section is not None and m.section.A > 0:
+        w = m.section.A * settings.loads.steel_density * G
+        out.append(LineLoadItem("D", w, 0.0, length, "steel self-weight"))
+    if tr is None:
+        return out
+    for p in tr.pieces:
+        slab = slabs.get(p.slab) if p.slab else None
+        if p.kind == "floor":
+            dead, live = _pressures(settings, m.storey, slab)
+            if dead > 0:
+                out.append(LineLoadItem("D", dead * p.width, p.start, p.end, "superimposed dead"))
+            if live > 0:
+                out.append(LineLoadItem("L", live * p.width, p.start, p.end, "live"))
+        elif slab is not None:
+            q = slab.thickness * settings.loads.concrete_density * G
+            out.append(
+                LineLoadItem("D", q * p.width, p.start, p.end, f"slab self-weight {slab.guid}")
+            )
+    return out
+
+
+@dataclass(frozen=True)
+class _Line:
+    """A member's centroid line: start point, unit direction, length."""
+
+    start: np.ndarray
+    direction: np.ndarray
+    length: float
+
+
+def _lines(members: list[Member]) -> dict[str, _Line]:
+    if not members:
+        return {}
+    a = np.array([m.start for m in members], dtype=float)
+    b = np.array([m.end for m in members], dtype=float)
+    length = np.linalg.norm(b - a, axis=1)
+    d = (b - a) / np.where(length > 0, length, 1.0)[:, None]
+    return {m.guid: _Line(a[i], d[i], float(length[i])) for i, m in enumerate(members)}
+
+
+def _host_station(framing: Framing, carried: _Line, guid: str, sup: Support, host: _Line) -> float:
+    """Station along the host where the carried beam's support point meets it:
+    the framing graph's edge station, else the projection onto the host's line."""
+    data = framing.graph.get_edge_data(guid, sup.by) if framing.graph.has_node(guid) else None
+    best = None
+    for d in (data or {}).values():
+        if "station" not in d:
+            continue
+        if sup.end is not None and d.get("end") == sup.end:
+            return float(d["station"])
+        at = d.get("at")
+        closer = best is None or (
+            at is not None and abs(at - sup.station) < abs(best[0] - sup.station)
+        )
+        if sup.end is None and at is not None and closer:
+            best = (at, float(d["station"]))
+    if best is not None:
+        return best[1]
+    p = carried.start + carried.direction * sup.station
+    s = float((p - host.start) @ host.direction)
+    return min(max(s, 0.0), host.length)
+
+
+def _levels(
+    beams: list[str], carries: Mapping[str, set[str]], rank: Mapping[str, int]
+) -> tuple[list[list[str]], list[list[str]]]:
+    """Solve order as levels (a beam after every beam it carries) and the support
+    cycles found; cycle members are left out of the levels."""
+    pool = set(beams)
+    remaining = {b: set(carries.get(b, ())) & pool for b in beams}
+    done: set[str] = set()
+    levels: list[list[str]] = []
+    cycles: list[list[str]] = []
+    while remaining:
+        ready = sorted((b for b, deps in remaining.items() if deps <= done), key=rank.get)
+        if not ready:
+            g = nx.DiGraph()
+            g.add_nodes_from(remaining)
+            g.add_edges_from((c, b) for b, deps in remaining.items() for c in deps - done)
+            stuck: set[str] = set()
+            for comp in nx.strongly_connected_components(g):
+                if len(comp) > 1 or any(g.has_edge(n, n) for n in comp):
+                    ring = sorted(comp, key=rank.get)
+                    cycles.append(ring)
+                    stuck |= comp
+            for b in stuck:
+                del remaining[b]
+            done |= stuck  # they deliver nothing; their carriers go on without them
+            continue
+        levels.append(ready)
+        done.update(ready)
+        for b in ready:
+            del remaining[b]
+    return levels, cycles
+
+
+def compute_demand(
+    model: Model,
+    framing: Framing,
+    settings: Settings,
+    overrides: Mapping[str, tuple[float, float | None]] | None = None,
+) -> DemandResult:
+    """Demand on every floor beam of the model (see the module docstring)."""
+    trib = compute_tributary(model, settings)
+    members = {m.guid: m for m in model.members}
+    slabs = {s.guid: s for s in model.slabs}
+    combos = strength_combinations(settings.design.method)
+    result = DemandResult(
+        beams={},
+        deck_spans=trib.deck_spans,
+        support_reactions={},
+        method=settings.design.method,
+        warnings=list(trib.warnings),
+    )
+    beams = [members[g] for g in trib.beams]
+    lines = _lines(beams)
+    rank = {g: i for i, g in enumerate(framing.load_order)}
+    for i, m in enumerate(beams):
+        rank.setdefault(m.guid, len(framing.load_order) + i)
+
+    own: dict[str, list[LineLoadItem]] = {}
+    for m in beams:
+        tr = trib.beams[m.guid]
+        bd = BeamDemand(
+            guid=m.guid,
+            storey=m.storey,
+            length=lines[m.guid].length,
+            role=tr.role,
+            tributary_left=tr.left,
+            tributary_right=tr.right,
+            combinations=combos,
+            notes=list(tr.notes),
+        )
+        result.beams[m.guid] = bd
+        own[m.guid] = _own_loads(m, lines[m.guid].length, tr, settings, slabs)
+        if m.section is None:
+            bd.notes.append("no section: steel self-weight and deflection not computed")
+        mf = framing.members.get(m.guid)
+        if mf is None:
+            bd.reason = "not in the framing analysis: supports unknown"
+            continue
+        bd.notes += [n for n in mf.notes if n not in bd.notes]
+        for s in mf.supports:
+            bd.supports.append(SupportReaction(s.station, s.by, s.by_class, s.end))
+        if not mf.supports:
+            bd.reason = "no support found: the beam bears on nothing"
+
+    carries: dict[str, set[str]] = {}
+    for m in beams:
+        for s in result.beams[m.guid].supports:
+            if s.by in result.beams:
+                carries.setdefault(s.by, set()).add(m.guid)
+    solvable = [m.guid for m in beams if not result.beams[m.guid].reason]
+    levels, cycles = _levels(solvable, carries, rank)
+    for ring in cycles:
+        path = " → ".join([*ring, ring[0]])
+        for g in ring:
+            result.beams[g].reason = f"load-path cycle {path}: members bear on each other"
+        result.warnings.append((ring[0], f"load-path cycle {path}: not computed"))
+
+    incoming: dict[str, list[PointLoadItem]] = {}
+    for level in levels:
+        problems = []
+        for g in level:
+            bd = result.beams[g]
+            m = members[g]
+            items = own[g]
+            bd.line_loads = items
+            bd.point_loads = sorted(incoming.get(g, []), key=lambda p: (p.station, p.source))
+            line: dict[str, list[LineLoad]] = {c: [] for c in CASES}
+            point: dict[str, list[PointLoad]] = {c: [] for c in CASES}
+            for x in items:
+                line[x.case].append(LineLoad(x.w, x.start, x.end))
+            for y in bd.point_loads:
+                point[y.case].append(PointLoad(y.P, y.station))
+            cases = {c: CaseLoads(tuple(line[c]), tuple(point[c])) for c in CASES}
+            fr = framing.members[g]
+            extra = {b.station for b in fr.brace_points}
+            extra |= {x for iv in fr.continuous_bracing for x in iv}
+            EI = m.steel.E * m.section.Ix if m.section is not None and m.steel is not None else None
+            problems.append(
+                BeamProblem(
+                    lines[g].length, [s.station for s in bd.supports], cases, EI, sorted(extra)
+                )
+            )
+        factors = [c.factors for c in combos]
+        for g, res in zip(level, analyse_beams(problems, combinations=factors), strict=True):
+            bd = result.beams[g]
+            if isinstance(res, Exception):
+                kind = "unstable" if isinstance(res, UnstableBeamError) else "statics failed"
+                bd.reason = f"{kind}: {res}"
+                state = framing.members[g].state
+                if state == "cantilever":
+                    bd.reason += " (a cantilever needs a moment connection at its support)"
+                continue
+            bd.analysis = res
+            bd.source = "computed"
+            _deliver(bd, res, lines, result, incoming, framing)
+            mo, sh = res.maxima if res.maxima is not None else res.combination_maxima(factors)
+            (cm, bd.max_moment), (cs, bd.max_shear) = governing(combos, mo), governing(combos, sh)
+            bd.governing_moment, bd.governing_shear = cm.name, cs.name
+
+    for g, bd in result.beams.items():
+        lost = sorted({p.source for p in incoming.get(g, [])}) if bd.reason else []
+        if lost:
+            result.warnings.append(
+                (g, f"not computed ({bd.reason}); reactions of {', '.join(lost)} stop here")
+            )
+    if overrides:
+        _apply_overrides(result, overrides)
+    return result
+
+
+def _deliver(
+    bd: BeamDemand,
+    res: BeamAnalysis,
+    lines: Mapping[str, _Line],
+    result: DemandResult,
+    incoming: dict[str, list[PointLoadItem]],
+    framing: Framing,
+) -> None:
+    """Give each support its reaction and pass it on to the supporting member."""
+    carried = lines[bd.guid]
+    # framing supports → analysis support (merged stations); one receiver each
+    groups: dict[int, list[SupportReaction]] = {}
+    for s in bd.supports:
+        j = int(np.argmin(np.abs(res.supports - s.station)))
+        groups.setdefault(j, []).append(s)
+    fsup = {(s.station, s.by): s for s in framing.members[bd.guid].supports}
+    for j, group in groups.items():
+        group.sort(key=lambda s: (_SUPPORT_RANK.get(s.by_class, 2), s.by))
+        receiver = group[0]
+        if len(group) > 1:
+            others = ", ".join(s.by for s in group[1:])
+            bd.notes.append(
+                f"support at {receiver.station:.3f} m bears on {receiver.by} and {others}: "
+                f"the reaction goes to {receiver.by}"
+            )
+        st = None
+        if receiver.by in result.beams:
+            sup = fsup[(receiver.station, receiver.by)]
+            st = _host_station(framing, carried, bd.guid, sup, lines[receiver.by])
+        for ci, c in enumerate(res.cases):
+            R = float(res.reactions[ci, j])
+            receiver.reactions[c] = R
+            for s in group[1:]:
+                s.reactions[c] = 0.0
+            if st is not None:
+                incoming.setdefault(receiver.by, []).append(PointLoadItem(c, R, st, bd.guid))
+            else:
+                tot = result.support_reactions.setdefault(receiver.by, {})
+                tot[c] = tot.get(c, 0.0) + R
+
+
+def _apply_overrides(
+    result: DemandResult, overrides: Mapping[str, tuple[float, float | None]]
+) -> None:
+    for guid, (moment, shear) in overrides.items():
+        bd = result.beams.get(guid)
+        if bd is None:
+            result.warnings.append((guid, "demand file: no floor beam with this GUID in the model"))
+            continue
+        bd.source = "analysis"
+        bd.max_moment = abs(moment)
+        bd.governing_moment = "analysis"
+        if shear is not None:
+            bd.max_shear = abs(shear)
+            bd.governing_shear = "analysis"
+        elif bd.analysis is None:
+            bd.notes.append("demand file gives no shear and none could be computed")
+        if bd.reason:
+            bd.notes.append(f"computed demand unavailable ({bd.reason}); analysis demand used")
+            bd.reason = ""
+        bd.notes.append("moment" + (" and shear" if shear is not None else "") + " from analysis")
+
+
+# -- demand from an analysis -------------------------------------------------------------
+
+_HEADER = re.compile(r"^\s*(?P<name>[A-Za-z_ ]+?)\s*(?:[\(\[](?P<unit>[^\)\]]*)[\)\]])?\s*$")
+
+
+def load_demand_csv(path: Path) -> dict[str, tuple[float, float | None]]:
+    """Read beam demand from an analysis: GUID → (moment N·m, shear N or None).
+
+    Columns: ``guid``, ``moment`` and optionally ``shear``. Units go in the
+    header in parentheses or brackets — ``moment (kip-ft)``, ``shear [kN]`` —
+    and the cells hold plain numbers; a header without a unit needs a unit in
+    every cell ("250 kip*ft"). Signs are dropped (demand is a magnitude); an
+    empty shear cell means no shear given. Unknown GUIDs are for the caller
+    to report (``compute_demand`` warns about them).
+    """
+    path = Path(path)
+    try:
+        text = path.read_text(encoding="utf-8-sig")
+    except FileNotFoundError:
+        raise DemandFileError(f"demand file {path}: no such file") from None
+    except (OSError, UnicodeDecodeError) as e:
+        raise DemandFileError(f"demand file {path}: cannot be read ({e})") from None
+    rows = list(csv.reader(text.splitlines()))
+    rows = [r for r in rows if any(c.strip() for c in r)]
+    if not rows:
+        raise DemandFileError(f"demand file {path}: empty")
+    cols: dict[str, tuple[int, str | None]] = {}
+    for i, h in enumerate(rows[0]):
+        m = _HEADER.match(h)
+        name = m.group("name").strip().lower() if m else h.strip().lower()
+        if name in cols:
+            raise DemandFileError(f"demand file {path}: column {name!r} appears twice")
+        unit = m.group("unit").strip() if m and m.group("unit") else None
+        cols[name] = (i, unit)
+    for need in ("guid", "moment"):
+        if need not in cols:
+            raise DemandFileError(
+                f"demand file {path}: no {need!r} column (header: {', '.join(rows[0])})"
+            )
+    dims = {"moment": "moment", "shear": "force"}
+    for name in ("moment", "shear"):
+        unit = cols.get(name, (0, None))[1]
+        if unit is not None:
+            try:
+                parse_quantity(f"1 {unit}", dims[name])
+            except QuantityError:
+                raise DemandFileError(
+                    f"demand file {path}: column {name!r}: {unit!r} is not a {dims[name]} unit"
+                ) from None
+
+    def cell(row: list[str], name: str, line: int) -> float | None:
+        if name not in cols:
+            return None
+        i, unit = cols[name]
+        raw = row[i].strip() if i < len(row) else ""
+        if not raw:
+            if name == "shear":
+                return None
+            raise DemandFileError(f"demand file {path}: line {line}: empty {name}")
+        text = f"{raw} {unit}" if unit else raw
+        try:
+            v = parse_quantity(text, dims[name])
+        except QuantityError as e:
+            raise DemandFileError(f"demand file {path}: line {line}: {name}: {e}") from None
+        return abs(v)
+
+    out: dict[str, tuple[float, float | None]] = {}
+    for line, row in enumerate(rows[1:], start=2):
+        gi = cols["guid"][0]
+        guid = row[gi].strip() if gi < len(row) else ""
+        if not guid:
+            raise DemandFileError(f"demand file {path}: line {line}: empty guid")
+        if guid in out:
+            raise DemandFileError(f"demand file {path}: line {line}: {guid} appears twice")
+        moment = cell(row, "moment", line) or 0.0  # never None: an empty moment raises
+        out[guid] = (moment, cell(row, "shear", line))
+    return out

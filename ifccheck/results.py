@@ -1,0 +1,210 @@
+"""What a check produces, per beam and per model: plain data for the writers.
+
+SI base units throughout (m, N, N·m, Pa). Stations are distances along a
+beam's centroid line from its start point.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Literal
+
+Status = Literal["pass", "fail", "not_checked"]
+STATUSES: tuple[Status, ...] = ("pass", "fail", "not_checked")
+
+
+@dataclass
+class SegmentResult:
+    """One unbraced (or continuously braced) length of one flange."""
+
+    start: float
+    end: float
+    lb: float  # 0 where a slab braces the compression flange continuously
+    cb: float
+    flange: Literal["top", "bottom"]  # the flange in compression here
+    moment_demand: float  # N·m, max moment compressing that flange, governing combination
+    moment_capacity: float  # N·m, design (LRFD) or allowable (ASD) strength
+    nominal_moment: float  # N·m, Mn
+    ratio: float
+    limit_state: str  # yielding | inelastic_ltb | elastic_ltb | flange_local_buckling
+    combination: str
+    braced_by: list[str] = field(default_factory=list)  # GUIDs at the segment's ends
+    continuous: bool = False
+
+
+@dataclass
+class BracePointOut:
+    station: float
+    kind: str
+    by: str
+    flange: str
+    counts: bool
+    reason: str = ""
+
+
+@dataclass
+class PointLoadOut:
+    case: str
+    force: float  # N, downward positive
+    station: float
+    source: str  # GUID of the member delivering it
+
+
+@dataclass
+class LineLoadOut:
+    case: str
+    intensity: float  # N/m
+    start: float
+    end: float
+    source: str  # "deck", "slab self-weight", "steel self-weight", ...
+
+
+@dataclass
+class DemandOut:
+    """An auditable summary of how the demand was obtained."""
+
+    source: Literal["computed", "analysis", "none"]
+    tributary_left: float = 0.0
+    tributary_right: float = 0.0
+    line_loads: list[LineLoadOut] = field(default_factory=list)
+    point_loads: list[PointLoadOut] = field(default_factory=list)
+    moment_combination: str = ""
+    shear_combination: str = ""
+    max_moment: float = 0.0
+    max_shear: float = 0.0
+    reactions: dict[str, list[float]] = field(default_factory=dict)  # case → per support
+
+
+@dataclass
+class Diagram:
+    """Governing-combination moment and shear along the beam, for the report."""
+
+    stations: list[float]
+    moment: list[float]  # N·m, sagging positive
+    shear: list[float]  # N
+
+
+@dataclass
+class BeamResult:
+    guid: str
+    name: str
+    storey: str
+    ifc_class: str
+    profile: str
+    grade: str
+    fy: float
+    start: tuple[float, float, float]
+    end: tuple[float, float, float]
+    length: float
+    span: float  # longest distance between adjacent supports (m)
+    supports: list[dict] = field(default_factory=list)  # {station, by}
+    brace_points: list[BracePointOut] = field(default_factory=list)
+    continuous_bracing: list[tuple[float, float]] = field(default_factory=list)
+    free_ends: list[str] = field(default_factory=list)
+    segments: list[SegmentResult] = field(default_factory=list)
+    governing_segment: int | None = None
+    flexure_ratio: float | None = None
+    shear_demand: float | None = None
+    shear_capacity: float | None = None
+    shear_ratio: float | None = None
+    deflection_live: float | None = None  # m
+    deflection_total: float | None = None  # m
+    deflection_live_limit: float | None = None  # m
+    deflection_total_limit: float | None = None  # m
+    deflection_ratio: float | None = None
+    ratio: float | None = None
+    governing_check: str = ""  # "flexure", "shear", "deflection"
+    status: Status = "not_checked"
+    reason: str = ""  # for not_checked
+    notes: list[str] = field(default_factory=list)
+    demand: DemandOut | None = None
+    diagram: Diagram | None = None
+    # design strength versus Lb for this beam's section, steel, Cb and method:
+    # (Lb m, strength N·m) points, for the report's capacity curve
+    curve: list[tuple[float, float]] | None = None
+
+    @property
+    def governing(self) -> SegmentResult | None:
+        if self.governing_segment is None:
+            return None
+        return self.segments[self.governing_segment]
+
+
+@dataclass
+class SlabOutline:
+    guid: str
+    storey: str
+    exterior: list[tuple[float, float]]
+    holes: list[list[tuple[float, float]]] = field(default_factory=list)
+
+
+@dataclass
+class ModelInfo:
+    file: str
+    schema: str
+    sha256: str
+    length_unit: str
+
+
+@dataclass
+class CheckResult:
+    tool: str
+    version: str
+    model: ModelInfo
+    settings: dict
+    standard: str
+    method: str
+    checked_at: str  # ISO 8601 date-time, UTC
+    beams: list[BeamResult]
+    storeys: list[tuple[str, float]] = field(default_factory=list)  # (name, elevation)
+    slabs: list[SlabOutline] = field(default_factory=list)
+    warnings: list[tuple[str, str]] = field(default_factory=list)  # (guid, message)
+    caution: str = ""
+
+    def summary(self) -> dict[str, int]:
+        counts = {s: 0 for s in STATUSES}
+        for b in self.beams:
+            counts[b.status] += 1
+        counts["total"] = len(self.beams)
+        return counts
+
+
+Severity = Literal["regression", "improvement", "changed"]
+
+
+@dataclass
+class BeamChange:
+    """How one beam matched between two revisions changed."""
+
+    guid: str  # GUID in the new revision
+    old_guid: str
+    name: str
+    storey: str
+    matched_by: Literal["guid", "geometry"]
+    lost_brace_points: list[float] = field(default_factory=list)  # stations, new beam's axis
+    added_brace_points: list[float] = field(default_factory=list)
+    lost_supports: list[str] = field(default_factory=list)  # GUIDs
+    gained_supports: list[str] = field(default_factory=list)
+    lost_continuous_bracing: float = 0.0  # m of slab-braced length lost
+    lb_before: float | None = None
+    lb_after: float | None = None
+    ratio_before: float | None = None
+    ratio_after: float | None = None
+    status_before: str = ""
+    status_after: str = ""
+    severity: Severity = "changed"
+    reasons: list[str] = field(default_factory=list)
+
+
+@dataclass
+class DiffResult:
+    old: CheckResult
+    new: CheckResult
+    matched: int
+    added: list[str]  # GUIDs of beams only in the new revision
+    removed: list[str]  # GUIDs of beams only in the old revision
+    changes: list[BeamChange]
+
+    @property
+    def regressions(self) -> list[BeamChange]:
+        return [c for c in self.changes if c.severity == "regression"]

