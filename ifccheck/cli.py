@@ -83,17 +83,29 @@ def _read(path: str, default_grade: str = "A992"):
 @main.command()
 @click.argument("model_path", metavar="MODEL", type=click.Path(dir_okay=False))
 @click.option("--json", "as_json", is_flag=True, help="Write a JSON document to stdout.")
-@click.option("--grade", "default_grade", default="A992", show_default=True,
-              help="Steel grade assumed where the model names none.")  # fmt: skip
-def inspect(model_path: str, as_json: bool, default_grade: str) -> None:
-    """Show what was read from MODEL: members, profiles, grades, slabs."""
+@click.option(
+    "--config",
+    type=click.Path(exists=True, dir_okay=False),
+    help="Settings file (TOML): default grade, tolerances, loads.",
+)
+@click.option("--read-only", is_flag=True,
+              help="Only read the model: skip the framing graph and the demand.")  # fmt: skip
+def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool) -> None:
+    """Show what was read from MODEL and what the framing and loads make of it."""
+    from ifccheck.framing import analyse_framing
+    from ifccheck.loads.demand import compute_demand
     from ifccheck.report.inspect import inspect_document, inspect_text
 
-    model, seconds = _read(model_path, default_grade)
+    settings = _settings(config, None)
+    model, seconds = _read(model_path, settings.steel.default_grade)
+    framing = demand = None
+    if not read_only:
+        framing = analyse_framing(model, settings.framing, settings.bracing)
+        demand = compute_demand(model, framing, settings)
     if as_json:
-        click.echo(json.dumps(inspect_document(model, seconds), indent=1))
+        click.echo(json.dumps(inspect_document(model, seconds, framing, demand), indent=1))
     else:
-        click.echo(inspect_text(model, seconds, model.imperial))
+        click.echo(inspect_text(model, seconds, model.imperial, framing, demand))
 
 
 def _settings(config: str | None, method: str | None):
@@ -192,8 +204,9 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
     result, model, _ = run_check(model_path, settings, demands, _progress())
     chosen = _units(units, model.imperial)
     written = write_all(result, Path(model_path), Path(out_dir), chosen)
+    names = {m.guid: m.name or m.guid for m in model.members}
     for guid, message in result.warnings:
-        click.echo(f"warning: {guid}: {message}", err=True)
+        click.echo(f"warning: {names.get(guid, guid)}: {message}", err=True)
     click.echo(_summary_line(result, chosen))
     names = ", ".join(p.name for p in written.values())
     click.echo(f"results written to {Path(out_dir)}: {names}")
@@ -238,8 +251,8 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     settings = _settings(config, method)
     old, _, _ = run_check(old_path, settings)
     new, model, _ = run_check(new_path, settings)
-    result = diff_results(old, new)
     chosen = _units(units, model.imperial)
+    result = diff_results(old, new, chosen)
     written = write_diff_all(result, Path(out_dir), chosen)
     regressions = result.regressions
     click.echo(

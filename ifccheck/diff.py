@@ -14,6 +14,7 @@ from collections import defaultdict
 import numpy as np
 
 from ifccheck.results import BeamChange, BeamResult, CheckResult, DiffResult
+from ifccheck.units import format_length
 
 # Two brace points closer than this are the same point (common practice:
 # modelled framing moves by inches between revisions without meaning).
@@ -105,7 +106,13 @@ def _covered(b: BeamResult) -> float:
     return sum(e - s for s, e in b.continuous_bracing)
 
 
-def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChange | None:
+def compare_beam(
+    old: BeamResult,
+    new: BeamResult,
+    matched_by: str,
+    units: str = "si",
+    names: dict[str, str] | None = None,
+) -> BeamChange | None:
     """The change of one matched beam, or None when nothing that matters changed."""
     old_braces = _to_new_stations(old, new, _braces(old))
     new_braces = _braces(new)
@@ -138,7 +145,7 @@ def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChang
         status_before=old.status,
         status_after=new.status,
     )
-    worse, better = _assess(change)
+    worse, better = _assess(change, units, names or {})
     if not worse and not better:
         return None
     change.severity = "regression" if worse else "improvement"
@@ -146,28 +153,33 @@ def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChang
     return change
 
 
-def _assess(c: BeamChange) -> tuple[list[str], list[str]]:
+def _assess(c: BeamChange, units: str, names: dict[str, str]) -> tuple[list[str], list[str]]:
+    def length(v: float) -> str:
+        return format_length(v, units)  # type: ignore[arg-type]
+
+    def who(guids: list[str]) -> str:
+        return ", ".join(names.get(g, g) for g in guids)
+
     worse: list[str] = []
     better: list[str] = []
     if c.lost_brace_points:
         worse.append(
-            "lost brace point(s) at station(s) "
-            + ", ".join(f"{s:.2f} m" for s in c.lost_brace_points)
+            "lost brace point(s) at station(s) " + ", ".join(length(s) for s in c.lost_brace_points)
         )
     if c.added_brace_points:
         better.append(f"{len(c.added_brace_points)} brace point(s) added")
     if c.lost_supports:
-        worse.append("lost support(s): " + ", ".join(c.lost_supports))
+        worse.append("lost support(s): " + who(c.lost_supports))
     if c.gained_supports:
-        better.append("gained support(s): " + ", ".join(c.gained_supports))
+        better.append("gained support(s): " + who(c.gained_supports))
     if c.lost_continuous_bracing > STATION_TOLERANCE:
-        worse.append(f"slab-braced length fell by {c.lost_continuous_bracing:.2f} m")
+        worse.append(f"slab-braced length fell by {length(c.lost_continuous_bracing)}")
     if (
         c.lb_before is not None
         and c.lb_after is not None
         and c.lb_after > c.lb_before + STATION_TOLERANCE
     ):
-        worse.append(f"governing Lb grew from {c.lb_before:.2f} m to {c.lb_after:.2f} m")
+        worse.append(f"governing Lb grew from {length(c.lb_before)} to {length(c.lb_after)}")
     rank_b, rank_a = STATUS_RANK[c.status_before], STATUS_RANK[c.status_after]
     if rank_a > rank_b:
         worse.append(f"status went from {c.status_before} to {c.status_after}")
@@ -181,9 +193,11 @@ def _assess(c: BeamChange) -> tuple[list[str], list[str]]:
     return worse, better
 
 
-def diff_results(old: CheckResult, new: CheckResult) -> DiffResult:
+def diff_results(old: CheckResult, new: CheckResult, units: str = "si") -> DiffResult:
+    """Match the beams of two checks and describe what changed (reasons in ``units``)."""
     pairs, added, removed = match_beams(old.beams, new.beams)
-    changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how)) is not None]
+    names = {b.guid: b.name or b.guid for b in [*old.beams, *new.beams]}
+    changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how, units, names)) is not None]
     changes.sort(key=lambda c: (c.severity != "regression", c.storey, c.name))
     return DiffResult(
         old=old,

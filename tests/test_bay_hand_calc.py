@@ -60,7 +60,8 @@ def phi_mn_f2(name: str, lb_in: float, cb: float) -> float:
     elif lb_in <= lr:
         mn = min(mp, cb * (mp - (mp - 0.7 * fy * sx) * (lb_in - lp) / (lr - lp)))  # F2-2
     else:
-        fcr = cb * math.pi**2 * e / (lb_in / rts) ** 2 * math.sqrt(1 + 0.078 * jc * (lb_in / rts) ** 2)
+        slender = (lb_in / rts) ** 2
+        fcr = cb * math.pi**2 * e / slender * math.sqrt(1 + 0.078 * jc * slender)
         mn = min(mp, fcr * sx)  # F2-3, F2-4
     return 0.9 * mn
 

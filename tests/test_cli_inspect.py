@@ -101,3 +101,31 @@ def test_inspect_json_schema_keys():
     assert slab["thickness"] == pytest.approx(0.2)
     assert slab["area"] == pytest.approx(6.2 * 7.7 - 1.5 * 1.5)
     assert len(slab["openings"]) == 1
+
+
+def test_inspect_json_has_framing_and_demand():
+    # stations by construction of the demo scenario (ifccheck/samples/scenario.py)
+    ft = 0.3048
+    model = str(SAMPLES / "quillfeather-rev-b.ifc")
+    config = str(SAMPLES / "quillfeather.toml")
+    result = CliRunner().invoke(main, ["inspect", "--json", "--config", config, model])
+    assert result.exit_code == 0, result.output
+    doc = json.loads(result.output)
+    by_name = {m["name"]: m for m in doc["members"]}
+    girder = by_name["R-G90-0"]  # roof infill at 15 ft deleted in revision B
+    stations = sorted(b["station"] / ft for b in girder["brace_points"] if b["kind"] != "support")
+    assert stations == pytest.approx([7.5, 22.5])
+    assert [s["station"] / ft for s in girder["supports"]] == pytest.approx([0.0, 30.0])
+    assert girder["continuous_bracing"] == []  # no roof deck modelled
+    shaft = by_name["L2-B2-20"]  # duct shaft from 6 ft to 21 ft along it
+    covered = [v / ft for ab in shaft["continuous_bracing"] for v in ab]
+    assert covered == pytest.approx([0.0, 6.0, 21.0, 30.0], abs=0.05)
+    assert shaft["demand"]["governing_combination"] == "1.2D+1.6L"
+    assert shaft["demand"]["line_loads"] and shaft["free_ends"] == []
+    pulled = by_name["L2-B1-50"]
+    assert pulled["free_ends"] == ["end"]
+    strut = by_name["R-S15"]
+    assert any(w["guid"] == strut["guid"] for w in doc["warnings"])
+    tied = by_name["R-B1-37.5"]
+    assert [b["counts"] for b in tied["brace_points"] if b["kind"] == "brace"] == [False]
+    assert "reason" in next(b for b in tied["brace_points"] if b["kind"] == "brace")

@@ -194,6 +194,11 @@ def test_override_from_csv(tmp_path: Path) -> None:
     assert g1.max_moment == pytest.approx(400 * kipft) and g1.governing_shear == "1.2D+1.6L"
     assert ("NOPE", "demand file: no floor beam with this GUID in the model") in r.warnings
     assert r.beams["B2"].source == "computed"
+    # the diagram keeps the computed shape (for Cb) scaled to the analysis peak
+    d = b1.governing_diagram()
+    assert d.max_moment == pytest.approx(250 * kipft)
+    assert d.moment_at(L / 4) / d.moment_at(L / 2) == pytest.approx(0.75)  # wx(L-x)/2 shape
+    assert r.beams["B2"].governing_diagram().max_moment == pytest.approx(r.beams["B2"].max_moment)
 
 
 def test_csv_units_in_cells(tmp_path: Path) -> None:

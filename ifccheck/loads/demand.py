@@ -49,6 +49,7 @@ from ifccheck.loads.statics import (
     PointLoad,
     UnstableBeamError,
     analyse_beams,
+    gc_paused,
 )
 from ifccheck.loads.tributary import DeckSpan, Tributary, compute_tributary
 from ifccheck.model import Member, Model, Slab
@@ -112,6 +113,9 @@ class BeamDemand:
     max_moment: float = 0.0  # N·m, |M| of the governing combination
     max_shear: float = 0.0  # N
     source: Literal["computed", "analysis", "none"] = "none"
+    # governing combinations (moment, shear) of the computed demand, kept when
+    # an analysis overrides the maxima
+    computed_governing: tuple[str, str] = ("", "")
 
     @property
     def computed(self) -> bool:
@@ -136,15 +140,20 @@ class BeamDemand:
         raise KeyError(f"no combination or load case named {combination!r}")
 
     def governing_diagram(self, effect: Literal["moment", "shear"] = "moment") -> Diagram:
-        """The governing strength combination's diagram (scaled to an analysis
-        override of the maximum, where one was given)."""
-        name = self.governing_moment if effect == "moment" else self.governing_shear
-        combo = next((c for c in self.combinations if c.name == name), None)
-        if combo is None:
-            combo = self.combinations[-1] if self.combinations else None
-        if combo is None or self.analysis is None:
-            raise ValueError(f"{self.guid}: no diagram")
-        return self.analysis.combine(combo.factors)
+        """The governing strength combination's diagram. Where the demand comes
+        from an analysis, the computed diagram of the combination that governed
+        the computation, scaled so that its peak equals the analysis value (the
+        shape of the computed loads, for Cb)."""
+        if self.analysis is None:
+            raise ValueError(f"{self.guid}: no diagram ({self.reason or 'demand from analysis'})")
+        name = self.computed_governing[0 if effect == "moment" else 1]
+        combo = next(c for c in self.combinations if c.name == name)
+        d = self.analysis.combine(combo.factors)
+        if self.source != "analysis":
+            return d
+        peak = d.max_moment if effect == "moment" else d.max_shear
+        target = self.max_moment if effect == "moment" else self.max_shear
+        return d.scaled(target / peak) if peak > 0 else d
 
     def live_deflection(self) -> Diagram:
         return self.diagram(LIVE_DEFLECTION)
@@ -303,6 +312,16 @@ def compute_demand(
     overrides: Mapping[str, tuple[float, float | None]] | None = None,
 ) -> DemandResult:
     """Demand on every floor beam of the model (see the module docstring)."""
+    with gc_paused():
+        return _compute_demand(model, framing, settings, overrides)
+
+
+def _compute_demand(
+    model: Model,
+    framing: Framing,
+    settings: Settings,
+    overrides: Mapping[str, tuple[float, float | None]] | None,
+) -> DemandResult:
     trib = compute_tributary(model, settings)
     members = {m.guid: m for m in model.members}
     slabs = {s.guid: s for s in model.slabs}
@@ -401,6 +420,7 @@ def compute_demand(
             mo, sh = res.maxima if res.maxima is not None else res.combination_maxima(factors)
             (cm, bd.max_moment), (cs, bd.max_shear) = governing(combos, mo), governing(combos, sh)
             bd.governing_moment, bd.governing_shear = cm.name, cs.name
+            bd.computed_governing = (cm.name, cs.name)
 
     for g, bd in result.beams.items():
         lost = sorted({p.source for p in incoming.get(g, [])}) if bd.reason else []

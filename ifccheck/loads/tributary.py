@@ -28,6 +28,7 @@ from shapely.geometry.base import BaseGeometry
 from shapely.geometry.polygon import orient
 
 from ifccheck.config import Settings, StoreyLoads, deck_span_degrees
+from ifccheck.loads.statics import gc_paused
 from ifccheck.model import Member, MemberRole, Model, Slab
 
 # Beams whose plan directions differ by less than this are parallel.
@@ -368,6 +369,11 @@ def _strips(
 
 def compute_tributary(model: Model, settings: Settings) -> TributaryResult:
     """Deck span direction per storey and tributary width pieces per floor beam."""
+    with gc_paused():
+        return _compute_tributary(model, settings)
+
+
+def _compute_tributary(model: Model, settings: Settings) -> TributaryResult:
     beams = floor_beams(model)
     result = TributaryResult(beams={}, deck_spans={})
     loads = settings.loads

@@ -3,10 +3,14 @@
 from __future__ import annotations
 
 from collections import defaultdict
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from ifccheck import CAUTION, __version__
+from ifccheck.framing.types import Framing, MemberFraming
 from ifccheck.model import Member, Model, Section, Slab
+
+if TYPE_CHECKING:
+    from ifccheck.loads.demand import BeamDemand, DemandResult
 
 SECTION_KEYS = ("A", "Ix", "Iy", "Sx", "Sy", "Zx", "Zy", "rx", "ry", "J", "Cw", "ho", "rts")
 SECTION_DIMS = ("d", "bf", "tw", "tf", "r", "h")
@@ -49,6 +53,56 @@ def member_dict(m: Member) -> dict[str, Any]:
     }
 
 
+def framing_dict(mf: MemberFraming) -> dict[str, Any]:
+    """What the framing graph says of one beam-like member (stations in m)."""
+    return {
+        "state": mf.state,
+        "supports": [
+            {"station": s.station, "by": s.by, "by_class": s.by_class, "end": s.end}
+            for s in sorted(mf.supports, key=lambda s: s.station)
+        ],
+        "brace_points": [
+            {
+                "station": b.station,
+                "kind": b.kind,
+                "by": b.by,
+                "flange": b.flange,
+                "counts": b.counts,
+                **({"reason": b.reason} if not b.counts else {}),
+            }
+            for b in sorted(mf.brace_points, key=lambda b: b.station)
+        ],
+        "continuous_bracing": [[a, b] for a, b in mf.continuous_bracing],
+        "free_ends": list(mf.free_ends),
+        "carries": list(mf.carries),
+    }
+
+
+def demand_dict(bd: BeamDemand) -> dict[str, Any]:
+    """The auditable demand of one beam: tributary, loads by case, combination."""
+    return {
+        "source": bd.source,
+        "tributary_role": bd.role,
+        "tributary_width": bd.tributary_left + bd.tributary_right,
+        "tributary_left": bd.tributary_left,
+        "tributary_right": bd.tributary_right,
+        "line_loads": [
+            {"case": x.case, "w": x.w, "start": x.start, "end": x.end, "source": x.source}
+            for x in bd.line_loads
+        ],
+        "point_loads": [
+            {"case": x.case, "P": x.P, "station": x.station, "from": x.source}
+            for x in bd.point_loads
+        ],
+        "governing_combination": bd.governing_moment or None,
+        "governing_shear_combination": bd.governing_shear or None,
+        "max_moment": bd.max_moment,
+        "max_shear": bd.max_shear,
+        "reason": bd.reason or None,
+        "notes": list(bd.notes),
+    }
+
+
 def slab_dict(s: Slab) -> dict[str, Any]:
     return {
         "guid": s.guid,
@@ -64,8 +118,27 @@ def slab_dict(s: Slab) -> dict[str, Any]:
     }
 
 
-def inspect_document(model: Model, seconds: float) -> dict[str, Any]:
+def inspect_document(
+    model: Model,
+    seconds: float,
+    framing: Framing | None = None,
+    demand: DemandResult | None = None,
+) -> dict[str, Any]:
     """The `inspect --json` document (SI base units)."""
+    members = []
+    for m in model.members:
+        d = member_dict(m)
+        mf = framing.members.get(m.guid) if framing else None
+        if mf is not None:
+            d.update(framing_dict(mf))
+        bd = demand.beams.get(m.guid) if demand else None
+        if bd is not None:
+            d["demand"] = demand_dict(bd)
+        members.append(d)
+    warnings = list(model.warnings)
+    for w in [*(framing.warnings if framing else []), *(demand.warnings if demand else [])]:
+        if w not in warnings:
+            warnings.append(w)
     return {
         "tool": "ifccheck",
         "version": __version__,
@@ -76,13 +149,23 @@ def inspect_document(model: Model, seconds: float) -> dict[str, Any]:
         "storeys": [
             {"guid": s.guid, "name": s.name, "elevation": s.elevation} for s in model.storeys
         ],
-        "members": [member_dict(m) for m in model.members],
+        "members": members,
         "slabs": [slab_dict(s) for s in model.slabs],
         "walls": [
             {"guid": w.guid, "name": w.name, "storey": w.storey, "base": w.base, "top": w.top}
             for w in model.walls
         ],
-        "warnings": [{"guid": g, "message": msg} for g, msg in model.warnings],
+        "deck_spans": [
+            {
+                "storey": ds.storey,
+                "angle": ds.angle,
+                "source": ds.source,
+                "typical_spacing": ds.typical_spacing,
+            }
+            for ds in (demand.deck_spans.values() if demand else [])
+        ],
+        "load_path_cycles": [list(c) for c in framing.cycles] if framing else [],
+        "warnings": [{"guid": g, "message": msg} for g, msg in warnings],
         "caution": CAUTION,
     }
 
@@ -106,8 +189,14 @@ def _length(value: float, imperial: bool) -> str:
     return f"{value / 0.3048:.2f} ft" if imperial else f"{value:.3f} m"
 
 
-def inspect_text(model: Model, seconds: float, imperial: bool) -> str:
-    """Readable tables per storey and a summary line."""
+def inspect_text(
+    model: Model,
+    seconds: float,
+    imperial: bool,
+    framing: Framing | None = None,
+    demand: DemandResult | None = None,
+) -> str:
+    """Readable tables per storey, the framing of each beam, and a summary line."""
     lines = [f"{model.source}  ({model.schema}, length unit: {model.length_unit})", ""]
     by_storey: dict[str, list[Member]] = defaultdict(list)
     for m in model.members:
@@ -115,6 +204,8 @@ def inspect_text(model: Model, seconds: float, imperial: bool) -> str:
     order = [s.name for s in model.storeys] + sorted(
         set(by_storey) - {s.name for s in model.storeys}
     )
+    names = {m.guid: m.name or m.guid for m in model.members}
+    names.update({w.guid: w.name or w.guid for w in model.walls})
     header = ("member", "class", "profile", "grade", "length", "axis from", "profile from", "notes")
     for storey in order:
         members = by_storey.get(storey, [])
@@ -138,6 +229,9 @@ def inspect_text(model: Model, seconds: float, imperial: bool) -> str:
             )
         lines += _table(rows)
         lines.append("")
+        framing_text = _framing_lines(members, framing, demand, imperial, names) if framing else []
+        if len(framing_text) > 1:
+            lines += [*framing_text, ""]
     for s in model.slabs:
         area = s.footprint.area / (0.3048**2) if imperial else s.footprint.area
         unit = "ft²" if imperial else "m²"
@@ -146,8 +240,16 @@ def inspect_text(model: Model, seconds: float, imperial: bool) -> str:
             f"{_length(s.thickness, imperial)}, underside {_length(s.underside, imperial)}, "
             f"area {area:.1f} {unit}, {len(s.openings)} opening(s)"
         )
-    for guid, message in model.warnings:
-        lines.append(f"warning: {guid}: {message}")
+    if demand is not None:
+        for ds in demand.deck_spans.values():
+            if ds.angle is not None:
+                lines.append(f"deck on {ds.storey} spans at {ds.angle:.0f}° from x ({ds.source})")
+    warnings = list(model.warnings)
+    for w in [*(framing.warnings if framing else []), *(demand.warnings if demand else [])]:
+        if w not in warnings:
+            warnings.append(w)
+    for guid, message in warnings:
+        lines.append(f"warning: {names.get(guid, guid)}: {message}")
     sm = summary(model, seconds)
     rate = sm["members"] / seconds if seconds > 0 else float("inf")
     lines += [
@@ -158,6 +260,48 @@ def inspect_text(model: Model, seconds: float, imperial: bool) -> str:
         CAUTION,
     ]
     return "\n".join(lines)
+
+
+def _framing_lines(
+    members: list[Member],
+    framing: Framing,
+    demand: DemandResult | None,
+    imperial: bool,
+    names: dict[str, str],
+) -> list[str]:
+    out = ["  framing (stations from each member's start):"]
+    for m in members:
+        mf = framing.members.get(m.guid)
+        if mf is None:
+            continue
+        sup = ", ".join(
+            f"{_length(s.station, imperial)} on {names.get(s.by, s.by)}" for s in mf.supports
+        )
+        seen: dict[tuple[float, bool], int] = {}
+        for b in sorted(mf.brace_points, key=lambda b: b.station):
+            if b.kind != "support":
+                key = (round(b.station, 3), b.counts)
+                seen[key] = seen.get(key, 0) + 1
+        braces = ", ".join(
+            _length(st, imperial)
+            + (f" ({n} members)" if n > 1 else "")
+            + ("" if counts else " (does not count)")
+            for (st, counts), n in seen.items()
+        )
+        covered = sum(b - a for a, b in mf.continuous_bracing)
+        text = f"    {m.name or m.guid}: {mf.state}; supports {sup or 'none'}"
+        text += f"; braces at {braces or 'ends only'}"
+        text += f"; slab-braced {_length(covered, imperial)} of {_length(m.length, imperial)}"
+        if mf.free_ends:
+            text += f"; free end: {', '.join(mf.free_ends)}"
+        bd = demand.beams.get(m.guid) if demand else None
+        if bd is not None:
+            width = bd.tributary_left + bd.tributary_right
+            text += f"; tributary {_length(width, imperial)}"
+            if bd.reason:
+                text += f"; no demand: {bd.reason}"
+        out.append(text)
+    return out
 
 
 def _table(rows: list[tuple[str, ...]]) -> list[str]:
