@@ -16,6 +16,7 @@ from pathlib import Path
 import click
 
 from ifccheck import CAUTION, __version__
+from ifccheck.service_cli import serve, token
 from ifccheck.strength_cli import strength
 
 EXIT_BAD_INPUT = 2
@@ -280,6 +281,8 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
 
 
 main.add_command(strength)
+main.add_command(serve)
+main.add_command(token)
 
 
 if __name__ == "__main__":  # pragma: no cover

@@ -1,0 +1,152 @@
+"""One row per beam (``<stem>.beams.csv``) and per changed beam (``diff.csv``).
+
+Dimensional columns carry their unit in the name (``lb_ft`` / ``lb_m``,
+``moment_demand_kip_ft`` / ``moment_demand_kN_m``), values in the chosen
+unit system; ratios and Cb are plain numbers. Empty cells are values that do
+not exist (a not-checked beam has no ratio).
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import math
+from collections.abc import Callable, Sequence
+from pathlib import Path
+from typing import Any
+
+from ifccheck.report.atomic import write_text
+from ifccheck.report.display import DisplayUnits
+from ifccheck.results import BeamChange, BeamResult, CheckResult, DiffResult
+
+# (column stem, kind or None for a plain value, getter)
+Column = tuple[str, str | None, Callable[[Any], Any]]
+
+
+def _gov(attr: str) -> Callable[[BeamResult], Any]:
+    def get(b: BeamResult) -> Any:
+        seg = b.governing
+        return None if seg is None else getattr(seg, attr)
+
+    return get
+
+
+def _brace_stations(b: BeamResult) -> list[float]:
+    return sorted(p.station for p in b.brace_points if p.counts)
+
+
+BEAM_COLUMNS: tuple[Column, ...] = (
+    ("guid", None, lambda b: b.guid),
+    ("name", None, lambda b: b.name),
+    ("storey", None, lambda b: b.storey),
+    ("ifc_class", None, lambda b: b.ifc_class),
+    ("profile", None, lambda b: b.profile),
+    ("grade", None, lambda b: b.grade),
+    ("fy", "stress", lambda b: b.fy),
+    ("length", "length", lambda b: b.length),
+    ("span", "length", lambda b: b.span),
+    ("segment_start", "length", _gov("start")),
+    ("segment_end", "length", _gov("end")),
+    ("lb", "length", _gov("lb")),
+    ("cb", None, _gov("cb")),
+    ("compression_flange", None, _gov("flange")),
+    ("moment_demand", "moment", _gov("moment_demand")),
+    ("moment_capacity", "moment", _gov("moment_capacity")),
+    ("limit_state", None, _gov("limit_state")),
+    ("combination", None, _gov("combination")),
+    ("shear_demand", "force", lambda b: b.shear_demand),
+    ("shear_capacity", "force", lambda b: b.shear_capacity),
+    ("deflection_live", "deflection", lambda b: b.deflection_live),
+    ("deflection_total", "deflection", lambda b: b.deflection_total),
+    ("flexure_ratio", None, lambda b: b.flexure_ratio),
+    ("shear_ratio", None, lambda b: b.shear_ratio),
+    ("deflection_ratio", None, lambda b: b.deflection_ratio),
+    ("ratio", None, lambda b: b.ratio),
+    ("governing_check", None, lambda b: b.governing_check),
+    ("status", None, lambda b: b.status),
+    ("brace_stations", "length", _brace_stations),
+    ("reason", None, lambda b: b.reason),
+    ("notes", None, lambda b: b.notes),
+)
+
+DIFF_COLUMNS: tuple[Column, ...] = (
+    ("guid", None, lambda c: c.guid),
+    ("old_guid", None, lambda c: c.old_guid),
+    ("name", None, lambda c: c.name),
+    ("storey", None, lambda c: c.storey),
+    ("matched_by", None, lambda c: c.matched_by),
+    ("severity", None, lambda c: c.severity),
+    ("status_before", None, lambda c: c.status_before),
+    ("status_after", None, lambda c: c.status_after),
+    ("ratio_before", None, lambda c: c.ratio_before),
+    ("ratio_after", None, lambda c: c.ratio_after),
+    ("lb_before", "length", lambda c: c.lb_before),
+    ("lb_after", "length", lambda c: c.lb_after),
+    ("lost_brace_points", "length", lambda c: c.lost_brace_points),
+    ("added_brace_points", "length", lambda c: c.added_brace_points),
+    ("lost_supports", None, lambda c: c.lost_supports),
+    ("gained_supports", None, lambda c: c.gained_supports),
+    ("lost_continuous_bracing", "length", lambda c: c.lost_continuous_bracing),
+    ("reasons", None, lambda c: c.reasons),
+)
+
+
+def _number(v: float) -> str:
+    if not math.isfinite(v):
+        return ""
+    return f"{v:.6g}"
+
+
+def _cell(value: Any, factor: float) -> str:
+    if value is None:
+        return ""
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, int | float):
+        return _number(float(value) * factor)
+    if isinstance(value, list | tuple):
+        if all(isinstance(v, int | float) for v in value):
+            return " ".join(_number(float(v) * factor) for v in value)
+        return "; ".join(str(v) for v in value)
+    return str(value)
+
+
+def column_names(columns: Sequence[Column], du: DisplayUnits) -> list[str]:
+    """Column names, each dimensional one with its unit suffix."""
+    return [name if kind is None else f"{name}_{du.suffix(kind)}" for name, kind, _ in columns]
+
+
+def _table(rows: Sequence[Any], columns: Sequence[Column], units: str) -> str:
+    du = DisplayUnits(units)
+    factors = [1.0 if kind is None else du.factor(kind) for _, kind, _ in columns]
+    getters = [get for _, _, get in columns]
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    w.writerow(column_names(columns, du))
+    for row in rows:
+        w.writerow([_cell(get(row), f) for get, f in zip(getters, factors, strict=True)])
+    return buf.getvalue()
+
+
+def beams_csv(result: CheckResult, units: str) -> str:
+    """The beam table as CSV text."""
+    return _table(result.beams, BEAM_COLUMNS, units)
+
+
+def diff_csv(diff: DiffResult, units: str) -> str:
+    """The changed-beam table as CSV text, regressions first."""
+    order = {"regression": 0, "changed": 1, "improvement": 2}
+    changes: list[BeamChange] = sorted(
+        diff.changes, key=lambda c: (order.get(c.severity, 3), c.guid)
+    )
+    return _table(changes, DIFF_COLUMNS, units)
+
+
+def write_beams_csv(result: CheckResult, path: Path, units: str) -> Path:
+    """Write ``<stem>.beams.csv`` atomically (UTF-8); return its path."""
+    return write_text(path, beams_csv(result, units))
+
+
+def write_diff_csv(diff: DiffResult, path: Path, units: str) -> Path:
+    """Write ``diff.csv`` atomically (UTF-8); return its path."""
+    return write_text(path, diff_csv(diff, units))

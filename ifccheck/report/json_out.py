@@ -1,0 +1,360 @@
+"""The machine-readable results: ``<stem>.results.json`` and ``diff.json``.
+
+The integration contract for the service and for other tools: SI base units
+(m, N, N·m, Pa), null for a value that does not exist or is not finite, and
+a JSON Schema per document in ``ifccheck/schemas/``. Each beam is written on
+a line of its own, so large results stay fast to write and easy to grep.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import dataclasses
+import enum
+import gc
+import json
+import math
+from collections import Counter
+from pathlib import Path, PurePath
+from typing import Any
+
+from ifccheck.report.atomic import write_text
+from ifccheck.results import (
+    BeamChange,
+    BeamResult,
+    CheckResult,
+    DemandOut,
+    DiffResult,
+    SegmentResult,
+)
+
+RESULTS_FORMAT = "ifccheck.results"
+DIFF_FORMAT = "ifccheck.diff"
+FORMAT_VERSION = 1
+
+UNITS = {
+    "length": "m",
+    "force": "N",
+    "moment": "N·m",
+    "stress": "Pa",
+    "line_load": "N/m",
+    "ratio": "1",
+}
+
+SCHEMA_DIR = Path(__file__).resolve().parent.parent / "schemas"
+RESULTS_SCHEMA = SCHEMA_DIR / "results.schema.json"
+DIFF_SCHEMA = SCHEMA_DIR / "diff.schema.json"
+
+
+def num(x: Any) -> float | None:
+    """A finite float, or None for None, NaN and ±inf."""
+    if x is None:
+        return None
+    v = float(x)
+    return v if math.isfinite(v) else None
+
+
+def jsonable(x: Any) -> Any:
+    """Plain JSON data from settings-like values (dataclasses, paths, tuples, numpy)."""
+    if x is None or isinstance(x, bool | str | int):
+        return x
+    if isinstance(x, float):
+        return num(x)
+    if isinstance(x, dict):
+        return {str(k): jsonable(v) for k, v in x.items()}
+    if isinstance(x, list | tuple | set | frozenset):
+        return [jsonable(v) for v in x]
+    if isinstance(x, enum.Enum):
+        return jsonable(x.value)
+    if isinstance(x, PurePath):
+        return str(x)
+    if dataclasses.is_dataclass(x) and not isinstance(x, type):
+        return {f.name: jsonable(getattr(x, f.name)) for f in dataclasses.fields(x)}
+    if hasattr(x, "tolist"):  # numpy arrays and scalars
+        return jsonable(x.tolist())
+    if hasattr(x, "item"):
+        return jsonable(x.item())
+    return str(x)
+
+
+def _point(p: Any) -> list[float | None]:
+    return [num(v) for v in p]
+
+
+def segment_dict(s: SegmentResult) -> dict[str, Any]:
+    return {
+        "start": num(s.start),
+        "end": num(s.end),
+        "lb": num(s.lb),
+        "cb": num(s.cb),
+        "flange": s.flange,
+        "continuous": bool(s.continuous),
+        "moment_demand": num(s.moment_demand),
+        "moment_capacity": num(s.moment_capacity),
+        "nominal_moment": num(s.nominal_moment),
+        "ratio": num(s.ratio),
+        "limit_state": s.limit_state,
+        "combination": s.combination,
+        "braced_by": list(s.braced_by),
+    }
+
+
+def demand_dict(d: DemandOut | None) -> dict[str, Any] | None:
+    if d is None:
+        return None
+    return {
+        "source": d.source,
+        "tributary_left": num(d.tributary_left),
+        "tributary_right": num(d.tributary_right),
+        "line_loads": [
+            {
+                "case": ll.case,
+                "intensity": num(ll.intensity),
+                "start": num(ll.start),
+                "end": num(ll.end),
+                "source": ll.source,
+            }
+            for ll in d.line_loads
+        ],
+        "point_loads": [
+            {
+                "case": pl.case,
+                "force": num(pl.force),
+                "station": num(pl.station),
+                "source": pl.source,
+            }
+            for pl in d.point_loads
+        ],
+        "moment_combination": d.moment_combination,
+        "shear_combination": d.shear_combination,
+        "max_moment": num(d.max_moment),
+        "max_shear": num(d.max_shear),
+        "reactions": {case: [num(v) for v in vals] for case, vals in d.reactions.items()},
+    }
+
+
+def beam_dict(b: BeamResult, detail: bool = False) -> dict[str, Any]:
+    """One beam of the results document; ``detail`` adds the diagram and the curve."""
+    out: dict[str, Any] = {
+        "guid": b.guid,
+        "name": b.name,
+        "storey": b.storey,
+        "ifc_class": b.ifc_class,
+        "profile": b.profile,
+        "grade": b.grade,
+        "fy": num(b.fy),
+        "start": _point(b.start),
+        "end": _point(b.end),
+        "length": num(b.length),
+        "span": num(b.span),
+        "supports": [{"station": num(s.get("station")), "by": s.get("by")} for s in b.supports],
+        "free_ends": list(b.free_ends),
+        "brace_points": [
+            {
+                "station": num(p.station),
+                "kind": p.kind,
+                "by": p.by,
+                "flange": p.flange,
+                "counts": bool(p.counts),
+                "reason": p.reason,
+            }
+            for p in b.brace_points
+        ],
+        "continuous_bracing": [{"start": num(s), "end": num(e)} for s, e in b.continuous_bracing],
+        "segments": [segment_dict(s) for s in b.segments],
+        "governing_segment": b.governing_segment,
+        "governing_check": b.governing_check,
+        "flexure_ratio": num(b.flexure_ratio),
+        "shear_demand": num(b.shear_demand),
+        "shear_capacity": num(b.shear_capacity),
+        "shear_ratio": num(b.shear_ratio),
+        "deflection_live": num(b.deflection_live),
+        "deflection_total": num(b.deflection_total),
+        "deflection_live_limit": num(b.deflection_live_limit),
+        "deflection_total_limit": num(b.deflection_total_limit),
+        "deflection_ratio": num(b.deflection_ratio),
+        "ratio": num(b.ratio),
+        "status": b.status,
+        "reason": b.reason,
+        "notes": list(b.notes),
+        "demand": demand_dict(b.demand),
+    }
+    if detail:
+        d = b.diagram
+        out["diagram"] = (
+            None
+            if d is None
+            else {
+                "stations": [num(v) for v in d.stations],
+                "moment": [num(v) for v in d.moment],
+                "shear": [num(v) for v in d.shear],
+            }
+        )
+        out["curve"] = (
+            None if b.curve is None else [{"lb": num(x), "strength": num(y)} for x, y in b.curve]
+        )
+    return out
+
+
+def results_document(result: CheckResult, detail: bool = False) -> dict[str, Any]:
+    """The results document as plain JSON data (see docs/outputs.md)."""
+    m = result.model
+    return {
+        "format": RESULTS_FORMAT,
+        "format_version": FORMAT_VERSION,
+        "tool": result.tool,
+        "version": result.version,
+        "model": {
+            "file": m.file,
+            "schema": m.schema,
+            "sha256": m.sha256,
+            "length_unit": m.length_unit,
+        },
+        "standard": result.standard,
+        "method": result.method,
+        "checked_at": result.checked_at,
+        "units": dict(UNITS),
+        "caution": result.caution,
+        "settings": jsonable(result.settings),
+        "summary": result.summary(),
+        "storeys": [{"name": n, "elevation": num(z)} for n, z in result.storeys],
+        "warnings": [{"guid": g, "message": msg} for g, msg in result.warnings],
+        "slabs": [
+            {
+                "guid": s.guid,
+                "storey": s.storey,
+                "exterior": [_point(p) for p in s.exterior],
+                "holes": [[_point(p) for p in h] for h in s.holes],
+            }
+            for s in result.slabs
+        ],
+        "beams": [beam_dict(b, detail) for b in result.beams],
+    }
+
+
+def change_dict(c: BeamChange) -> dict[str, Any]:
+    return {
+        "guid": c.guid,
+        "old_guid": c.old_guid,
+        "name": c.name,
+        "storey": c.storey,
+        "matched_by": c.matched_by,
+        "severity": c.severity,
+        "status_before": c.status_before,
+        "status_after": c.status_after,
+        "ratio_before": num(c.ratio_before),
+        "ratio_after": num(c.ratio_after),
+        "lb_before": num(c.lb_before),
+        "lb_after": num(c.lb_after),
+        "lost_brace_points": [num(s) for s in c.lost_brace_points],
+        "added_brace_points": [num(s) for s in c.added_brace_points],
+        "lost_supports": list(c.lost_supports),
+        "gained_supports": list(c.gained_supports),
+        "lost_continuous_bracing": num(c.lost_continuous_bracing),
+        "reasons": list(c.reasons),
+    }
+
+
+def _revision(r: CheckResult) -> dict[str, Any]:
+    return {
+        "file": r.model.file,
+        "schema": r.model.schema,
+        "sha256": r.model.sha256,
+        "length_unit": r.model.length_unit,
+        "checked_at": r.checked_at,
+        "summary": r.summary(),
+    }
+
+
+def diff_summary(diff: DiffResult) -> dict[str, int]:
+    sev = Counter(c.severity for c in diff.changes)
+    return {
+        "matched": diff.matched,
+        "changed": len(diff.changes),
+        "regressions": sev["regression"],
+        "improvements": sev["improvement"],
+        "other_changes": sev["changed"],
+        "added": len(diff.added),
+        "removed": len(diff.removed),
+        "new_failures": sum(
+            1 for c in diff.changes if c.status_after == "fail" and c.status_before != "fail"
+        ),
+    }
+
+
+_SEVERITY_ORDER = {"regression": 0, "changed": 1, "improvement": 2}
+
+
+def diff_document(diff: DiffResult) -> dict[str, Any]:
+    """The revision comparison as plain JSON data (see docs/outputs.md)."""
+    changes = sorted(diff.changes, key=lambda c: (_SEVERITY_ORDER.get(c.severity, 3), c.guid))
+    return {
+        "format": DIFF_FORMAT,
+        "format_version": FORMAT_VERSION,
+        "tool": diff.new.tool,
+        "version": diff.new.version,
+        "standard": diff.new.standard,
+        "method": diff.new.method,
+        "units": dict(UNITS),
+        "caution": diff.new.caution,
+        "old": _revision(diff.old),
+        "new": _revision(diff.new),
+        "matched": diff.matched,
+        "added": list(diff.added),
+        "removed": list(diff.removed),
+        "summary": diff_summary(diff),
+        "beams": [change_dict(c) for c in changes],
+    }
+
+
+_LINE_LISTS = ("beams", "slabs")
+
+
+def dumps(doc: dict[str, Any]) -> str:
+    """Indented JSON with one line per item of the long lists (beams, slabs).
+
+    ``allow_nan=False`` makes a stray NaN an error here instead of invalid JSON
+    downstream. The C encoder runs only without ``indent``, hence the per-item lines.
+    """
+    parts = []
+    for key, value in doc.items():
+        k = json.dumps(key)
+        if key in _LINE_LISTS and isinstance(value, list) and value:
+            items = ",\n    ".join(
+                json.dumps(v, allow_nan=False, ensure_ascii=False) for v in value
+            )
+            parts.append(f"  {k}: [\n    {items}\n  ]")
+        else:
+            text = json.dumps(value, allow_nan=False, ensure_ascii=False, indent=2)
+            parts.append(f"  {k}: " + text.replace("\n", "\n  "))
+    return "{\n" + ",\n".join(parts) + "\n}\n"
+
+
+@contextlib.contextmanager
+def collector_paused():
+    """Pause the cyclic garbage collector while building many small containers.
+
+    The documents hold no reference cycles; without the pause, the collector's
+    repeated full passes over the growing document cost several times the build.
+    """
+    was_enabled = gc.isenabled()
+    gc.disable()
+    try:
+        yield
+    finally:
+        if was_enabled:
+            gc.enable()
+
+
+def write_results_json(result: CheckResult, path: Path, detail: bool = False) -> Path:
+    """Write ``<stem>.results.json`` atomically; return its path."""
+    with collector_paused():
+        text = dumps(results_document(result, detail))
+    return write_text(path, text)
+
+
+def write_diff_json(diff: DiffResult, path: Path) -> Path:
+    """Write ``diff.json`` atomically; return its path."""
+    with collector_paused():
+        text = dumps(diff_document(diff))
+    return write_text(path, text)

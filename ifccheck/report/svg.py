@@ -1,0 +1,509 @@
+"""Inline SVG drawings for the HTML reports: storey plans, moment diagrams, strength curves.
+
+Everything is drawn in pixel coordinates computed here (model x to the right,
+model y up the page), so line widths and markers keep their size whatever
+the plan's extent. Text is escaped; nothing refers to anything outside the
+page.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Iterable, Sequence
+from dataclasses import dataclass
+from html import escape
+
+from ifccheck.report.colours import (
+    BLUE,
+    BLUISH_GREEN,
+    FAIL_CASING,
+    NEUTRAL,
+    NOT_CHECKED,
+    SEVERITY_COLOURS,
+    VIRIDIS,
+    ratio_colour,
+)
+from ifccheck.report.display import DisplayUnits
+from ifccheck.results import BeamChange, BeamResult, SlabOutline
+
+Point2 = tuple[float, float]
+
+
+def attr(value: object) -> str:
+    return escape(str(value), quote=True)
+
+
+def _f(v: float) -> str:
+    """A pixel coordinate, short."""
+    return f"{v:.1f}"
+
+
+@dataclass
+class Frame:
+    """Model plan coordinates (m) → SVG pixels."""
+
+    xmin: float
+    ymax: float
+    scale: float
+    pad: float
+    width: float
+    height: float
+
+    @classmethod
+    def fit(
+        cls, points: Iterable[Point2], max_width: float = 960, max_height: float = 720,
+        pad: float = 36,
+    ) -> Frame:  # fmt: skip
+        xs, ys = [], []
+        for x, y in points:
+            xs.append(x)
+            ys.append(y)
+        if not xs:
+            xs, ys = [0.0, 1.0], [0.0, 1.0]
+        xmin, xmax, ymin, ymax = min(xs), max(xs), min(ys), max(ys)
+        dx, dy = max(xmax - xmin, 1e-6), max(ymax - ymin, 1e-6)
+        scale = min((max_width - 2 * pad) / dx, (max_height - 2 * pad) / dy)
+        width = dx * scale + 2 * pad
+        height = dy * scale + 2 * pad
+        return cls(xmin, ymax, scale, pad, max(width, 240.0), max(height, 120.0))
+
+    def px(self, x: float, y: float) -> Point2:
+        return self.pad + (x - self.xmin) * self.scale, self.pad + (self.ymax - y) * self.scale
+
+
+def _along(b: BeamResult, station: float) -> Point2:
+    t = station / b.length if b.length else 0.0
+    return b.start[0] + t * (b.end[0] - b.start[0]), b.start[1] + t * (b.end[1] - b.start[1])
+
+
+def _ring_path(frame: Frame, ring: Sequence[Sequence[float]]) -> str:
+    pts = [frame.px(p[0], p[1]) for p in ring]
+    if not pts:
+        return ""
+    return "M" + " L".join(f"{_f(x)} {_f(y)}" for x, y in pts) + " Z"
+
+
+def _slabs_svg(frame: Frame, slabs: Sequence[SlabOutline]) -> list[str]:
+    out = []
+    for s in slabs:
+        d = " ".join(_ring_path(frame, r) for r in [s.exterior, *s.holes])
+        out.append(
+            f'<path class="slab" data-slab="{attr(s.guid)}" d="{d}" fill="#ececec" '
+            f'fill-rule="evenodd" stroke="#b5b5b5" stroke-width="1"/>'
+        )
+    return out
+
+
+def _line(frame: Frame, a: Point2, b: Point2, extra: str) -> str:
+    (x1, y1), (x2, y2) = frame.px(*a), frame.px(*b)
+    return f'<line x1="{_f(x1)}" y1="{_f(y1)}" x2="{_f(x2)}" y2="{_f(y2)}" {extra}/>'
+
+
+def _label(frame: Frame, b: BeamResult, text: str, colour: str = "#000") -> str:
+    mx, my = frame.px(*_along(b, b.length / 2))
+    return (
+        f'<text class="label" x="{_f(mx + 4)}" y="{_f(my - 6)}" fill="{colour}" '
+        f'stroke="#fff" stroke-width="3" paint-order="stroke" font-size="11">'
+        f"{escape(text)}</text>"
+    )
+
+
+def _brace_marks(frame: Frame, b: BeamResult) -> list[str]:
+    out = []
+    for p in b.brace_points:
+        x, y = frame.px(*_along(b, p.station))
+        fill = "#222" if p.counts else "#fff"
+        cls = "brace" if p.counts else "brace brace-void"
+        out.append(
+            f'<circle class="{cls}" cx="{_f(x)}" cy="{_f(y)}" r="3.2" fill="{fill}" '
+            f'stroke="#222" stroke-width="1.2"/>'
+        )
+    return out
+
+
+def beam_tooltip(b: BeamResult, du: DisplayUnits) -> str:
+    parts = [b.name or b.guid, b.profile, b.status.replace("_", " ")]
+    if b.ratio is not None:
+        parts.append(f"ratio {b.ratio:.2f}")
+    seg = b.governing
+    if seg is not None:
+        parts.append(f"Lb {du.text(seg.lb, 'length')}")
+    if b.reason:
+        parts.append(b.reason)
+    return " · ".join(p for p in parts if p)
+
+
+def check_plan_svg(
+    beams: Sequence[BeamResult], slabs: Sequence[SlabOutline], du: DisplayUnits,
+    linked: set[str], title: str,
+) -> str:  # fmt: skip
+    """One storey: slabs, slab-braced bands, beams coloured by ratio, brace points, labels."""
+    pts: list[Point2] = [(b.start[0], b.start[1]) for b in beams]
+    pts += [(b.end[0], b.end[1]) for b in beams]
+    pts += [(p[0], p[1]) for s in slabs for p in s.exterior]
+    frame = Frame.fit(pts)
+    body: list[str] = _slabs_svg(frame, slabs)
+    bands, casings, lines, marks, labels = [], [], [], [], []
+    for b in beams:
+        a, e = (b.start[0], b.start[1]), (b.end[0], b.end[1])
+        for s0, s1 in b.continuous_bracing:
+            bands.append(
+                _line(
+                    frame, _along(b, s0), _along(b, s1),
+                    'class="slab-braced" stroke="#6a9fc0" stroke-opacity="0.45" '
+                    'stroke-width="11" stroke-linecap="butt"',
+                )
+            )  # fmt: skip
+        if b.status == "fail":
+            casings.append(
+                _line(frame, a, e, f'class="fail-casing" stroke="{FAIL_CASING}" '
+                      'stroke-width="8" stroke-linecap="round"')
+            )  # fmt: skip
+            labels.append(_label(frame, b, f"{b.name or b.guid} {b.ratio or 0:.2f}"))
+        if b.status == "not_checked":
+            style = f'stroke="{NOT_CHECKED}" stroke-width="2.5" stroke-dasharray="6 4"'
+        else:
+            style = f'stroke="{ratio_colour(b.ratio)}" stroke-width="3.5" stroke-linecap="round"'
+        ratio = "" if b.ratio is None else f' data-ratio="{b.ratio:.3f}"'
+        shape = _line(
+            frame, a, e,
+            f'class="beam st-{b.status}" data-guid="{attr(b.guid)}" '
+            f'data-status="{b.status}"{ratio} {style}',
+        )  # fmt: skip
+        shape = shape[:-2] + f"><title>{escape(beam_tooltip(b, du))}</title></line>"
+        if b.guid in linked:
+            shape = f'<a href="#beam-{attr(b.guid)}">{shape}</a>'
+        lines.append(shape)
+        marks.extend(_brace_marks(frame, b))
+    body += bands + casings + lines + marks + labels
+    return _svg(frame.width, frame.height, title, body, "plan")
+
+
+def _svg(width: float, height: float, title: str, body: Sequence[str], cls: str) -> str:
+    return (
+        f'<svg class="{cls}" role="img" viewBox="0 0 {_f(width)} {_f(height)}" '
+        f'width="{_f(width)}" height="{_f(height)}" aria-label="{attr(title)}">'
+        f"<title>{escape(title)}</title>" + "".join(body) + "</svg>"
+    )
+
+
+def check_legend_svg() -> str:
+    """Legend: ratio scale, failing, not checked, brace points, slab bracing."""
+    body = []
+    n = 50
+    x0, w = 10.0, 260.0
+    for i in range(n):
+        body.append(
+            f'<rect x="{_f(x0 + w * i / n)}" y="8" width="{_f(w / n + 0.6)}" height="12" '
+            f'fill="{ratio_colour(i / (n - 1))}"/>'
+        )
+    for t in (0.0, 0.25, 0.5, 0.75, 1.0):
+        x = x0 + w * t
+        body.append(f'<line x1="{_f(x)}" y1="20" x2="{_f(x)}" y2="25" stroke="#333"/>')
+        body.append(f'<text x="{_f(x)}" y="36" font-size="11" text-anchor="middle">{t:g}</text>')
+    body.append('<text x="10" y="52" font-size="11">ratio (demand / strength)</text>')
+    x = 300.0
+    body.append(
+        f'<line x1="{x}" y1="14" x2="{x + 40}" y2="14" stroke="{FAIL_CASING}" stroke-width="8" '
+        f'stroke-linecap="round"/><line x1="{x}" y1="14" x2="{x + 40}" y2="14" '
+        f'stroke="{VIRIDIS[-1]}" stroke-width="3.5" stroke-linecap="round"/>'
+        f'<text x="{x + 50}" y="18" font-size="11">fails (ratio above 1), labelled</text>'
+    )
+    body.append(
+        f'<line x1="{x}" y1="38" x2="{x + 40}" y2="38" stroke="{NOT_CHECKED}" stroke-width="2.5" '
+        f'stroke-dasharray="6 4"/><text x="{x + 50}" y="42" font-size="11">not checked</text>'
+    )
+    x = 540.0
+    body.append(
+        f'<circle cx="{x + 5}" cy="14" r="3.2" fill="#222" stroke="#222"/>'
+        f'<text x="{x + 16}" y="18" font-size="11">brace point</text>'
+        f'<circle cx="{x + 5}" cy="38" r="3.2" fill="#fff" stroke="#222" stroke-width="1.2"/>'
+        f'<text x="{x + 16}" y="42" font-size="11">brace point that does not count</text>'
+    )
+    x = 760.0
+    body.append(
+        f'<line x1="{x}" y1="14" x2="{x + 36}" y2="14" stroke="#6a9fc0" stroke-opacity="0.45" '
+        f'stroke-width="11"/><text x="{x + 44}" y="18" font-size="11">slab-braced length</text>'
+        f'<rect x="{x}" y="31" width="36" height="14" fill="#ececec" stroke="#b5b5b5"/>'
+        f'<text x="{x + 44}" y="42" font-size="11">slab</text>'
+    )
+    return _svg(960, 60, "Legend", body, "legend")
+
+
+def _cross(x: float, y: float, size: float = 5.5, cls: str = "lost-brace") -> str:
+    """An X with a white halo, so it reads on any line colour."""
+    d = (
+        f"M{_f(x - size)} {_f(y - size)} L{_f(x + size)} {_f(y + size)} "
+        f"M{_f(x - size)} {_f(y + size)} L{_f(x + size)} {_f(y - size)}"
+    )
+    return (
+        f'<path d="{d}" stroke="#fff" stroke-width="5" stroke-linecap="round"/>'
+        f'<path class="{cls}" d="{d}" stroke="#000" stroke-width="2.2" stroke-linecap="round"/>'
+    )
+
+
+def diff_plan_svg(
+    beams: Sequence[BeamResult], removed: Sequence[BeamResult], slabs: Sequence[SlabOutline],
+    changes: dict[str, BeamChange], added: set[str], du: DisplayUnits, title: str,
+) -> str:  # fmt: skip
+    """One storey of the new revision with the changes marked."""
+    pts: list[Point2] = [(b.start[0], b.start[1]) for b in [*beams, *removed]]
+    pts += [(b.end[0], b.end[1]) for b in [*beams, *removed]]
+    pts += [(p[0], p[1]) for s in slabs for p in s.exterior]
+    frame = Frame.fit(pts)
+    body: list[str] = _slabs_svg(frame, slabs)
+    gone, casings, lines, marks, labels = [], [], [], [], []
+    for b in removed:
+        gone.append(
+            _line(frame, (b.start[0], b.start[1]), (b.end[0], b.end[1]),
+                  f'class="removed" data-old-guid="{attr(b.guid)}" stroke="{NEUTRAL}" '
+                  'stroke-width="2" stroke-dasharray="2 4" stroke-linecap="round"')
+        )  # fmt: skip
+    for b in beams:
+        a, e = (b.start[0], b.start[1]), (b.end[0], b.end[1])
+        c = changes.get(b.guid)
+        if c is not None:
+            colour = SEVERITY_COLOURS.get(c.severity, SEVERITY_COLOURS["changed"])
+            if c.severity == "regression":
+                casings.append(
+                    _line(frame, a, e, f'class="regression-casing" stroke="{FAIL_CASING}" '
+                          'stroke-width="9" stroke-linecap="round"')
+                )  # fmt: skip
+                ratio = "" if c.ratio_after is None else f" {c.ratio_after:.2f}"
+                labels.append(_label(frame, b, f"{b.name or b.guid}{ratio}"))
+            style = f'stroke="{colour}" stroke-width="4" stroke-linecap="round"'
+            state = c.severity
+            tip = f"{b.name or b.guid}: {c.severity}"
+            for s in c.lost_brace_points:
+                marks.append(_cross(*frame.px(*_along(b, s))))
+            for s in c.added_brace_points:
+                x, y = frame.px(*_along(b, s))
+                marks.append(
+                    f'<circle class="added-brace" cx="{_f(x)}" cy="{_f(y)}" r="4" '
+                    f'fill="{BLUE}" stroke="#fff" stroke-width="1"/>'
+                )
+        elif b.guid in added:
+            style = f'stroke="{BLUISH_GREEN}" stroke-width="3" stroke-dasharray="8 3"'
+            state, tip = "added", f"{b.name or b.guid}: added"
+        else:
+            style = f'stroke="{NEUTRAL}" stroke-width="2"'
+            state, tip = "unchanged", f"{b.name or b.guid}: unchanged"
+        lines.append(
+            _line(frame, a, e, f'class="beam ch-{state}" data-guid="{attr(b.guid)}" '
+                  f'data-change="{state}" {style}')[:-2]
+            + f"><title>{escape(tip)}</title></line>"
+        )  # fmt: skip
+    body += gone + casings + lines + marks + labels
+    return _svg(frame.width, frame.height, title, body, "plan")
+
+
+def diff_legend_svg() -> str:
+    body = []
+    items = [
+        (f'stroke="{SEVERITY_COLOURS["regression"]}" stroke-width="4"', "worse (regression)", True),
+        (f'stroke="{SEVERITY_COLOURS["improvement"]}" stroke-width="4"', "better", False),
+        (f'stroke="{SEVERITY_COLOURS["changed"]}" stroke-width="4"', "changed", False),
+        (f'stroke="{BLUISH_GREEN}" stroke-width="3" stroke-dasharray="8 3"', "added", False),
+        (f'stroke="{NEUTRAL}" stroke-width="2" stroke-dasharray="2 4"', "removed", False),
+        (f'stroke="{NEUTRAL}" stroke-width="2"', "unchanged", False),
+    ]
+    for i, (style, text, casing) in enumerate(items):
+        x = 10 + (i % 3) * 220
+        y = 14 + (i // 3) * 24
+        if casing:
+            body.append(
+                f'<line x1="{x}" y1="{y}" x2="{x + 36}" y2="{y}" stroke="{FAIL_CASING}" '
+                'stroke-width="9" stroke-linecap="round"/>'
+            )
+        body.append(f'<line x1="{x}" y1="{y}" x2="{x + 36}" y2="{y}" {style}/>')
+        body.append(f'<text x="{x + 46}" y="{y + 4}" font-size="11">{escape(text)}</text>')
+    body.append(_cross(690, 14) + '<text x="704" y="18" font-size="11">lost brace point</text>')
+    body.append(
+        f'<circle cx="690" cy="38" r="4" fill="{BLUE}"/>'
+        '<text x="704" y="42" font-size="11">added brace point</text>'
+    )
+    return _svg(960, 56, "Legend", body, "legend")
+
+
+# --- charts ---------------------------------------------------------------------
+def nice_ticks(lo: float, hi: float, n: int = 5) -> list[float]:
+    """Round tick values covering [lo, hi] (1-2-5 steps)."""
+    if not (math.isfinite(lo) and math.isfinite(hi)) or hi <= lo:
+        return [lo]
+    raw = (hi - lo) / max(n, 1)
+    mag = 10 ** math.floor(math.log10(raw))
+    step = next(m * mag for m in (1, 2, 2.5, 5, 10) if m * mag >= raw)
+    start = math.floor(lo / step) * step
+    ticks = []
+    t = start
+    while t <= hi + step * 1e-9:
+        ticks.append(round(t, 10))
+        t += step
+    if ticks[-1] < hi:
+        ticks.append(ticks[-1] + step)
+    return ticks
+
+
+@dataclass
+class Axes:
+    x0: float
+    x1: float
+    y0: float
+    y1: float
+    left: float = 64
+    right: float = 16
+    top: float = 14
+    bottom: float = 40
+    width: float = 640
+    height: float = 240
+
+    def px(self, x: float, y: float) -> Point2:
+        w = self.width - self.left - self.right
+        h = self.height - self.top - self.bottom
+        sx = (x - self.x0) / ((self.x1 - self.x0) or 1.0)
+        sy = (y - self.y0) / ((self.y1 - self.y0) or 1.0)
+        return self.left + sx * w, self.top + (1 - sy) * h
+
+    def frame(self, xticks: Sequence[float], yticks: Sequence[float], xlabel: str,
+              ylabel: str) -> list[str]:  # fmt: skip
+        out = []
+        bx0, by0 = self.px(self.x0, self.y0)
+        bx1, by1 = self.px(self.x1, self.y1)
+        for t in yticks:
+            _, y = self.px(self.x0, t)
+            out.append(
+                f'<line x1="{_f(bx0)}" y1="{_f(y)}" x2="{_f(bx1)}" y2="{_f(y)}" stroke="#e3e3e3"/>'
+                f'<text x="{_f(bx0 - 6)}" y="{_f(y + 4)}" font-size="11" '
+                f'text-anchor="end">{_tick(t)}</text>'
+            )
+        for t in xticks:
+            x, _ = self.px(t, self.y0)
+            out.append(
+                f'<line x1="{_f(x)}" y1="{_f(by0)}" x2="{_f(x)}" y2="{_f(by0 + 4)}" stroke="#333"/>'
+                f'<text x="{_f(x)}" y="{_f(by0 + 16)}" font-size="11" '
+                f'text-anchor="middle">{_tick(t)}</text>'
+            )
+        out.append(
+            f'<rect x="{_f(bx0)}" y="{_f(by1)}" width="{_f(bx1 - bx0)}" '
+            f'height="{_f(by0 - by1)}" fill="none" stroke="#666"/>'
+            f'<text x="{_f((bx0 + bx1) / 2)}" y="{_f(self.height - 6)}" font-size="11" '
+            f'text-anchor="middle">{escape(xlabel)}</text>'
+            f'<text transform="translate(14 {_f((by0 + by1) / 2)}) rotate(-90)" font-size="11" '
+            f'text-anchor="middle">{escape(ylabel)}</text>'
+        )
+        return out
+
+
+def _tick(t: float) -> str:
+    return f"{t:g}" if abs(t) >= 1e-9 else "0"
+
+
+def moment_diagram_svg(b: BeamResult, du: DisplayUnits) -> str | None:
+    """The governing-combination moment along the beam, with segments and brace points."""
+    d = b.diagram
+    if d is None or not d.stations:
+        return None
+    fx, fm = du.factor("length"), du.factor("moment")
+    xs = [s * fx for s in d.stations]
+    ms = [m * fm for m in d.moment]
+    finite = [m for m in ms if math.isfinite(m)]
+    if not finite:
+        return None
+    lo, hi = min(0.0, *finite), max(0.0, *finite)
+    if hi - lo <= 0:
+        hi = lo + 1.0
+    yt = nice_ticks(lo, hi)
+    xt = nice_ticks(0.0, max(xs[-1], b.length * fx))
+    ax = Axes(xt[0], xt[-1], yt[0], yt[-1])
+    body = []
+    gov = b.governing
+    for i, seg in enumerate(b.segments):
+        (x0, ytop), (x1, ybot) = ax.px(seg.start * fx, yt[-1]), ax.px(seg.end * fx, yt[0])
+        if i == b.governing_segment:
+            body.append(
+                f'<rect class="governing" x="{_f(x0)}" y="{_f(ytop)}" width="{_f(x1 - x0)}" '
+                f'height="{_f(ybot - ytop)}" fill="#fff3c4"/>'
+            )
+    for s0, s1 in b.continuous_bracing:
+        (x0, y), (x1, _) = ax.px(s0 * fx, 0.0), ax.px(s1 * fx, 0.0)
+        body.append(
+            f'<line class="slab-braced" x1="{_f(x0)}" y1="{_f(y)}" x2="{_f(x1)}" y2="{_f(y)}" '
+            f'stroke="#6a9fc0" stroke-opacity="0.45" stroke-width="10"/>'
+        )
+    body += ax.frame(xt, yt, f"station ({du.label('length')})",
+                     f"moment ({du.label('moment')}), sagging +")  # fmt: skip
+    pts = [ax.px(x, m) for x, m in zip(xs, ms, strict=True) if math.isfinite(m)]
+    _, y_zero = ax.px(0.0, 0.0)
+    area = (
+        f"M{_f(pts[0][0])} {_f(y_zero)} "
+        + " ".join(f"L{_f(x)} {_f(y)}" for x, y in pts)
+        + f" L{_f(pts[-1][0])} {_f(y_zero)} Z"
+    )
+    body.append(f'<path d="{area}" fill="{ratio_colour(0.35)}" fill-opacity="0.18" stroke="none"/>')
+    body.append(
+        '<polyline class="moment" fill="none" stroke="#2b2b2b" stroke-width="1.8" points="'
+        + " ".join(f"{_f(x)},{_f(y)}" for x, y in pts)
+        + '"/>'
+    )
+    x0, _ = ax.px(ax.x0, 0.0)
+    x1, _ = ax.px(ax.x1, 0.0)
+    body.append(f'<line x1="{_f(x0)}" y1="{_f(y_zero)}" x2="{_f(x1)}" y2="{_f(y_zero)}" '
+                'stroke="#666"/>')  # fmt: skip
+    for p in b.brace_points:
+        x, _ = ax.px(p.station * fx, 0.0)
+        fill = "#222" if p.counts else "#fff"
+        body.append(
+            f'<circle class="brace{"" if p.counts else " brace-void"}" cx="{_f(x)}" '
+            f'cy="{_f(y_zero)}" r="4" fill="{fill}" stroke="#222" stroke-width="1.2"/>'
+        )
+    if gov is not None:
+        x, y = ax.px((gov.start + gov.end) / 2 * fx, yt[-1])
+        body.append(
+            f'<text x="{_f(x)}" y="{_f(y + 14)}" font-size="11" text-anchor="middle">'
+            f"governing: Lb {escape(du.text(gov.lb, 'length'))}</text>"
+        )
+    return _svg(ax.width, ax.height, f"Moment diagram of {b.name or b.guid}", body, "chart")
+
+
+def strength_curve_svg(b: BeamResult, du: DisplayUnits, method: str) -> str | None:
+    """Design strength against Lb with the governing segment's (Lb, demand) marked."""
+    if not b.curve:
+        return None
+    fx, fm = du.factor("length"), du.factor("moment")
+    pts = [(x * fx, y * fm) for x, y in b.curve if math.isfinite(x) and math.isfinite(y)]
+    if len(pts) < 2:
+        return None
+    gov = b.governing
+    mark = None if gov is None else (gov.lb * fx, gov.moment_demand * fm)
+    xmax = max(p[0] for p in pts)
+    ymax = max(p[1] for p in pts)
+    if mark is not None:
+        xmax, ymax = max(xmax, mark[0]), max(ymax, mark[1])
+    xt, yt = nice_ticks(0.0, xmax), nice_ticks(0.0, ymax * 1.05)
+    ax = Axes(xt[0], xt[-1], yt[0], yt[-1])
+    strength = "φMn" if method.upper() == "LRFD" else "Mn/Ω"
+    body = ax.frame(xt, yt, f"unbraced length Lb ({du.label('length')})",
+                    f"{strength} ({du.label('moment')})")  # fmt: skip
+    body.append(
+        '<polyline class="curve" fill="none" stroke="#2a788e" stroke-width="2" points="'
+        + " ".join(f"{_f(x)},{_f(y)}" for x, y in (ax.px(*p) for p in pts))
+        + '"/>'
+    )
+    if mark is not None and gov is not None:
+        x, y = ax.px(*mark)
+        _, yb = ax.px(mark[0], 0.0)
+        body.append(
+            f'<line x1="{_f(x)}" y1="{_f(yb)}" x2="{_f(x)}" y2="{_f(y)}" stroke="#555" '
+            'stroke-dasharray="4 3"/>'
+        )
+        if gov.ratio > 1.0:
+            body.append(_cross(x, y, 6, "segment-mark"))
+        else:
+            body.append(
+                f'<circle class="segment-mark" cx="{_f(x)}" cy="{_f(y)}" r="5" fill="#222"/>'
+            )
+        body.append(
+            f'<text x="{_f(x + 8)}" y="{_f(y - 8)}" font-size="11" stroke="#fff" '
+            f'stroke-width="3" paint-order="stroke">governing segment: ratio {gov.ratio:.2f}</text>'
+        )
+    return _svg(ax.width, ax.height, f"Strength against Lb for {b.name or b.guid}", body, "chart")

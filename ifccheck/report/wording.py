@@ -1,0 +1,193 @@
+"""Plain-language descriptions of a beam's result, shared by the BCF and HTML writers."""
+
+from __future__ import annotations
+
+from ifccheck.report.display import DisplayUnits
+from ifccheck.results import BeamChange, BeamResult, SegmentResult
+
+LIMIT_STATE_WORDS = {
+    "yielding": "yielding (full plastic moment)",
+    "inelastic_ltb": "inelastic lateral-torsional buckling",
+    "elastic_ltb": "elastic lateral-torsional buckling",
+    "flange_local_buckling": "flange local buckling",
+}
+
+LTB_STATES = ("inelastic_ltb", "elastic_ltb")
+
+CHECK_WORDS = {"flexure": "bending", "shear": "shear", "deflection": "deflection"}
+
+STATUS_WORDS = {"pass": "passes", "fail": "fails", "not_checked": "was not checked"}
+
+# keyword in a not-checked reason → what the model needs
+_NEEDS = (
+    ("profile", "give the beam a profile the tool can read: an I-shape profile with "
+     "dimensions (IfcIShapeProfileDef) or a standard shape name"),
+    ("section", "give the beam a section the tool can read: an I-shape profile with "
+     "dimensions or a standard shape name"),
+    ("material", "assign a steel material with a grade name (e.g. A992, S355)"),
+    ("grade", "assign a steel material with a grade name (e.g. A992, S355)"),
+    ("steel", "check the beam's material: only steel beams are checked"),
+    ("support", "connect the beam's ends to the members that carry it "
+     "(girders, columns or walls) within the connection tolerance"),
+    ("axis", "give the beam an axis or an extruded body so its centre line can be found"),
+    ("geometry", "give the beam an axis or an extruded body so its centre line can be found"),
+    ("demand", "provide the loads or analysis results for this beam"),
+    ("load", "provide the loads or analysis results for this beam"),
+    ("cycle", "remove the loop in the load path (beams that carry each other)"),
+)  # fmt: skip
+
+
+def limit_state_words(limit_state: str) -> str:
+    return LIMIT_STATE_WORDS.get(limit_state, limit_state.replace("_", " "))
+
+
+def beam_label(b: BeamResult) -> str:
+    """'B-12 (W24X84, Level 2)'."""
+    name = b.name or b.guid
+    parts = [p for p in (b.profile, b.storey) if p]
+    return f"{name} ({', '.join(parts)})" if parts else name
+
+
+def segment_midpoint(seg: SegmentResult) -> float:
+    return 0.5 * (seg.start + seg.end)
+
+
+def segment_words(b: BeamResult, seg: SegmentResult, du: DisplayUnits) -> str:
+    """Where the governing segment is and what governs it, in a sentence."""
+    index = b.segments.index(seg) + 1 if seg in b.segments else 0
+    where = (
+        f"segment {index} of {len(b.segments)}, from {du.text(seg.start, 'length')} "
+        f"to {du.text(seg.end, 'length')} along the beam"
+    )
+    if seg.continuous or seg.lb == 0.0:
+        bracing = f"its {seg.flange} flange is braced continuously by the slab"
+    else:
+        bracing = (
+            f"unbraced length Lb = {du.text(seg.lb, 'length')} with the {seg.flange} "
+            f"flange in compression, Cb = {seg.cb:.2f}"
+        )
+    return (
+        f"The governing length is {where}: {bracing}. "
+        f"{limit_state_words(seg.limit_state).capitalize()} governs: a moment of "
+        f"{du.text(seg.moment_demand, 'moment', 1)} against a strength of "
+        f"{du.text(seg.moment_capacity, 'moment', 1)} (ratio {seg.ratio:.2f}) "
+        f"under {seg.combination or 'the governing combination'}."
+    )
+
+
+def fix_words(b: BeamResult, du: DisplayUnits) -> str:
+    """What would make a failing beam pass."""
+    seg = b.governing
+    if b.governing_check == "shear":
+        return "Shear governs: use a section with a deeper or thicker web."
+    if b.governing_check == "deflection":
+        return "Deflection governs: use a stiffer (deeper) section or shorten the span."
+    if seg is not None and seg.limit_state in LTB_STATES and seg.lb > 0.0:
+        x = segment_midpoint(seg)
+        return (
+            f"Add a brace to the {seg.flange} flange near station {du.text(x, 'length')} "
+            f"(the middle of the governing unbraced length), or use a heavier section."
+        )
+    return "Bracing does not control here: use a heavier section or reduce the load."
+
+
+def needs_words(reason: str) -> str:
+    """What the model needs so that a not-checked beam can be checked."""
+    low = reason.lower()
+    for key, need in _NEEDS:
+        if key in low:
+            return need[0].upper() + need[1:] + "."
+    return "Correct what the reason names in the model and run the check again."
+
+
+def beam_issue_title(b: BeamResult) -> str:
+    if b.status == "not_checked":
+        return f"{beam_label(b)}: not checked"
+    ratio = f" ratio {b.ratio:.2f}" if b.ratio is not None else ""
+    what = CHECK_WORDS.get(b.governing_check, b.governing_check or "check")
+    seg = b.governing
+    if b.governing_check == "flexure" and seg is not None:
+        what = limit_state_words(seg.limit_state)
+    return f"{beam_label(b)} fails in {what},{ratio}"
+
+
+def beam_issue_description(b: BeamResult, du: DisplayUnits) -> str:
+    """Why the beam is an issue and what would fix it, in plain sentences."""
+    if b.status == "not_checked":
+        reason = b.reason or "no reason was recorded"
+        return f"This beam was not checked: {reason}. {needs_words(reason)}"
+    lines: list[str] = []
+    ratio = f" (ratio {b.ratio:.2f})" if b.ratio is not None else ""
+    what = CHECK_WORDS.get(b.governing_check, b.governing_check or "the check")
+    lines.append(f"This beam {STATUS_WORDS.get(b.status, b.status)} in {what}{ratio}.")
+    seg = b.governing
+    if seg is not None and b.governing_check in ("flexure", ""):
+        lines.append(segment_words(b, seg, du))
+    elif b.governing_check == "shear" and b.shear_demand is not None:
+        lines.append(
+            f"Shear {du.text(b.shear_demand, 'force', 1)} against a strength of "
+            f"{du.text(b.shear_capacity, 'force', 1)}."
+        )
+    elif b.governing_check == "deflection":
+        lines.append(
+            f"Live-load deflection {du.text(b.deflection_live, 'deflection', 1)} "
+            f"(limit {du.text(b.deflection_live_limit, 'deflection', 1)}), total "
+            f"{du.text(b.deflection_total, 'deflection', 1)} "
+            f"(limit {du.text(b.deflection_total_limit, 'deflection', 1)})."
+        )
+    lines.append(fix_words(b, du))
+    return " ".join(lines)
+
+
+def change_title(c: BeamChange) -> str:
+    name = c.name or c.guid
+    where = f" ({c.storey})" if c.storey else ""
+    parts = []
+    if c.lost_brace_points:
+        n = len(c.lost_brace_points)
+        parts.append(f"lost {n} brace point{'s' if n != 1 else ''}")
+    if c.lost_supports:
+        parts.append("lost a support")
+    if c.lost_continuous_bracing > 0:
+        parts.append("lost slab bracing")
+    if c.ratio_before is not None and c.ratio_after is not None:
+        parts.append(f"ratio {c.ratio_before:.2f} → {c.ratio_after:.2f}")
+    if c.status_before and c.status_after and c.status_before != c.status_after:
+        parts.append(f"{c.status_before.replace('_', ' ')} → {c.status_after.replace('_', ' ')}")
+    return f"{name}{where}: " + (", ".join(parts) if parts else c.severity)
+
+
+def change_description(c: BeamChange, du: DisplayUnits) -> str:
+    lines = [f"Between the two revisions this beam got {_severity_words(c.severity)}."]
+    if c.lost_brace_points:
+        at = ", ".join(du.text(s, "length") for s in c.lost_brace_points)
+        lines.append(f"Brace points lost at station {at}.")
+    if c.added_brace_points:
+        at = ", ".join(du.text(s, "length") for s in c.added_brace_points)
+        lines.append(f"Brace points added at station {at}.")
+    if c.lost_supports:
+        lines.append(f"Supports lost: {', '.join(c.lost_supports)}.")
+    if c.gained_supports:
+        lines.append(f"Supports gained: {', '.join(c.gained_supports)}.")
+    if c.lost_continuous_bracing > 0:
+        lines.append(f"Slab-braced length lost: {du.text(c.lost_continuous_bracing, 'length')}.")
+    if c.lb_before is not None or c.lb_after is not None:
+        lines.append(
+            f"Governing Lb {du.text(c.lb_before, 'length')} → {du.text(c.lb_after, 'length')}."
+        )
+    if c.ratio_before is not None or c.ratio_after is not None:
+        rb = "–" if c.ratio_before is None else f"{c.ratio_before:.2f}"
+        ra = "–" if c.ratio_after is None else f"{c.ratio_after:.2f}"
+        lines.append(f"Ratio {rb} → {ra}.")
+    if c.status_before or c.status_after:
+        lines.append(f"Status {c.status_before or '–'} → {c.status_after or '–'}.")
+    lines.extend(r if r.endswith(".") else r + "." for r in c.reasons)
+    if c.lost_brace_points and c.severity == "regression":
+        lines.append(
+            "Restore the lost brace, or check that the longer unbraced length is intended."
+        )
+    return " ".join(lines)
+
+
+def _severity_words(severity: str) -> str:
+    return {"regression": "worse", "improvement": "better"}.get(severity, "different")

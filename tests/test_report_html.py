@@ -1,0 +1,213 @@
+"""The HTML reports: self-contained, one shape per beam per plan, markings, caps."""
+
+from __future__ import annotations
+
+import re
+from collections import Counter, defaultdict
+from html.parser import HTMLParser
+
+import pytest
+import result_fixtures as rf
+
+from ifccheck import CAUTION
+from ifccheck.report import html_out
+from ifccheck.report.colours import VIRIDIS, ratio_colour
+from ifccheck.report.html_out import diff_html, report_html, write_diff_html, write_report_html
+
+EXTERNAL = re.compile(
+    r"""(?:src|href|xlink:href|action|poster|data)\s*=\s*["']?\s*(?:https?:)?//"""
+    r"""|url\(\s*["']?\s*(?:https?:)?//|@import""",
+    re.IGNORECASE,
+)
+
+
+class PlanParser(HTMLParser):
+    """Per storey figure: the data-guid shapes and the class counts of SVG elements."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.storey: str | None = None
+        self.depth = 0
+        self.guids: dict[str, list[str]] = defaultdict(list)
+        self.classes: dict[str, Counter] = defaultdict(Counter)
+        self.old_guids: dict[str, list[str]] = defaultdict(list)
+        self.texts: dict[str, list[str]] = defaultdict(list)
+        self._in_text = False
+
+    def handle_starttag(self, tag, attrs):
+        a = dict(attrs)
+        if tag == "figure" and "storey" in (a.get("class") or "").split():
+            self.storey, self.depth = a["data-storey"], 0
+        if self.storey is None:
+            return
+        if tag == "figure":
+            self.depth += 1
+        if "data-guid" in a:
+            self.guids[self.storey].append(a["data-guid"])
+        if "data-old-guid" in a:
+            self.old_guids[self.storey].append(a["data-old-guid"])
+        for c in (a.get("class") or "").split():
+            self.classes[self.storey][c] += 1
+        self._in_text = tag == "text"
+
+    def handle_endtag(self, tag):
+        if self.storey is not None and tag == "figure":
+            self.depth -= 1
+            if self.depth == 0:
+                self.storey = None
+        if tag == "text":
+            self._in_text = False
+
+    def handle_data(self, data):
+        if self.storey is not None and self._in_text:
+            self.texts[self.storey].append(data)
+
+
+def _parse(page: str) -> PlanParser:
+    p = PlanParser()
+    p.feed(page)
+    return p
+
+
+def _by_storey(beams):
+    out = defaultdict(list)
+    for b in beams:
+        out[b.storey].append(b)
+    return out
+
+
+def test_page_is_self_contained(tmp_path):
+    path = write_report_html(rf.check_result(), tmp_path / "m.report.html", "imperial")
+    page = path.read_text(encoding="utf-8")
+    assert not EXTERNAL.search(page)
+    assert "<script" not in page and "<link" not in page and "<img" not in page
+    assert "http://" not in page and "https://" not in page
+    dpage = write_diff_html(rf.diff_result(), tmp_path / "diff.html", "si").read_text()
+    assert not EXTERNAL.search(dpage) and "http" not in dpage
+
+
+def test_pattern_catches_external_references():
+    # the check above must be able to fail
+    bad = [
+        '<img src="https://x.org/a.png">',
+        "<a href='//cdn.example/x'>",
+        '<div style="background:url(http://x/y)">',
+        "<style>@import 'a.css'</style>",
+    ]
+    for text in bad:
+        assert EXTERNAL.search(text)
+    assert not EXTERNAL.search('<a href="#beam-abc">')
+
+
+def test_one_shape_per_beam_per_plan():
+    result = rf.check_result()
+    p = _parse(report_html(result, "si"))
+    expected = _by_storey(result.beams)
+    assert set(p.guids) == set(expected)
+    for storey, beams in expected.items():
+        assert sorted(p.guids[storey]) == sorted(b.guid for b in beams)
+
+
+def test_plan_marks_braces_slab_bands_failures_and_not_checked():
+    result = rf.check_result()
+    p = _parse(report_html(result, "si"))
+    for storey, beams in _by_storey(result.beams).items():
+        c = p.classes[storey]
+        points = [bp for b in beams for bp in b.brace_points]
+        assert c["brace"] == len(points)  # every brace point is a dot
+        assert c["brace-void"] == sum(
+            not bp.counts for bp in points
+        )  # hollow when it does not count
+        assert c["slab-braced"] == sum(len(b.continuous_bracing) for b in beams)
+        assert c["fail-casing"] == sum(b.status == "fail" for b in beams)
+        assert c["st-not_checked"] == sum(b.status == "not_checked" for b in beams)
+        assert c["slab"] == sum(s.storey == storey for s in result.slabs)
+        labels = " ".join(p.texts[storey])
+        for b in beams:
+            assert (b.name in labels) is (b.status == "fail")  # failing beams labelled
+    assert p.classes["Level 2"]["brace-void"] == 1  # the unanchored strut on B-2
+
+
+def test_sections_caution_and_summary():
+    result = rf.check_result()
+    page = report_html(result, "imperial")
+    for heading in ("Summary", "Storey plans", "Beams", "Not checked", "Beam details"):
+        assert f"<h2>{heading}</h2>" in page
+    assert CAUTION in page
+    assert "AISC 360-16" in page and "LRFD" in page and rf.CHECKED_AT in page
+    assert "writer-test.ifc" in page
+    # the not-checked beam's reason and what the model needs
+    assert "not in the shape table" in page and "IfcIShapeProfileDef" in page
+
+
+def test_detail_has_diagram_curve_and_marker():
+    result = rf.check_result()
+    page = report_html(result, "imperial")
+    detail = page.split('id="beam-' + rf.guids()["b2"] + '"', 1)[1].split("</article>", 1)[0]
+    assert 'class="moment"' in detail and 'class="curve"' in detail
+    assert detail.count('class="segment-mark"') == 1
+    assert "Lb 15.00 ft" in detail
+    assert "near station 15.00 ft" in detail
+    result.beams[1].curve = None
+    page = report_html(result, "imperial")
+    detail = page.split('id="beam-' + rf.guids()["b2"] + '"', 1)[1].split("</article>", 1)[0]
+    assert 'class="curve"' not in detail and 'class="segment-mark"' not in detail
+
+
+def test_detail_sections_are_capped_and_the_page_says_so(monkeypatch):
+    monkeypatch.setattr(html_out, "DETAIL_OTHERS", 20)
+    monkeypatch.setattr(html_out, "DETAIL_FAILS", 30)
+    result = rf.many_beams(400)  # 100 of each scenario beam: 100 fail, 200 pass
+    page = report_html(result, "si")
+    assert page.count('<article class="beam"') == 30 + 20
+    assert "Details of 30 of 100 failing beams and the 20 highest-ratio" in page
+    p = _parse(page)
+    assert sum(len(v) for v in p.guids.values()) == 400  # the plans still show every beam
+
+
+def test_diff_plan_marks_changes():
+    diff = rf.diff_result()
+    page = diff_html(diff, "imperial")
+    p = _parse(page)
+    for storey, beams in _by_storey(diff.new.beams).items():
+        assert sorted(p.guids[storey]) == sorted(b.guid for b in beams)
+    reg = diff.regressions[0]
+    assert p.classes[reg.storey]["lost-brace"] == len(reg.lost_brace_points) == 1
+    assert p.classes[reg.storey]["regression-casing"] == 1
+    assert p.classes[reg.storey]["ch-regression"] == 1
+    assert p.classes["Level 3"]["ch-added"] == len(diff.added)
+    assert p.classes["Level 3"]["added-brace"] == 1
+    assert p.old_guids["Level 2"] == diff.removed
+    assert "B-2" in " ".join(p.texts[reg.storey])
+    assert "<h2>Changed beams</h2>" in page and CAUTION in page
+
+
+def test_colour_scale_ends_and_order():
+    assert ratio_colour(0.0) == VIRIDIS[0] and ratio_colour(1.0) == VIRIDIS[-1]
+    assert ratio_colour(3.0) == VIRIDIS[-1] and ratio_colour(-1.0) == VIRIDIS[0]
+
+    def lightness(hex_colour: str) -> float:  # relative luminance, WCAG 2
+        def lin(c: float) -> float:
+            return c / 12.92 if c <= 0.04045 else ((c + 0.055) / 1.055) ** 2.4
+
+        r, g, b = (int(hex_colour[i : i + 2], 16) / 255 for i in (1, 3, 5))
+        return 0.2126 * lin(r) + 0.7152 * lin(g) + 0.0722 * lin(b)
+
+    steps = [lightness(ratio_colour(i / 20)) for i in range(21)]
+    assert steps == sorted(steps)  # lightness rises with ratio: readable without hue
+
+
+def test_colour_scale_matches_matplotlib_viridis():
+    cm = pytest.importorskip("matplotlib").colormaps["viridis"]
+    for i in range(11):
+        r, g, b, _ = cm(i / 10)
+        want = (round(r * 255), round(g * 255), round(b * 255))
+        got = tuple(int(ratio_colour(i / 10)[k : k + 2], 16) for k in (1, 3, 5))
+        assert max(abs(x - y) for x, y in zip(got, want, strict=True)) <= 2
+
+
+def test_many_beams(tmp_path):
+    # speed is measured by benchmarks/bench_outputs.py, not asserted here
+    result = rf.many_beams(2_000)
+    path = write_report_html(result, tmp_path / "big.html", "si")
+    assert path.stat().st_size > 0
