@@ -166,6 +166,34 @@ def _summary_line(result, units: str) -> str:
     return line
 
 
+def _output_options(command):
+    """--out, --units and --method, shared by check and diff."""
+    for option in reversed(
+        [
+            click.option(
+                "--out",
+                "out_dir",
+                default="ifccheck-results",
+                show_default=True,
+                type=click.Path(file_okay=False),
+                help="Directory for the outputs.",
+            ),
+            click.option(
+                "--units",
+                type=click.Choice(["si", "imperial"]),
+                help="Units of the CSV and report (default: the model's unit system).",
+            ),
+            click.option(
+                "--method",
+                type=click.Choice(["LRFD", "ASD"], case_sensitive=False),
+                help="Design method (overrides the settings file).",
+            ),
+        ]
+    ):
+        command = option(command)
+    return command
+
+
 @main.command()
 @click.argument("model_path", metavar="MODEL", type=click.Path(dir_okay=False))
 @click.option(
@@ -178,21 +206,7 @@ def _summary_line(result, units: str) -> str:
     type=click.Path(exists=True, dir_okay=False),
     help="CSV of GUID, moment (and shear) from an analysis, overriding computed demand.",
 )
-@click.option(
-    "--out",
-    "out_dir",
-    default="ifccheck-results",
-    show_default=True,
-    type=click.Path(file_okay=False),
-    help="Directory for the outputs.",
-)
-@click.option(
-    "--units",
-    type=click.Choice(["si", "imperial"]),
-    help="Units of the CSV and report (default: the model's unit system).",
-)
-@click.option("--method", type=click.Choice(["LRFD", "ASD"], case_sensitive=False),
-              help="Design method (overrides the settings file).")  # fmt: skip
+@_output_options
 def check(model_path, config, demands, out_dir, units, method) -> None:
     """Check every beam of MODEL and write the results to --out.
 
@@ -224,21 +238,7 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
     type=click.Path(exists=True, dir_okay=False),
     help="Settings file (TOML) used for both revisions.",
 )
-@click.option(
-    "--out",
-    "out_dir",
-    default="ifccheck-results",
-    show_default=True,
-    type=click.Path(file_okay=False),
-    help="Directory for the outputs.",
-)
-@click.option(
-    "--units",
-    type=click.Choice(["si", "imperial"]),
-    help="Units of the CSV and report (default: the model's unit system).",
-)
-@click.option("--method", type=click.Choice(["LRFD", "ASD"], case_sensitive=False),
-              help="Design method (overrides the settings file).")  # fmt: skip
+@_output_options
 def diff(old_path, new_path, config, out_dir, units, method) -> None:
     """Compare two revisions: which beams lost bracing or support, or got worse.
 

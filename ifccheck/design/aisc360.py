@@ -22,7 +22,6 @@ from ifccheck.design.base import (
     Method,
     OutOfScopeError,
     ShearResult,
-    StrengthCurve,
     check_method,
     register_standard,
 )
@@ -482,20 +481,6 @@ class AISC360(DesignStandard):
         method: str = "LRFD",
     ) -> FlexureResult:
         return flexure_segments(pairs, index, lb, cb, method)
-
-    def strength_curve(
-        self,
-        section: Section,
-        steel: Steel,
-        cb: float = 1.0,
-        method: str = "LRFD",
-        lb_max: float | None = None,
-        n: int = 200,
-    ) -> StrengthCurve:
-        if lb_max is None:
-            probe = self.flexure(section, steel, [0.0], [1.0], method)
-            lb_max = 1.5 * float(probe.lr[0])
-        return super().strength_curve(section, steel, cb, method, lb_max, n)
 
 
 register_standard(NAME, AISC360)

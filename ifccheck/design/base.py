@@ -154,10 +154,10 @@ class DesignStandard(ABC):
         lb_max: float | None = None,
         n: int = 200,
     ) -> StrengthCurve:
-        """Design strength sampled over Lb from 0 to ``lb_max``."""
+        """Design strength sampled over Lb from 0 to ``lb_max`` (default 1.5·Lr)."""
         if lb_max is None:
             probe = self.flexure(section, steel, [0.0], [1.0], method)
-            lb_max = 1.5 * float(max(probe.lr[0], 1.5 * probe.lp[0]))
+            lb_max = 1.5 * float(max(probe.lr[0], probe.lp[0]))
         if not lb_max > 0.0 or n < 2:
             raise ValueError("lb_max must be positive and n at least 2")
         lb = np.linspace(0.0, lb_max, n)

@@ -344,16 +344,8 @@ class _Reader:
         return start, end, up / np.linalg.norm(up), "geometry"
 
     def _tessellate(self, element: Entity) -> np.ndarray | None:
-        import ifcopenshell.geom
-
-        settings = ifcopenshell.geom.settings()
-        settings.set("use-world-coords", True)
-        try:
-            shape = ifcopenshell.geom.create_shape(settings, element)
-        except Exception:  # geometry kernel failure: no geometry for this element
-            return None
-        verts = np.asarray(shape.geometry.verts, dtype=float).reshape(-1, 3)
-        return verts
+        found = self._tessellate_faces(element)
+        return None if found is None else found[0]
 
     # --- slabs and walls ----------------------------------------------------------
     def _slab(self, element: Entity) -> Slab | None:

@@ -1,0 +1,136 @@
+"""`ifccheck check` and `ifccheck diff` on the demo models, through the CLI.
+
+Expected findings are those the invented scenario builds in (ifccheck/samples/
+scenario.py); the schema is the project's own JSON contract.
+"""
+
+from __future__ import annotations
+
+import csv
+import json
+import zipfile
+from pathlib import Path
+
+import ifcopenshell
+import ifcopenshell.util.element
+import jsonschema
+import pytest
+from click.testing import CliRunner
+
+from ifccheck.cli import main
+from ifccheck.ifc.writeback import PSET_NAME
+
+SAMPLES = Path(__file__).parents[1] / "sample_models"
+SCHEMAS = Path(__file__).parents[1] / "ifccheck" / "schemas"
+
+
+def run(*args: str):
+    return CliRunner().invoke(main, list(args))
+
+
+@pytest.fixture(scope="module")
+def rev_b(tmp_path_factory):
+    out = tmp_path_factory.mktemp("rev-b")
+    model = SAMPLES / "quillfeather-rev-b.ifc"
+    before = model.read_bytes()
+    result = run("check", str(model), "--config", str(SAMPLES / "quillfeather.toml"),
+                 "--out", str(out))  # fmt: skip
+    assert model.read_bytes() == before  # the input model is never modified
+    return result, out
+
+
+def test_check_exit_code_and_summary_line(rev_b):
+    result, _ = rev_b
+    assert result.exit_code == 1  # two beams fail, one cannot be checked
+    assert "60 pass, 2 fail, 1 not checked" in result.output
+    assert "licensed engineer" in result.output
+
+
+def test_outputs_agree_with_each_other(rev_b):
+    _, out = rev_b
+    doc = json.loads((out / "quillfeather-rev-b.results.json").read_text())
+    jsonschema.validate(doc, json.loads((SCHEMAS / "results.schema.json").read_text()))
+    statuses = {b["guid"]: b["status"] for b in doc["beams"]}
+    by_name = {b["name"]: b for b in doc["beams"]}
+    assert by_name["L2-B2-20"]["status"] == "fail"
+    assert by_name["R-G90-0"]["status"] == "fail"
+    assert by_name["L2-B1-50"]["status"] == "not_checked"
+
+    with (out / "quillfeather-rev-b.beams.csv").open(newline="") as fh:
+        rows = list(csv.DictReader(fh))
+    assert {r["guid"]: r["status"] for r in rows} == statuses
+    assert "lb_ft" in rows[0] and "moment_demand_kip_ft" in rows[0]  # model in feet
+
+    checked = ifcopenshell.open(str(out / "quillfeather-rev-b.checked.ifc"))
+    original = ifcopenshell.open(str(SAMPLES / "quillfeather-rev-b.ifc"))
+    assert len(checked.by_type("IfcRoot")) >= len(original.by_type("IfcRoot"))
+    for guid, status in statuses.items():
+        psets = ifcopenshell.util.element.get_psets(checked.by_guid(guid))
+        assert psets[PSET_NAME]["Status"] == status
+
+    # BCF 2.1: one folder per topic; the viewpoint (.bcfv) selects the beam's GUID
+    with zipfile.ZipFile(out / "quillfeather-rev-b.issues.bcf") as z:
+        topics: dict[str, str] = {}
+        for n in z.namelist():
+            if "/" in n:
+                topics[n.split("/")[0]] = topics.get(n.split("/")[0], "") + z.read(n).decode()
+    flagged = {g for g, s in statuses.items() if s != "pass"}
+    assert len(topics) == len(flagged)
+    for guid in flagged:
+        assert sum(guid in text for text in topics.values()) == 1
+
+
+def test_metric_model_in_si_units(tmp_path):
+    result = run("check", str(SAMPLES / "brambleford.ifc"), "--config",
+                 str(SAMPLES / "brambleford.toml"), "--out", str(tmp_path))  # fmt: skip
+    assert result.exit_code == 1  # the lintel given by name only cannot be checked
+    assert "6 pass, 0 fail, 1 not checked" in result.output
+    with (tmp_path / "brambleford.beams.csv").open(newline="") as fh:
+        rows = list(csv.DictReader(fh))
+    assert "lb_m" in rows[0] and "fy_MPa" in rows[0]
+    lintel = next(r for r in rows if r["name"] == "L1")
+    assert "profile dimensions missing" in lintel["reason"]
+
+
+def test_diff_through_the_cli(tmp_path):
+    result = run("diff", str(SAMPLES / "quillfeather-rev-a.ifc"),
+                 str(SAMPLES / "quillfeather-rev-b.ifc"), "--config",
+                 str(SAMPLES / "quillfeather.toml"), "--out", str(tmp_path))  # fmt: skip
+    assert result.exit_code == 1  # regressions found
+    assert "5 regression(s)" in result.output
+    doc = json.loads((tmp_path / "diff.json").read_text())
+    jsonschema.validate(doc, json.loads((SCHEMAS / "diff.schema.json").read_text()))
+    regressions = {b["name"]: b for b in doc["beams"] if b["severity"] == "regression"}
+    assert {"R-G90-0", "L2-B2-20", "L2-B1-50"} <= set(regressions)
+    assert regressions["R-G90-0"]["lost_brace_points"] == pytest.approx([15 * 0.3048], abs=1e-3)
+    for name in ("diff.csv", "diff.bcf", "diff.html"):
+        assert (tmp_path / name).stat().st_size > 0
+
+
+def test_no_regression_between_identical_revisions(tmp_path):
+    a = str(SAMPLES / "quillfeather-rev-a.ifc")
+    result = run("diff", a, a, "--config", str(SAMPLES / "quillfeather.toml"),
+                 "--out", str(tmp_path))  # fmt: skip
+    assert result.exit_code == 0, result.output
+    assert "0 regression(s)" in result.output
+
+
+def test_bad_settings_file_is_one_line_exit_2(tmp_path):
+    bad = tmp_path / "bad.toml"
+    bad.write_text('[loads]\nlive = "100 pounds"\n')
+    result = CliRunner().invoke(
+        main, ["check", str(SAMPLES / "brambleford.ifc"), "--config", str(bad)]
+    )
+    assert result.exit_code == 2
+    assert "loads.live" in result.output and "Traceback" not in result.output
+
+
+def test_asd_method_switch(tmp_path):
+    config = str(SAMPLES / "quillfeather.toml")
+    result = run("check", str(SAMPLES / "quillfeather-rev-a.ifc"), "--config", config,
+                 "--method", "ASD", "--out", str(tmp_path))  # fmt: skip
+    doc = json.loads((tmp_path / "quillfeather-rev-a.results.json").read_text())
+    assert doc["method"] == "ASD"
+    combos = {s["combination"] for b in doc["beams"] for s in b["segments"]}
+    assert combos <= {"D", "D+L"}  # ASCE 7-16 §2.4.1
+    assert result.exit_code in (0, 1)
