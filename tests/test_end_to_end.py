@@ -100,7 +100,7 @@ def test_diff_through_the_cli(tmp_path):
     assert "5 regression(s)" in result.output
     doc = json.loads((tmp_path / "diff.json").read_text())
     jsonschema.validate(doc, json.loads((SCHEMAS / "diff.schema.json").read_text()))
-    regressions = {b["name"]: b for b in doc["beams"] if b["severity"] == "regression"}
+    regressions = {b["name"]: b for b in doc["beams"].values() if b["severity"] == "regression"}
     assert {"R-G90-0", "L2-B2-20", "L2-B1-50"} <= set(regressions)
     assert regressions["R-G90-0"]["lost_brace_points"] == pytest.approx([15 * 0.3048], abs=1e-3)
     for name in ("diff.csv", "diff.bcf", "diff.html"):

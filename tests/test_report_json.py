@@ -125,9 +125,11 @@ def test_diff_json_validates_and_orders_regressions_first(tmp_path):
     path = write_diff_json(diff, tmp_path / "diff.json")
     doc = _strict_load(path)
     assert list(_validator(DIFF_SCHEMA).iter_errors(doc)) == []
-    assert doc["beams"][0]["severity"] == "regression"
-    assert {b["guid"] for b in doc["beams"]} == {c.guid for c in diff.changes}
-    reg = doc["beams"][0]
+    changes = list(doc["beams"].values())
+    assert changes[0]["severity"] == "regression"
+    assert set(doc["beams"]) == {c.guid for c in diff.changes}
+    assert all(doc["beams"][g]["guid"] == g for g in doc["beams"])
+    reg = changes[0]
     assert reg["lost_brace_points"] == [pytest.approx(15 * 0.3048)]
     assert reg["lb_before"] == pytest.approx(7.5 * 0.3048)
     assert reg["lb_after"] == pytest.approx(15 * 0.3048)
@@ -137,7 +139,7 @@ def test_diff_json_validates_and_orders_regressions_first(tmp_path):
     assert s["new_failures"] == 1 and doc["matched"] == 3
     assert doc["added"] == diff.added and doc["removed"] == diff.removed
     bad = diff_document(diff)
-    bad["beams"][0]["severity"] = "worse"
+    next(iter(bad["beams"].values()))["severity"] = "worse"
     assert not _validator(DIFF_SCHEMA).is_valid(bad)
 
 

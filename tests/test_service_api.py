@@ -153,11 +153,11 @@ def test_revision_b_diff_names_the_beams_that_lost_bracing(revisions, alice):
         "diff.html",
     }
     diff = json.loads(alice.file(b["id"], "diff.json"))
-    regressions = {c["name"] for c in diff["beams"] if c["severity"] == "regression"}
+    regressions = {c["name"] for c in diff["beams"].values() if c["severity"] == "regression"}
     # scenario: R-G90-0 loses its roof infill brace, L2-B2-20 its slab bracing at the shaft
     assert {"R-G90-0", "L2-B2-20"} <= regressions
     assert b["diff"]["regressions"] == len(regressions)
-    roof = next(c for c in diff["beams"] if c["name"] == "R-G90-0")
+    roof = next(c for c in diff["beams"].values() if c["name"] == "R-G90-0")
     assert roof["status_before"] == "pass" and roof["status_after"] == "fail"
     assert roof["lost_brace_points"]
 

@@ -303,7 +303,7 @@ def diff_document(diff: DiffResult) -> dict[str, Any]:
         "added": list(diff.added),
         "removed": list(diff.removed),
         "summary": diff_summary(diff),
-        "beams": [change_dict(c) for c in changes],
+        "beams": {c.guid: change_dict(c) for c in changes},
     }
 
 
