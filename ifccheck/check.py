@@ -258,8 +258,13 @@ def _prepare(
         tips = np.array([s.cantilever for s in specs])
         top = np.array([s.flange == "top" for s in specs])
         loose = ~np.array([s.continuous for s in specs])
+        # an analysis gives |M| without telling which flange it compresses:
+        # both flanges are checked for it (conservative)
+        either = bd.source == "analysis"
+        if either:
+            out.notes.append("analysis moment checked on both flanges (its sign is not known)")
         for name, d in diagrams:
-            demand, cb = _segment_demands(d, starts, ends, tips, top, standard)
+            demand, cb = _segment_demands(d, starts, ends, tips, top, standard, either)
             cb = np.where(loose, cb, 1.0)
             rows += [(i, name, float(demand[i]), float(cb[i])) for i in range(len(specs))]
     return _Pending(out, m, bd, diagrams, specs, rows)
@@ -328,9 +333,18 @@ def _finish(p: _Pending, flex, standard: DesignStandard, settings: Settings) -> 
 
 
 def _segment_demands(
-    d, starts: np.ndarray, ends: np.ndarray, tips: np.ndarray, top: np.ndarray, standard
+    d,
+    starts: np.ndarray,
+    ends: np.ndarray,
+    tips: np.ndarray,
+    top: np.ndarray,
+    standard,
+    either_flange: bool = False,
 ) -> tuple[np.ndarray, np.ndarray]:
-    """Per segment: the moment compressing its flange, and the moment-gradient factor."""
+    """Per segment: the moment compressing its flange, and the moment-gradient factor.
+
+    ``either_flange`` takes the largest |M| for both flanges (sign unknown).
+    """
     from ifccheck.design.aisc360 import segment_moments
 
     # node stations appear twice and may differ by rounding: keep them monotone
@@ -338,7 +352,7 @@ def _segment_demands(
     moment = np.asarray(d.M, dtype=float)
     sagging = segment_moments(x, np.maximum(moment, 0.0), starts, ends)[0]
     hogging = segment_moments(x, np.maximum(-moment, 0.0), starts, ends)[0]
-    demand = np.where(top, sagging, hogging)
+    demand = np.maximum(sagging, hogging) if either_flange else np.where(top, sagging, hogging)
     cb = standard.moment_gradient(x, moment, starts, ends, tips)
     return demand, np.asarray(cb, dtype=float)
 
@@ -369,13 +383,15 @@ def _strength_diagrams(bd: BeamDemand, length: float, out: BeamResult) -> list:
     if bd.source != "analysis":
         return computed
     if computed:
-        peak = max(float(np.max(np.abs(d.M))) for _, d in computed)
+        # the computed combination with the largest moment gives the shape
+        name, shape = max(computed, key=lambda nd: float(np.max(np.abs(nd[1].M))))
+        peak = float(np.max(np.abs(shape.M)))
         if peak > 0:
             scale = bd.max_moment / peak
             out.notes.append(
-                f"analysis moment applied to the computed moment shape (scaled by {scale:.3f})"
+                f"analysis moment applied to the shape of {name} (scaled by {scale:.3f})"
             )
-            return [("analysis", _Scaled(d, scale)) for _, d in computed[-1:]]
+            return [("analysis", _Scaled(shape, scale))]
     out.notes.append("analysis moment taken as uniform along the beam (Cb = 1.0)")
     return [("analysis", _UniformMoment(length, bd.max_moment))]
 

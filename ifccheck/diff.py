@@ -92,8 +92,14 @@ def _to_new_stations(old: BeamResult, new: BeamResult, stations: list[float]) ->
     return [float(v) for v in (pts - n0) @ nt]
 
 
-def _braces(b: BeamResult) -> list[float]:
-    return sorted({round(p.station, 4) for p in b.brace_points if p.counts})
+FLANGES = ("top", "bottom")
+
+
+def _braces(b: BeamResult, flange: str) -> list[float]:
+    """Stations of counting brace points that restrain ``flange``."""
+    return sorted(
+        {round(p.station, 4) for p in b.brace_points if p.counts and p.flange in (flange, "both")}
+    )
 
 
 def _unmatched(a: list[float], b: list[float]) -> list[float]:
@@ -102,8 +108,17 @@ def _unmatched(a: list[float], b: list[float]) -> list[float]:
     return [s for s in a if bb.size == 0 or np.min(np.abs(bb - s)) > STATION_TOLERANCE]
 
 
-def _covered(b: BeamResult) -> float:
-    return sum(e - s for s, e in b.continuous_bracing)
+def _lost_cover(old: BeamResult, new: BeamResult) -> float:
+    """Length of the old slab-braced intervals that the new ones no longer cover."""
+    from shapely.geometry import LineString, MultiLineString
+
+    def lines(intervals) -> MultiLineString:
+        return MultiLineString([LineString([(a, 0), (b, 0)]) for a, b in intervals if b > a])
+
+    old_iv = [tuple(sorted(_to_new_stations(old, new, [a, b]))) for a, b in old.continuous_bracing]
+    if not old_iv:
+        return 0.0
+    return float(lines(old_iv).difference(lines(new.continuous_bracing)).length)
 
 
 def compare_beam(
@@ -114,17 +129,20 @@ def compare_beam(
     names: dict[str, str] | None = None,
 ) -> BeamChange | None:
     """The change of one matched beam, or None when nothing that matters changed."""
-    old_braces = _to_new_stations(old, new, _braces(old))
-    new_braces = _braces(new)
-    lost = _unmatched(old_braces, new_braces)
-    added = _unmatched(new_braces, old_braces)
+    lost: set[float] = set()
+    added: set[float] = set()
+    for flange in FLANGES:
+        old_braces = _to_new_stations(old, new, _braces(old, flange))
+        new_braces = _braces(new, flange)
+        lost.update(round(s, 4) for s in _unmatched(old_braces, new_braces))
+        added.update(round(s, 4) for s in _unmatched(new_braces, old_braces))
     old_sup = {s["by"] for s in old.supports}
     new_sup = {s["by"] for s in new.supports}
     lost_sup = sorted(old_sup - new_sup) if matched_by == "guid" else []
     gained_sup = sorted(new_sup - old_sup) if matched_by == "guid" else []
     if len(new.supports) < len(old.supports) and not lost_sup:
         lost_sup = ["(support count fell)"]
-    lost_cover = max(0.0, _covered(old) - _covered(new))
+    lost_cover = _lost_cover(old, new)
     lb_before = old.governing.lb if old.governing else None
     lb_after = new.governing.lb if new.governing else None
     change = BeamChange(
@@ -133,8 +151,8 @@ def compare_beam(
         name=new.name,
         storey=new.storey,
         matched_by=matched_by,  # type: ignore[arg-type]
-        lost_brace_points=[round(s, 4) for s in lost],
-        added_brace_points=[round(s, 4) for s in added],
+        lost_brace_points=sorted(lost),
+        added_brace_points=sorted(added),
         lost_supports=lost_sup,
         gained_supports=gained_sup,
         lost_continuous_bracing=round(lost_cover, 4),

@@ -1,0 +1,78 @@
+"""Demand from an analysis, and the diff's flange-aware comparison.
+
+Sources: statics by construction (the analysis moment must reach the check
+unchanged), and the rule that a brace or slab length lost on either flange is
+a loss (DESIGN.md §3, "Compression flange matters").
+"""
+
+from __future__ import annotations
+
+from dataclasses import replace
+from pathlib import Path
+
+import pytest
+
+from ifccheck.check import run_check
+from ifccheck.config import settings_from_dict
+from ifccheck.diff import compare_beam
+from ifccheck.results import BeamResult, BracePointOut
+
+SAMPLES = Path(__file__).parents[1] / "sample_models"
+KIP_FT = 1355.8179483314004  # N·m
+
+
+@pytest.fixture(scope="module")
+def overridden(tmp_path_factory):
+    csv = tmp_path_factory.mktemp("demand") / "demand.csv"
+    model = SAMPLES / "quillfeather-rev-a.ifc"
+    # find two GUIDs by name from a plain run
+    settings = settings_from_dict({"loads": {"dead": "20 psf", "live": "0 psf"}})
+    plain, _, _ = run_check(model, settings)
+    guid = {b.name: b.guid for b in plain.beams}
+    csv.write_text(f"guid,moment (kip-ft)\n{guid['L2-E1-30']},200\n{guid['L2-B1-10']},-150\n")
+    result, _, _ = run_check(model, settings, csv)
+    return {b.name: b for b in result.beams}
+
+
+def test_analysis_moment_reaches_the_check_unscaled(overridden):
+    # with no live load 1.4D governs the computed shape; the analysis value is
+    # what must be checked, whatever combination gave the shape
+    b = overridden["L2-E1-30"]
+    assert max(s.moment_demand for s in b.segments) == pytest.approx(200 * KIP_FT, rel=1e-6)
+
+
+def test_analysis_moment_checks_both_flanges(overridden):
+    # the sign of an analysis moment is not trusted: the bottom flange, braced
+    # only at the supports, is checked for |M| too and governs here
+    b = overridden["L2-B1-10"]
+    flanges = {s.flange for s in b.segments}
+    assert flanges == {"top", "bottom"}
+    bottom = max((s for s in b.segments if s.flange == "bottom"), key=lambda s: s.ratio)
+    assert bottom.moment_demand == pytest.approx(150 * KIP_FT, rel=1e-6)
+    assert bottom.lb == pytest.approx(30 * 0.3048, rel=1e-6)
+    assert b.governing.flange == "bottom"
+
+
+def _beam(points, continuous=()) -> BeamResult:
+    return BeamResult(
+        guid="b", name="B", storey="L", ifc_class="IfcBeam", profile="W21X44", grade="A992",
+        fy=345e6, start=(0.0, 0.0, 0.0), end=(9.0, 0.0, 0.0), length=9.0, span=9.0,
+        brace_points=[BracePointOut(s, "brace", "k", f, True) for s, f in points],
+        continuous_bracing=list(continuous), status="pass", ratio=0.5,
+    )  # fmt: skip
+
+
+def test_lost_kicker_on_the_bottom_flange_is_found_at_a_station_still_braced_on_top():
+    old = _beam([(0.0, "both"), (4.0, "top"), (4.0, "bottom"), (9.0, "both")])
+    new = _beam([(0.0, "both"), (4.0, "top"), (9.0, "both")])
+    change = compare_beam(old, new, "guid")
+    assert change is not None and change.severity == "regression"
+    assert change.lost_brace_points == [4.0]
+
+
+def test_slab_bracing_that_moves_is_a_loss_where_it_left():
+    old = _beam([(0.0, "both"), (9.0, "both")], continuous=[(0.0, 6.0)])
+    new = replace(old, continuous_bracing=[(3.0, 9.0)])
+    change = compare_beam(old, new, "guid")
+    assert change is not None and change.severity == "regression"
+    assert change.lost_continuous_bracing == pytest.approx(3.0)
