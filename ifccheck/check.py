@@ -86,6 +86,11 @@ def run_check(
         if m.role is MemberRole.BEAM
     ]
     results = check_beams(beams, standard, settings, progress)
+    names = {m.guid: m.name for m in model.members if m.name}
+    names.update({w.guid: w.name for w in model.walls if w.name})
+    for b in results:
+        for p in b.brace_points:
+            p.by_name = names.get(p.by, "")
     slabs = [
         SlabOutline(
             s.guid,

@@ -40,6 +40,7 @@ class BracePointOut:
     flange: str
     counts: bool
     reason: str = ""
+    by_name: str = ""  # the bracing member's name, for people (the GUID stays in ``by``)
 
 
 @dataclass

@@ -347,7 +347,9 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str) -> str:
             + _table(
                 [f"Station ({du.label('length')})", "Kind", "Flange", "Counts", "By", "Why not"],
                 [[_qty(du, p.station, "length"), escape(p.kind), escape(p.flange),
-                  "yes" if p.counts else "no", f"<code>{escape(p.by)}</code>", escape(p.reason)]
+                  "yes" if p.counts else "no",
+                  (f"{escape(p.by_name)} " if p.by_name else "") + f"<code>{escape(p.by)}</code>",
+                  escape(p.reason)]
                  for p in sorted(b.brace_points, key=lambda p: p.station)],
             )
         )  # fmt: skip
