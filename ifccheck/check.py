@@ -434,19 +434,22 @@ def _deflection(out: BeamResult, m: Member, bd: BeamDemand, settings: Settings) 
         out.notes.append("deflection not checked: no computed loads")
         return
     ratios = []
-    for combo, limit_ratio, attr in (
-        (LIVE_DEFLECTION, settings.deflection.live, "live"),
-        (TOTAL_DEFLECTION, settings.deflection.total, "total"),
+    live = [c for c in bd.service if set(c.factors) - {"D"} and "D" not in c.factors]
+    total = [c for c in bd.service if "D" in c.factors]
+    for combos, limit_ratio, attr in (
+        (live or [LIVE_DEFLECTION], settings.deflection.live, "live"),
+        (total or [TOTAL_DEFLECTION], settings.deflection.total, "total"),
     ):
-        d = bd.analysis.combine(combo.factors)
         worst = (0.0, 0.0, 0.0)  # (ratio, deflection, allowed)
-        for a, b, kind, w in d.span_deflections():
-            if not np.isfinite(w):
-                continue
-            length = (b - a) * (OVERHANG_FACTOR if kind == "overhang" else 1.0)
-            allowed = length / limit_ratio
-            if allowed > 0 and w / allowed > worst[0]:
-                worst = (w / allowed, w, allowed)
+        for combo in combos:
+            d = bd.analysis.combine(combo.factors)
+            for a, b, kind, w in d.span_deflections():
+                if not np.isfinite(w):
+                    continue
+                length = (b - a) * (OVERHANG_FACTOR if kind == "overhang" else 1.0)
+                allowed = length / limit_ratio
+                if allowed > 0 and w / allowed > worst[0]:
+                    worst = (w / allowed, w, allowed)
         setattr(out, f"deflection_{attr}", worst[1])
         setattr(out, f"deflection_{attr}_limit", worst[2] or None)
         ratios.append(worst[0])

@@ -337,3 +337,39 @@ def test_storey_loads_override_defaults() -> None:
     live = [x.w for x in b1.line_loads if x.case == "L"]
     assert live == [pytest.approx(125 * PSF * SPACING)]
     assert "superimposed dead" not in {x.source for x in b1.line_loads}
+
+
+# -- partial live loading (ASCE 7-16 §4.3.3) --------------------------------------
+
+
+def test_live_patterns_cover_every_proper_subset_up_to_four_regions():
+    from ifccheck.loads.combinations import live_patterns
+
+    assert live_patterns(1) == []
+    assert sorted(live_patterns(2)) == [(0,), (1,)]
+    assert len(live_patterns(4)) == 2**4 - 2
+    many = live_patterns(6)
+    assert (0, 2, 4) in many and (1, 3, 5) in many and (2, 3) in many
+
+
+def test_overhanging_beam_live_load_on_one_region_at_a_time():
+    # AISC Manual Table 3-23 (from memory): uniform load on the backspan only of
+    # an overhanging beam gives the simple-span wL²/8; on the overhang only,
+    # the hogging moment at the support is w·a²/2.
+    import numpy as np
+
+    from ifccheck.loads.demand import _live_by_region, region_labels
+    from ifccheck.loads.statics import BeamProblem, LineLoad, analyse_beams, spans_of
+
+    span, a, w = 9.144, 2.438, 10_000.0
+    length = span + a
+    regions = spans_of(np.array([0.0, span]), length)
+    assert region_labels(regions) == ["span 1", "overhang"]
+    cases = _live_by_region([LineLoad(w, 0.0, length)], [], regions)
+    (res,) = analyse_beams([BeamProblem(length, [0.0, span], cases, EI=1e8)])
+    back = res.combine({"L@0": 1.0})
+    over = res.combine({"L@1": 1.0})
+    assert float(np.max(back.M)) == pytest.approx(w * span**2 / 8, rel=1e-6)
+    assert float(np.min(over.M)) == pytest.approx(-w * a**2 / 2, rel=1e-6)
+    both = res.combine({"L@0": 1.0, "L@1": 1.0})
+    assert float(np.max(both.M)) < float(np.max(back.M))  # the pattern governs sagging

@@ -75,3 +75,51 @@ def governing(
         raise ValueError("one effect per combination is needed")
     best = max(range(len(effects)), key=lambda i: (abs(effects[i]), -i))
     return combinations[best], abs(effects[best])
+
+
+def live_patterns(regions: int) -> list[tuple[int, ...]]:
+    """Sets of loaded regions (spans and overhangs) for partial live loading.
+
+    ASCE 7-16 §4.3.3: live load on only part of a member counts where it is
+    more unfavourable. Up to four regions every proper subset is tried; beyond
+    that single regions, adjacent pairs and alternate regions (common practice:
+    these produce the extreme moments of continuous beams).
+    """
+    if regions < 2:
+        return []
+    if regions <= 4:
+        return [
+            tuple(k for k in range(regions) if mask >> k & 1)
+            for mask in range(1, (1 << regions) - 1)
+        ]
+    sets = {(k,) for k in range(regions)}
+    sets |= {(k, k + 1) for k in range(regions - 1)}
+    sets |= {tuple(range(0, regions, 2)), tuple(range(1, regions, 2))}
+    return sorted(sets)
+
+
+def patterned(
+    combo: Combination,
+    patterns: Sequence[tuple[int, ...]],
+    labels: Sequence[str] | None = None,
+) -> list[Combination]:
+    """``combo`` with its live load on each pattern of regions (cases "L@k").
+
+    ``labels`` name the regions in the combination's name ("span 1", "overhang").
+    """
+    if "L" not in combo.factors:
+        return []
+    out = []
+    for loaded in patterns:
+        factors = {c: f for c, f in combo.factors.items() if c != "L"}
+        factors.update({f"L@{k}": combo.factors["L"] for k in loaded})
+        where = ", ".join(labels[k] if labels else f"part {k + 1}" for k in loaded)
+        out.append(
+            Combination(
+                f"{combo.name} (L on {where})",
+                factors,
+                combo.purpose,
+                f"{combo.source}; ASCE 7-16 §4.3.3 partial loading",
+            )
+        )
+    return out

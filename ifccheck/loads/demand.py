@@ -38,6 +38,8 @@ from ifccheck.loads.combinations import (
     TOTAL_DEFLECTION,
     Combination,
     governing,
+    live_patterns,
+    patterned,
     strength_combinations,
 )
 from ifccheck.loads.statics import (
@@ -50,6 +52,7 @@ from ifccheck.loads.statics import (
     UnstableBeamError,
     analyse_beams,
     gc_paused,
+    spans_of,
 )
 from ifccheck.loads.tributary import DeckSpan, Tributary, compute_tributary
 from ifccheck.model import Member, Model, Slab
@@ -108,6 +111,8 @@ class BeamDemand:
     supports: list[SupportReaction] = field(default_factory=list)
     analysis: BeamAnalysis | None = None
     combinations: tuple[Combination, ...] = ()
+    # service combinations, with live-load patterns where the beam has several regions
+    service: tuple[Combination, ...] = SERVICE
     governing_moment: str = ""
     governing_shear: str = ""
     max_moment: float = 0.0  # N·m, |M| of the governing combination
@@ -132,7 +137,7 @@ class BeamDemand:
             raise ValueError(f"{self.guid}: no diagram ({self.reason or 'demand from analysis'})")
         if isinstance(combination, Combination):
             return self.analysis.combine(combination.factors)
-        for c in (*self.combinations, *SERVICE):
+        for c in (*self.combinations, *self.service):
             if c.name == combination:
                 return self.analysis.combine(c.factors)
         if combination in self.analysis.cases:
@@ -395,6 +400,17 @@ def _compute_demand(
             for y in bd.point_loads:
                 point[y.case].append(PointLoad(y.P, y.station))
             cases = {c: CaseLoads(tuple(line[c]), tuple(point[c])) for c in CASES}
+            regions = spans_of(np.array(sorted(s.station for s in bd.supports)), lines[g].length)
+            patterns = live_patterns(len(regions)) if len(bd.supports) >= 2 else []
+            if patterns:
+                cases.update(_live_by_region(line["L"], point["L"], regions))
+                labels = region_labels(regions)
+                bd.combinations = (
+                    *combos, *(p for c in combos for p in patterned(c, patterns, labels))
+                )  # fmt: skip
+                bd.service = (
+                    *SERVICE, *(p for c in SERVICE for p in patterned(c, patterns, labels))
+                )  # fmt: skip
             fr = framing.members[g]
             extra = {b.station for b in fr.brace_points}
             extra |= {x for iv in fr.continuous_bracing for x in iv}
@@ -417,8 +433,17 @@ def _compute_demand(
             bd.analysis = res
             bd.source = "computed"
             _deliver(bd, res, lines, result, incoming, framing)
-            mo, sh = res.maxima if res.maxima is not None else res.combination_maxima(factors)
-            (cm, bd.max_moment), (cs, bd.max_shear) = governing(combos, mo), governing(combos, sh)
+            own_combos = bd.combinations
+            if len(own_combos) != len(combos):
+                mo, sh = res.combination_maxima([c.factors for c in own_combos])
+            elif res.maxima is not None:
+                mo, sh = res.maxima
+            else:
+                mo, sh = res.combination_maxima(factors)
+            (cm, bd.max_moment), (cs, bd.max_shear) = (
+                governing(own_combos, mo),
+                governing(own_combos, sh),
+            )
             bd.governing_moment, bd.governing_shear = cm.name, cs.name
             bd.computed_governing = (cm.name, cs.name)
 
@@ -431,6 +456,32 @@ def _compute_demand(
     if overrides:
         _apply_overrides(result, overrides)
     return result
+
+
+def region_labels(regions: list[tuple[float, float, str]]) -> list[str]:
+    """Readable names of a beam's regions: "span 1", "span 2", "overhang"..."""
+    spans = iter(range(1, len(regions) + 1))
+    out = []
+    for _a, _b, kind in regions:
+        out.append(f"span {next(spans)}" if kind == "span" else "overhang")
+    return out
+
+
+def _live_by_region(
+    line: list[LineLoad], point: list[PointLoad], regions: list[tuple[float, float, str]]
+) -> dict[str, CaseLoads]:
+    """The live load split into one case per span or overhang ("L@k")."""
+    out: dict[str, CaseLoads] = {}
+    last = len(regions) - 1
+    for k, (a, b, _kind) in enumerate(regions):
+        parts = tuple(
+            LineLoad(x.w, max(x.start, a), min(x.end, b))
+            for x in line
+            if min(x.end, b) > max(x.start, a)
+        )
+        points = tuple(y for y in point if a <= y.station < b or (k == last and y.station >= b))
+        out[f"L@{k}"] = CaseLoads(parts, points)
+    return out
 
 
 def _deliver(
@@ -463,6 +514,8 @@ def _deliver(
             sup = fsup[(receiver.station, receiver.by)]
             st = _host_station(framing, carried, bd.guid, sup, lines[receiver.by])
         for ci, c in enumerate(res.cases):
+            if c not in CASES:
+                continue  # live-load patterns (L@k) are for this beam's own check only
             R = float(res.reactions[ci, j])
             receiver.reactions[c] = R
             for s in group[1:]:

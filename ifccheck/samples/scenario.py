@@ -105,7 +105,7 @@ def quillfeather(revision: str) -> ModelAuthor:
 
     # Balcony: continuous over column (90, 30), 8 ft overhang, with kickers
     # from its bottom flange up to the slab-braced infill beams either side.
-    balcony_beam = w_shape("W21X50")
+    balcony_beam = w_shape("W24X55")
     a.beam(
         LEVEL2, (60.0, 30.0, 0.0), (BALCONY_TIP, 30.0, 0.0), balcony_beam, key="L2:balcony",
         name="L2-BALCONY", cardinal_point=8,
