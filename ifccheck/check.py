@@ -22,7 +22,7 @@ import numpy as np
 from ifccheck import CAUTION, __version__
 from ifccheck.config import Settings, settings_to_dict
 from ifccheck.design import get_standard
-from ifccheck.design.base import DesignStandard, OutOfScopeError
+from ifccheck.design.base import DesignStandard, OutOfScopeError, segment_moments
 from ifccheck.framing import analyse_framing
 from ifccheck.framing.types import Framing, MemberFraming
 from ifccheck.ifc.reader import read_model
@@ -350,8 +350,6 @@ def _segment_demands(
 
     ``either_flange`` takes the largest |M| for both flanges (sign unknown).
     """
-    from ifccheck.design.aisc360 import segment_moments
-
     # node stations appear twice and may differ by rounding: keep them monotone
     x = np.maximum.accumulate(np.asarray(d.x, dtype=float))
     moment = np.asarray(d.M, dtype=float)

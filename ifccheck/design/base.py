@@ -191,6 +191,43 @@ def available_standards() -> list[str]:
     return [factory().name for factory in _REGISTRY.values()]
 
 
+# Moment diagram sampling, common to every standard.
+
+
+def segment_moments(
+    x: ArrayLike, m: ArrayLike, start: ArrayLike, end: ArrayLike
+) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray]:
+    """(|Mmax|, |MA|, |MB|, |MC|) of each segment [start, end] of a sampled diagram.
+
+    ``x`` (increasing) and ``m`` sample the moment diagram of one member;
+    ``start``/``end`` are arrays of segment ends. Mmax is taken over the
+    samples inside the segment and the interpolated ends and quarter points.
+    """
+    xs = np.asarray(x, dtype=float)
+    am = np.abs(np.asarray(m, dtype=float))
+    s = np.atleast_1d(np.asarray(start, dtype=float))
+    e = np.atleast_1d(np.asarray(end, dtype=float))
+    if xs.ndim != 1 or xs.shape != am.shape or xs.size < 2:
+        raise ValueError("x and M must be 1-D arrays of the same length (at least 2)")
+    if np.any(np.diff(xs) < 0.0):
+        raise ValueError("x must be increasing")
+    if np.any(e < s):
+        raise ValueError("segment end before its start")
+    span = e - s
+    quarter = [np.interp(s + f * span, xs, am) for f in (0.25, 0.5, 0.75)]
+    ends = np.maximum(np.interp(s, xs, am), np.interp(e, xs, am))
+    # Largest sample strictly inside each segment: reduceat over [i0, i1).
+    i0 = np.searchsorted(xs, s, side="left")
+    i1 = np.searchsorted(xs, e, side="right")
+    padded = np.append(am, 0.0)
+    bounds = np.empty(2 * s.size, dtype=np.intp)
+    bounds[0::2], bounds[1::2] = i0, i1
+    inner = np.maximum.reduceat(padded, bounds)[0::2]
+    inner = np.where(i1 > i0, inner, 0.0)
+    m_max = np.maximum.reduce([inner, ends, *quarter])
+    return m_max, quarter[0], quarter[1], quarter[2]
+
+
 # Deflection (serviceability) helpers, common to every standard.
 
 

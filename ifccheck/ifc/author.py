@@ -11,7 +11,6 @@ IfcMaterialProfileSetUsage names the profile point that lies on the axis.
 from __future__ import annotations
 
 import hashlib
-import time
 import uuid
 from collections.abc import Sequence
 from dataclasses import dataclass
@@ -487,7 +486,3 @@ class ModelAuthor:
         header.originating_system = "ifccheck"
         self.f.write(str(path))
         return path
-
-
-def now_stamp() -> str:
-    return time.strftime("%Y-%m-%dT%H:%M:%S")

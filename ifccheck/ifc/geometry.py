@@ -49,11 +49,6 @@ class PlacementCache:
         return self.local(getattr(element, "ObjectPlacement", None))
 
 
-def object_matrix(element: Entity, cache: PlacementCache | None = None) -> np.ndarray:
-    """Global 4×4 matrix of an element's (nested) object placement."""
-    return (cache or PlacementCache()).of(element)
-
-
 def _unit(v: tuple[float, ...]) -> tuple[float, float, float]:
     x, y, z = (*tuple(v), 0.0, 0.0, 0.0)[:3]
     n = math.sqrt(x * x + y * y + z * z)
