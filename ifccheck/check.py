@@ -22,7 +22,8 @@ import numpy as np
 from ifccheck import CAUTION, __version__
 from ifccheck.config import Settings, settings_to_dict
 from ifccheck.design import get_standard
-from ifccheck.design.base import DesignStandard, OutOfScopeError, segment_moments
+from ifccheck.design.base import DesignStandard, segment_moments
+from ifccheck.errors import OutOfScope
 from ifccheck.framing import analyse_framing
 from ifccheck.framing.types import Framing, MemberFraming
 from ifccheck.ifc.reader import read_model
@@ -419,7 +420,7 @@ def _shear(
     assert m.section is not None and m.steel is not None
     try:
         res = standard.shear(m.section, m.steel, method)
-    except OutOfScopeError as exc:
+    except OutOfScope as exc:
         out.notes.append(f"shear not checked: {exc}")
         return
     out.shear_demand = float(bd.max_shear)

@@ -12,7 +12,8 @@ from dataclasses import asdict, dataclass, field
 from pathlib import Path
 from typing import Any
 
-from ifccheck.units import QuantityError, parse_quantity
+from ifccheck.errors import QuantityError, SettingsError
+from ifccheck.units import parse_quantity
 
 
 @dataclass
@@ -78,10 +79,6 @@ class Settings:
 # --------------------------------------------------------------------------
 # TOML loading and validation
 # --------------------------------------------------------------------------
-
-
-class SettingsError(ValueError):
-    """A settings file or value that cannot be used; the message names the key."""
 
 
 def load_settings(path: Path | None) -> Settings:

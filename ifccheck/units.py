@@ -14,6 +14,8 @@ from typing import Literal
 
 import pint
 
+from ifccheck.errors import QuantityError
+
 ureg = pint.UnitRegistry()
 # Trade abbreviations pint does not define: pounds-force per square foot and
 # pounds (mass) per cubic foot.
@@ -40,10 +42,6 @@ _DIMENSIONS: dict[str, str] = {
 }
 
 _ARTICLE = {"angle": "an angle", "area": "an area"}
-
-
-class QuantityError(ValueError):
-    """Text that is not a quantity of the expected dimension."""
 
 
 _NUMBER_FIRST = re.compile(r"^[-+]?(\d|\.\d)")

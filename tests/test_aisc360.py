@@ -9,7 +9,7 @@ import pytest
 
 from ifccheck.design import (
     DesignStandard,
-    OutOfScopeError,
+    OutOfScope,
     allowable_deflection,
     available_standards,
     deflection_limits,
@@ -331,7 +331,7 @@ def test_scope_of_other_families(name: str, clause: str) -> None:
     s = _w(name)
     reason = scope(s)
     assert f"AISC 360-16 {clause}" in reason
-    with pytest.raises(OutOfScopeError, match=clause):
+    with pytest.raises(OutOfScope, match=clause):
         flexure(s, A992, [1.0])
 
 
@@ -346,7 +346,7 @@ def test_scope_of_webs() -> None:
     assert scope(noncompact) == ""  # without a steel, only the family is checked
     assert scope(_w("W24X84"), A992) == ""
     assert scope(_w("C15X50"), A992) == ""
-    with pytest.raises(OutOfScopeError, match="F4"):
+    with pytest.raises(OutOfScope, match="F4"):
         flexure(noncompact, steel, [1.0])
 
 
@@ -442,7 +442,7 @@ def test_shear_cv1_g2_4_and_channels() -> None:
     assert r.factor == 0.9
     c = shear(_w("C15X50"), A992)  # channels: G2.1(b)
     assert c.clause == "AISC 360-16 G2.1(b)" and c.factor == 0.9 and c.cv1 == 1.0
-    with pytest.raises(OutOfScopeError):
+    with pytest.raises(OutOfScope):
         shear(_w("HSS6X6X1/2"), A992)
 
 
@@ -487,7 +487,7 @@ def test_flexure_segments_whole_model() -> None:
         one = flexure(s, g, lb[sel], cb[sel])
         np.testing.assert_allclose(whole.design_strength[sel], one.design_strength)
         assert list(whole.limit_state[sel]) == list(one.limit_state)
-    with pytest.raises(OutOfScopeError, match="F7"):
+    with pytest.raises(OutOfScope, match="F7"):
         flexure_segments([(_w("HSS6X6X1/2"), A992)], [0], [1.0])
 
 

@@ -99,9 +99,12 @@ def test_model_file_names():
 
 
 def test_one_line_messages():
-    class ModelError(Exception):
+    from ifccheck.errors import ModelError
+
+    class LookAlike(Exception):  # errors are told apart by class, never by name
         pass
 
+    assert one_line(LookAlike("x")) == "internal error: LookAlike: x"
     assert one_line(
         ModelError("/srv/d/jobs/x/input/a.ifc: truncated\nmore"), "/srv/d/jobs/x/input"
     ) == ("a.ifc: truncated more")
@@ -201,18 +204,18 @@ def test_restart_takes_up_interrupted_jobs(tmp_path):
 def test_token_commands(tmp_path):
     from click.testing import CliRunner
 
-    from ifccheck.service_cli import serve, token
+    from ifccheck.cli import main
 
     runner = CliRunner()
     data = str(tmp_path / "d")
-    made = runner.invoke(token, ["create", "ci", "--data", data])
+    made = runner.invoke(main, ["token", "create", "ci", "--data", data])
     assert made.exit_code == 0
     assert parse_token(made.output.strip().splitlines()[-1]) is not None
-    assert "ci\t" in runner.invoke(token, ["list", "--data", data]).output
-    again = runner.invoke(token, ["create", "ci", "--data", data])
+    assert "ci\t" in runner.invoke(main, ["token", "list", "--data", data]).output
+    again = runner.invoke(main, ["token", "create", "ci", "--data", data])
     assert again.exit_code == 2 and "already exists" in again.output
-    assert runner.invoke(token, ["revoke", "ci", "--data", data]).exit_code == 0
-    gone = runner.invoke(token, ["revoke", "ci", "--data", data])
+    assert runner.invoke(main, ["token", "revoke", "ci", "--data", data]).exit_code == 0
+    gone = runner.invoke(main, ["token", "revoke", "ci", "--data", data])
     assert gone.exit_code == 2 and "no active token" in gone.output
-    bad = runner.invoke(serve, ["--max-upload", "lots", "--data", data])
+    bad = runner.invoke(main, ["serve", "--max-upload", "lots", "--data", data])
     assert bad.exit_code == 2 and "not a size" in bad.output

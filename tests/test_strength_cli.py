@@ -9,19 +9,11 @@ import pytest
 from click.testing import CliRunner
 
 from ifccheck import CAUTION
-from ifccheck.strength_cli import strength
+from ifccheck.cli import main as cli
 
 FT = 0.3048
 KIP_FT = 4448.2216152605 * FT  # N·m
 KSI = 6.894757293168361e6
-
-
-@click.group()
-def cli() -> None:
-    """Stand-in group, as the real CLI registers the command."""
-
-
-cli.add_command(strength)
 
 
 def run(*args: str) -> click.testing.Result:
@@ -146,6 +138,6 @@ def test_errors_are_one_line_exit_2(args: list[str], message: str) -> None:
     assert res.exception is None or isinstance(res.exception, SystemExit)
     lines = [line for line in res.output.splitlines() if line.strip()]
     assert len(lines) == 1, res.output
-    assert lines[0].startswith("Error: ")
+    assert lines[0].startswith("ifccheck: error: ")
     assert message in lines[0]
     assert "Traceback" not in res.output

@@ -4,7 +4,6 @@ from ifccheck.design import aisc360
 from ifccheck.design.base import (
     DesignStandard,
     FlexureResult,
-    OutOfScopeError,
     ShearResult,
     StrengthCurve,
     allowable_deflection,
@@ -15,11 +14,12 @@ from ifccheck.design.base import (
     get_standard,
     register_standard,
 )
+from ifccheck.errors import OutOfScope
 
 __all__ = [
     "DesignStandard",
     "FlexureResult",
-    "OutOfScopeError",
+    "OutOfScope",
     "ShearResult",
     "StrengthCurve",
     "aisc360",

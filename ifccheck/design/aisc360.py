@@ -20,12 +20,12 @@ from ifccheck.design.base import (
     FlexureResult,
     FloatArray,
     Method,
-    OutOfScopeError,
     ShearResult,
     check_method,
     register_standard,
     segment_moments,
 )
+from ifccheck.errors import OutOfScope
 from ifccheck.model import Section, ShapeFamily, Steel
 from ifccheck.sections.classify import classify_flexure
 from ifccheck.sections.table import SOURCE as TABLE_SOURCE
@@ -254,7 +254,7 @@ def flexure(
     """F2/F3 flexural strength of one section for arrays of Lb and Cb."""
     reason = scope(section, steel)
     if reason:
-        raise OutOfScopeError(f"{section.name}: {reason}")
+        raise OutOfScope(f"{section.name}: {reason}")
     return flexure_arrays(**_properties(section, steel), Lb=lb, Cb=cb, method=method)
 
 
@@ -269,11 +269,11 @@ def flexure_segments(
 
     ``pairs`` are the distinct (section, steel) combinations, ``index`` gives
     for each segment the position of its pair; ``lb`` and ``cb`` are per
-    segment. OutOfScopeError names every pair that F2/F3 do not cover.
+    segment. OutOfScope names every pair that F2/F3 do not cover.
     """
     problems = [f"{s.name} ({g.grade}): {r}" for s, g in pairs if (r := scope(s, g))]
     if problems:
-        raise OutOfScopeError("; ".join(problems))
+        raise OutOfScope("; ".join(problems))
     if not pairs:
         raise ValueError("no (section, steel) pairs given")
     m = check_method(method)
@@ -367,7 +367,7 @@ def shear(
 ) -> ShearResult:
     """Web shear strength of an I-shape or channel, G2.1 (rolled inferred when None)."""
     if section.family not in (ShapeFamily.I_SHAPE, ShapeFamily.CHANNEL):
-        raise OutOfScopeError(
+        raise OutOfScope(
             f"{section.name}: shear of this family (AISC 360-16 G3–G5) not implemented"
         )
     rolled_i = section.family is ShapeFamily.I_SHAPE and (

@@ -22,10 +22,6 @@ Method = Literal["LRFD", "ASD"]
 FloatArray = NDArray[np.float64]
 
 
-class OutOfScopeError(ValueError):
-    """The section or case is not covered by the implemented clauses."""
-
-
 def check_method(method: str) -> Method:
     """Normalise 'lrfd'/'asd' to 'LRFD'/'ASD'; ValueError otherwise."""
     m = method.strip().upper()
@@ -95,7 +91,7 @@ class DesignStandard(ABC):
         cb: ArrayLike = 1.0,
         method: str = "LRFD",
     ) -> FlexureResult:
-        """Major-axis flexural strength for each (Lb, Cb); OutOfScopeError if not covered."""
+        """Major-axis flexural strength for each (Lb, Cb); OutOfScope if not covered."""
 
     @abstractmethod
     def shear(self, section: Section, steel: Steel, method: str = "LRFD") -> ShearResult:

@@ -20,6 +20,7 @@ import numpy as np
 from shapely.geometry import MultiPolygon, Polygon
 from shapely.ops import unary_union
 
+from ifccheck.errors import ModelError
 from ifccheck.ifc import geometry as geo
 from ifccheck.ifc.author import cardinal_offset
 from ifccheck.ifc.profiles import (
@@ -49,10 +50,6 @@ WALL_CLASSES = ("IfcWall",)
 BRACE_TYPES = {"BRACE", "KICKER", "KNEEBRACE", "KNEE_BRACE"}
 STRUT_TYPES = {"STRUT", "TIE", "TIEROD", "TIE_ROD"}
 BEAMLIKE_MEMBER_TYPES = {"PURLIN", "RAFTER", "STRINGER", "JOIST", "GIRT"}
-
-
-class ModelError(Exception):
-    """The file cannot be read as a model; the message is one line for the user."""
 
 
 def open_ifc(path: str | Path) -> ifcopenshell.file:

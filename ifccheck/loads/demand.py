@@ -31,6 +31,7 @@ import networkx as nx
 import numpy as np
 
 from ifccheck.config import Settings, StoreyLoads
+from ifccheck.errors import DemandFileError, QuantityError
 from ifccheck.framing.types import Framing, Support
 from ifccheck.loads.combinations import (
     LIVE_DEFLECTION,
@@ -57,7 +58,7 @@ from ifccheck.loads.statics import (
 from ifccheck.loads.tributary import DeckSpan, Tributary, compute_tributary
 from ifccheck.model import Member, Model, Slab
 from ifccheck.results import DemandOut, LineLoadOut, PointLoadOut
-from ifccheck.units import G, QuantityError, parse_quantity
+from ifccheck.units import G, parse_quantity
 
 CASES = ("D", "L")
 
@@ -192,10 +193,6 @@ class DemandResult:
     support_reactions: dict[str, dict[str, float]]
     method: str
     warnings: list[tuple[str, str]] = field(default_factory=list)
-
-
-class DemandFileError(ValueError):
-    """A demand CSV that cannot be read; the message is one line."""
 
 
 def _pressures(settings: Settings, storey: str, slab: Slab | None) -> tuple[float, float]:

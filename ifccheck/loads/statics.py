@@ -33,6 +33,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ifccheck.errors import UnstableBeamError
+
 # Nodes closer than this fraction of L are one node; supports closer than
 # SUPPORT_MERGE × L (plus 1 mm) are one support.
 NODE_MERGE = 1e-9
@@ -55,10 +57,6 @@ def gc_paused() -> Iterator[None]:
     finally:
         if was:
             gc.enable()
-
-
-class UnstableBeamError(ValueError):
-    """The beam is a mechanism on its supports (fewer than two of them)."""
 
 
 @dataclass(frozen=True)

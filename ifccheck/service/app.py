@@ -371,8 +371,9 @@ def create_app(config: ServiceConfig, runner: Runner | None = None) -> FastAPI:
 
 def _validate(upload: Upload, staging: Path, config: ServiceConfig) -> dict[str, str | None]:
     """Check the form's fields and small files before a job is made; raises UploadError."""
-    from ifccheck.config import SettingsError, load_settings
-    from ifccheck.loads.demand import DemandFileError, load_demand_csv
+    from ifccheck.config import load_settings
+    from ifccheck.errors import DemandFileError, SettingsError
+    from ifccheck.loads.demand import load_demand_csv
 
     out: dict[str, str | None] = {}
     key = upload.fields.get("model_key", "").strip()

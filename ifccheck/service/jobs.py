@@ -24,6 +24,8 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
+from ifccheck.errors import IfccheckError
+
 # report keys of write_all / write_diff_all → the names the API serves
 CHECK_FILES = {
     "json": "results.json",
@@ -61,17 +63,20 @@ class JobSpec:
     previous_dir: str | None = None  # that job's directory
 
 
-class JobError(Exception):
+class JobError(IfccheckError):
     """A job that cannot finish; the message is one line for the user."""
 
 
 def one_line(exc: BaseException, strip: str | None = None) -> str:
-    """A one-line message for an exception, without server paths."""
+    """A one-line message for an exception, without server paths.
+
+    The tool's own errors (bad input, out of scope, a job that cannot finish)
+    are told as they are; anything else is an internal error.
+    """
     text = " ".join(str(exc).split())
     if strip:
         text = text.replace(strip.rstrip("/") + "/", "").replace(strip, "")
-    known = ("ModelError", "SettingsError", "DemandFileError", "JobError")
-    if type(exc).__name__ in known:
+    if isinstance(exc, IfccheckError):
         return text or type(exc).__name__
     return f"internal error: {type(exc).__name__}" + (f": {text}" if text else "")
 

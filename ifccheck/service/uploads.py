@@ -17,6 +17,8 @@ from typing import BinaryIO
 from python_multipart.multipart import MultipartParseError, MultipartParser, parse_options_header
 from starlette.requests import Request
 
+from ifccheck.errors import InputError
+
 FILE_FIELDS = {"model": None, "settings": "settings.toml", "demands": "demands.csv"}
 TEXT_FIELDS = {"model_key": 200, "units": 20, "callback_url": 2048}  # longest accepted value
 STEP_HEADER = b"ISO-10303-21;"
@@ -25,7 +27,7 @@ _HEAD_LIMIT = 4096  # bytes of a model read before its header must have appeared
 OVERHEAD = 1 << 20  # multipart framing and text fields allowed beyond the file cap
 
 
-class UploadError(Exception):
+class UploadError(InputError):
     """An upload refused with an HTTP status and a one-line reason."""
 
     def __init__(self, status: int, message: str) -> None:

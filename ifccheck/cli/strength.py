@@ -24,6 +24,7 @@ import click
 from ifccheck import CAUTION
 from ifccheck.design.aisc360 import AISC360, flexure, scope, shear
 from ifccheck.design.base import check_method
+from ifccheck.errors import UsageError
 from ifccheck.model import Section, Steel
 from ifccheck.sections import (
     channel_from_dimensions,
@@ -42,12 +43,6 @@ KSI = 6.894757293168361e6
 IMPERIAL_LENGTHS = {"foot", "inch", "yard", "mile"}
 
 
-class InputError(click.ClickException):
-    """Bad input: one line on stderr, exit code 2."""
-
-    exit_code = 2
-
-
 @cache
 def _ureg() -> Any:
     import pint
@@ -63,12 +58,12 @@ def _quantity(text: str, dimension: str, what: str) -> tuple[float, str]:
     try:
         q = ureg.Quantity(text.strip())
     except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
-        raise InputError(f"{what}: cannot read {text!r} as a quantity ({exc})") from None
+        raise UsageError(f"{what}: cannot read {text!r} as a quantity ({exc})") from None
     if not isinstance(q, ureg.Quantity) or q.dimensionless:
         example = "'10 ft', '3.05 m'" if dimension == "[length]" else "'50 ksi', '345 MPa'"
-        raise InputError(f"{what}: {text!r} needs a unit, e.g. {example}")
+        raise UsageError(f"{what}: {text!r} needs a unit, e.g. {example}")
     if not q.check(dimension):
-        raise InputError(f"{what}: {text!r} is not a {dimension.strip('[]')}")
+        raise UsageError(f"{what}: {text!r} is not a {dimension.strip('[]')}")
     unit = str(next(iter(q.unit_items()))[0]) if q.unit_items() else ""
     return float(q.to_base_units().magnitude), unit
 
@@ -96,16 +91,16 @@ def _dimension_section(text: str) -> Section | None:
         rest = spec[head.end() :]
         pairs = _KEYWORD.findall(rest)
         if not pairs or _KEYWORD.sub("", rest).strip():
-            raise InputError(f"shape: cannot read dimensions in {text!r} (e.g. 'I d=300mm ...')")
+            raise UsageError(f"shape: cannot read dimensions in {text!r} (e.g. 'I d=300mm ...')")
         dims = {k: _quantity(v, "[length]", f"shape {k}")[0] for k, v in pairs}
         missing = [k for k in ("d", "bf", "tw", "tf") if k not in dims]
         if missing:
-            raise InputError(f"shape: missing {', '.join(missing)} in {text!r}")
+            raise UsageError(f"shape: missing {', '.join(missing)} in {text!r}")
     build = i_section_from_dimensions if kind == "I" else channel_from_dimensions
     try:
         return build(re.sub(r"\s+", " ", spec), **dims)
     except ValueError as exc:
-        raise InputError(f"shape: {exc}") from None
+        raise UsageError(f"shape: {exc}") from None
 
 
 def _section(shape: str) -> Section:
@@ -113,7 +108,7 @@ def _section(shape: str) -> Section:
     if section is None:
         section = _dimension_section(shape)
     if section is None:
-        raise InputError(
+        raise UsageError(
             f"unknown shape {shape!r}: not in the AISC Shapes Database v16.0 and not a "
             "dimension spec such as 'I:300x150x7.1x10.7x15mm'"
         )
@@ -122,16 +117,16 @@ def _section(shape: str) -> Section:
 
 def _steel(section: Section, grade: str | None, fy_text: str | None) -> Steel:
     if grade and fy_text:
-        raise InputError("give either --grade or --fy, not both")
+        raise UsageError("give either --grade or --fy, not both")
     if fy_text:
         fy, _ = _quantity(fy_text, "[pressure]", "--fy")
         if fy <= 0.0:
-            raise InputError("--fy must be positive")
+            raise UsageError("--fy must be positive")
         return steel_from_yield(fy, f"Fy {fy_text.strip()}")
     if grade:
         steel = steel_from_name(grade, max(section.tf, section.tw))
         if steel is None:
-            raise InputError(f"unknown grade {grade!r}; known: {', '.join(known_grades())}")
+            raise UsageError(f"unknown grade {grade!r}; known: {', '.join(known_grades())}")
         return steel
     return default_steel("A992")
 
@@ -195,19 +190,19 @@ def strength(
     try:
         meth = check_method(method)
     except ValueError as exc:
-        raise InputError(str(exc)) from None
+        raise UsageError(str(exc)) from None
     if not (math.isfinite(cb) and cb > 0.0):
-        raise InputError("--cb must be a positive number")
+        raise UsageError("--cb must be a positive number")
     if points < 2:
-        raise InputError("--points must be at least 2")
+        raise UsageError("--points must be at least 2")
     lb, lb_unit = _quantity(lb_text, "[length]", "--lb")
     if lb < 0.0:
-        raise InputError("--lb must not be negative")
+        raise UsageError("--lb must not be negative")
     section = _section(shape)
     steel = _steel(section, grade, fy_text)
     reason = scope(section, steel)
     if reason:
-        raise InputError(f"{section.name}: {reason}")
+        raise UsageError(f"{section.name}: {reason}")
 
     r = flexure(section, steel, [lb], [cb], meth)
     v = shear(section, steel, meth)
@@ -285,4 +280,4 @@ def strength(
     click.echo("\n".join(lines))
 
 
-__all__ = ["InputError", "strength"]
+__all__ = ["strength"]

@@ -8,6 +8,7 @@ from pathlib import Path
 import click
 
 from ifccheck import CAUTION
+from ifccheck.errors import UsageError
 from ifccheck.service.settings import (
     DEFAULT_JOB_TIMEOUT,
     DEFAULT_WORKERS,
@@ -16,15 +17,6 @@ from ifccheck.service.settings import (
 )
 
 DEFAULT_DATA = "ifccheck-data"
-
-
-class _BadInput(click.ClickException):
-    """Bad input: one line on stderr, exit code 2 (as the other commands)."""
-
-    exit_code = 2
-
-    def show(self, file=None) -> None:
-        click.echo(f"ifccheck: error: {self.format_message()}", err=True)
 
 
 def _data_option(f):
@@ -104,7 +96,7 @@ def serve(
         try:
             import distributed  # noqa: F401
         except ImportError:
-            raise _BadInput("--scheduler needs the 'distributed' package") from None
+            raise UsageError("--scheduler needs the 'distributed' package") from None
     config = ServiceConfig(
         data_dir=Path(data_dir),
         workers=workers,
@@ -159,7 +151,7 @@ def token_create(name: str, data_dir: str) -> None:
     try:
         value = create_token(store, name)
     except ValueError as exc:
-        raise _BadInput(str(exc)) from None
+        raise UsageError(str(exc)) from None
     finally:
         store.close()
     click.echo(f"token {name!r} made; only its hash is stored, so copy it now:")
@@ -177,7 +169,7 @@ def token_revoke(name: str, data_dir: str) -> None:
     finally:
         store.close()
     if not n:
-        raise _BadInput(f"no active token named {name!r}")
+        raise UsageError(f"no active token named {name!r}")
     click.echo(f"token {name!r} revoked")
 
 

@@ -1,76 +1,15 @@
-"""Command-line interface.
-
-Exit codes: 0 all checked beams pass, 1 at least one fails (or regresses in
-a diff), 2 bad input or usage, 3 internal error. Messages are one line on
-stderr; set IFCCHECK_DEBUG=1 to see a traceback of an internal error.
-"""
+"""`ifccheck inspect`, `ifccheck check` and `ifccheck diff`: the model commands."""
 
 from __future__ import annotations
 
 import json
-import os
 import sys
 import time
 from pathlib import Path
 
 import click
 
-from ifccheck import CAUTION, __version__
-from ifccheck.service_cli import serve, token
-from ifccheck.strength_cli import strength
-
-EXIT_BAD_INPUT = 2
-EXIT_INTERNAL = 3
-
-
-class InputError(click.ClickException):
-    """Bad input: one line on stderr, exit code 2."""
-
-    exit_code = EXIT_BAD_INPUT
-
-    def show(self, file=None) -> None:
-        click.echo(f"ifccheck: error: {self.format_message()}", err=True)
-
-
-class _Group(click.Group):
-    """Turns every failure into a one-line message and a defined exit code."""
-
-    def main(self, *args, **kwargs):
-        kwargs.setdefault("standalone_mode", True)
-        try:
-            return super().main(*args, **kwargs)
-        except SystemExit:
-            raise
-        except Exception as exc:  # last line of defence: never a traceback
-            if os.environ.get("IFCCHECK_DEBUG"):
-                raise
-            msg = str(exc).strip().splitlines()[0] if str(exc).strip() else ""
-            click.echo(f"ifccheck: internal error: {type(exc).__name__}: {msg}", err=True)
-            sys.exit(EXIT_INTERNAL)
-
-    def invoke(self, ctx: click.Context):
-        from ifccheck.ifc.reader import ModelError
-
-        try:
-            return super().invoke(ctx)
-        except ModelError as exc:
-            raise InputError(str(exc)) from None
-        except click.UsageError as exc:
-            exc.exit_code = EXIT_BAD_INPUT
-            raise
-        except (ValueError, OSError) as exc:
-            if os.environ.get("IFCCHECK_DEBUG"):
-                raise
-            if type(exc).__name__ in ("SettingsError", "DemandFileError"):
-                raise InputError(str(exc)) from None
-            raise
-
-
-@click.group(cls=_Group, context_settings={"help_option_names": ["-h", "--help"]})
-@click.version_option(__version__, prog_name="ifccheck")
-def main() -> None:
-    """Check steel beams in IFC models for lateral-torsional buckling, with
-    brace points inferred from the framing itself."""
+from ifccheck import CAUTION
 
 
 def _read(path: str, default_grade: str = "A992"):
@@ -81,7 +20,7 @@ def _read(path: str, default_grade: str = "A992"):
     return model, time.perf_counter() - t0
 
 
-@main.command()
+@click.command()
 @click.argument("model_path", metavar="MODEL", type=click.Path(dir_okay=False))
 @click.option("--json", "as_json", is_flag=True, help="Write a JSON document to stdout.")
 @click.option(
@@ -194,7 +133,7 @@ def _output_options(command):
     return command
 
 
-@main.command()
+@click.command()
 @click.argument("model_path", metavar="MODEL", type=click.Path(dir_okay=False))
 @click.option(
     "--config",
@@ -230,7 +169,7 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
     sys.exit(1 if s["fail"] or s["not_checked"] else 0)
 
 
-@main.command()
+@click.command()
 @click.argument("old_path", metavar="OLD", type=click.Path(dir_okay=False))
 @click.argument("new_path", metavar="NEW", type=click.Path(dir_okay=False))
 @click.option(
@@ -278,12 +217,3 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     click.echo(f"diff written to {Path(out_dir)}: {names}")
     click.echo(CAUTION)
     sys.exit(1 if regressions else 0)
-
-
-main.add_command(strength)
-main.add_command(serve)
-main.add_command(token)
-
-
-if __name__ == "__main__":  # pragma: no cover
-    main(prog_name="ifccheck")
