@@ -220,10 +220,6 @@ class Model:
     warnings: list[tuple[str, str]] = field(default_factory=list)  # (guid, message)
     geometry_fallbacks: int = 0
 
-    @property
-    def imperial(self) -> bool:
-        return self.length_unit in {"foot", "inch", "yard", "mile"}
-
     def member(self, guid: str) -> Member:
         for m in self.members:
             if m.guid == guid:

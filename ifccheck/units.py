@@ -8,8 +8,10 @@ helpers turn SI floats back into text in "si" or "imperial" units.
 
 from __future__ import annotations
 
+import functools
 import math
 import re
+from dataclasses import dataclass
 from typing import Literal
 
 import pint
@@ -94,6 +96,16 @@ def parse_quantity(text: str, dimension: str) -> float:
     return value
 
 
+def unit_name(text: str) -> str:
+    """The name of the first unit in a quantity's text ('10 ft' → 'foot'); '' if none."""
+    try:
+        q = ureg.Quantity(_normalise(text))
+    except Exception:  # pint raises many kinds on bad text
+        return ""
+    items = list(getattr(q, "unit_items", lambda: [])())
+    return str(items[0][0]) if items else ""
+
+
 _EXAMPLE = {
     "length": "150 mm",
     "area": "10 m^2",
@@ -105,33 +117,77 @@ _EXAMPLE = {
     "density": "2400 kg/m^3",
 }
 
-# (SI unit, SI label, imperial unit, imperial label) per kind of value
-_DISPLAY: dict[str, tuple[str, str, str, str]] = {
-    "length": ("m", "m", "ft", "ft"),
-    "moment": ("kN*m", "kN·m", "kip*ft", "kip-ft"),
-    "force": ("kN", "kN", "kip", "kip"),
-    "stress": ("MPa", "MPa", "ksi", "ksi"),
-    "pressure": ("kPa", "kPa", "psf", "psf"),
-    "line load": ("kN/m", "kN/m", "klf", "kip/ft"),
+# -- unit systems and the one display table -------------------------------------
+
+SYSTEMS: tuple[UnitSystem, ...] = ("si", "imperial")
+_IMPERIAL_LENGTHS = frozenset({"foot", "feet", "ft", "inch", "inches", "in", "yard", "mile"})
+
+
+def system_for(length_unit: str) -> UnitSystem:
+    """The display system that follows a length unit's name ('foot' → imperial)."""
+    return "imperial" if length_unit.strip().lower() in _IMPERIAL_LENGTHS else "si"
+
+
+def check_system(system: str) -> UnitSystem:
+    """'si' or 'imperial'; ValueError for anything else."""
+    if system not in SYSTEMS:
+        raise ValueError(f"units must be 'si' or 'imperial', not {system!r}")
+    return system  # type: ignore[return-value]
+
+
+@dataclass(frozen=True)
+class _Display:
+    si_base: str  # pint unit of the internal SI value
+    si: tuple[str, str, str]  # (pint unit, label, column suffix)
+    imperial: tuple[str, str, str]
+
+
+# kind of value → how it is shown in each system (the only display table)
+_DISPLAY: dict[str, _Display] = {
+    "length": _Display("m", ("m", "m", "m"), ("ft", "ft", "ft")),
+    "deflection": _Display("m", ("mm", "mm", "mm"), ("inch", "in", "in")),
+    "thickness": _Display("m", ("mm", "mm", "mm"), ("inch", "in", "in")),
+    "area": _Display("m**2", ("m**2", "m²", "m2"), ("ft**2", "ft²", "ft2")),
+    "moment": _Display("N*m", ("kN*m", "kN·m", "kN_m"), ("kip*ft", "kip-ft", "kip_ft")),
+    "force": _Display("N", ("kN", "kN", "kN"), ("kip", "kip", "kip")),
+    "stress": _Display("Pa", ("MPa", "MPa", "MPa"), ("ksi", "ksi", "ksi")),
+    "pressure": _Display("Pa", ("kPa", "kPa", "kPa"), ("psf", "psf", "psf")),
+    "line load": _Display("N/m", ("kN/m", "kN/m", "kN_per_m"), ("kip/ft", "kip/ft", "kip_per_ft")),
+    "stiffness": _Display(
+        "N/m", ("kN/mm", "kN/mm", "kN_per_mm"), ("kip/inch", "kip/in", "kip_per_in")
+    ),
 }
 
-_SI_BASE = {
-    "length": "m",
-    "moment": "N*m",
-    "force": "N",
-    "stress": "Pa",
-    "pressure": "Pa",
-    "line load": "N/m",
-}
+
+def _entry(kind: str, system: UnitSystem) -> tuple[str, str, str]:
+    d = _DISPLAY[kind]
+    return d.si if check_system(system) == "si" else d.imperial
+
+
+@functools.cache
+def display_factor(kind: str, system: UnitSystem) -> float:
+    """Multiply an SI value of ``kind`` by this to get its value in ``system``'s display unit."""
+    return float(ureg.Quantity(1.0, _DISPLAY[kind].si_base).to(_entry(kind, system)[0]).magnitude)
+
+
+def display_label(kind: str, system: UnitSystem) -> str:
+    """'kN·m', 'kip-ft', …"""
+    return _entry(kind, system)[1]
+
+
+def display_suffix(kind: str, system: UnitSystem) -> str:
+    """The unit suffix of a CSV column: 'kN_m', 'kip_ft', …"""
+    return _entry(kind, system)[2]
 
 
 def convert(value: float, kind: str, system: UnitSystem) -> tuple[float, str]:
     """An SI value of ``kind`` in the display unit of ``system``: (number, unit label)."""
-    si_unit, si_label, imp_unit, imp_label = _DISPLAY[kind]
-    unit, label = (si_unit, si_label) if system == "si" else (imp_unit, imp_label)
-    if system not in ("si", "imperial"):
-        raise ValueError(f"unit system must be 'si' or 'imperial', not {system!r}")
-    return float(ureg.Quantity(value, _SI_BASE[kind]).to(unit).magnitude), label
+    return value * display_factor(kind, system), display_label(kind, system)
+
+
+def to_si(value: float, unit: str) -> float:
+    """A value in a named unit ('ksi', 'lb/ft', 'ft') in SI base units."""
+    return float(ureg.Quantity(value, unit).to_base_units().magnitude)
 
 
 def _format(value: float, kind: str, system: UnitSystem, digits: int) -> str:

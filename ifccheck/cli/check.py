@@ -10,6 +10,8 @@ from pathlib import Path
 import click
 
 from ifccheck import CAUTION
+from ifccheck.report.display import DisplayUnits
+from ifccheck.units import UnitSystem
 
 
 def _read(path: str, default_grade: str = "A992"):
@@ -45,7 +47,9 @@ def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool)
     if as_json:
         click.echo(json.dumps(inspect_document(model, seconds, framing, demand), indent=1))
     else:
-        click.echo(inspect_text(model, seconds, model.imperial, framing, demand))
+        click.echo(
+            inspect_text(model, seconds, DisplayUnits.for_model(model.length_unit), framing, demand)
+        )
 
 
 def _settings(config: str | None, method: str | None):
@@ -76,8 +80,8 @@ def _progress():
     return update
 
 
-def _units(units: str | None, model_imperial: bool) -> str:
-    return units or ("imperial" if model_imperial else "si")
+def _units(units: str | None, length_unit: str) -> UnitSystem:
+    return DisplayUnits.for_model(length_unit, units).system
 
 
 def _summary_line(result, units: str) -> str:
@@ -156,7 +160,7 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
 
     settings = _settings(config, method)
     result, model, _ = run_check(model_path, settings, demands, _progress())
-    chosen = _units(units, model.imperial)
+    chosen = _units(units, model.length_unit)
     written = write_all(result, Path(model_path), Path(out_dir), chosen)
     names = {m.guid: m.name or m.guid for m in model.members}
     for guid, message in result.warnings:
@@ -191,7 +195,7 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     settings = _settings(config, method)
     old, _, _ = run_check(old_path, settings)
     new, model, _ = run_check(new_path, settings)
-    chosen = _units(units, model.imperial)
+    chosen = _units(units, model.length_unit)
     result = diff_results(old, new, chosen)
     written = write_diff_all(result, Path(out_dir), chosen)
     regressions = result.regressions

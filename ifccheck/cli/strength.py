@@ -16,7 +16,6 @@ import json
 import math
 import re
 from dataclasses import dataclass
-from functools import cache
 from typing import Any
 
 import click
@@ -24,7 +23,7 @@ import click
 from ifccheck import CAUTION
 from ifccheck.design.aisc360 import AISC360, flexure, scope, shear
 from ifccheck.design.base import check_method
-from ifccheck.errors import UsageError
+from ifccheck.errors import QuantityError, UsageError
 from ifccheck.model import Section, Steel
 from ifccheck.sections import (
     channel_from_dimensions,
@@ -36,36 +35,24 @@ from ifccheck.sections import (
     steel_from_name,
     steel_from_yield,
 )
-
-N_PER_KIP = 4448.2216152605
-FT = 0.3048
-KSI = 6.894757293168361e6
-IMPERIAL_LENGTHS = {"foot", "inch", "yard", "mile"}
-
-
-@cache
-def _ureg() -> Any:
-    import pint
-
-    return pint.UnitRegistry()
+from ifccheck.units import (
+    UnitSystem,
+    convert,
+    display_factor,
+    display_label,
+    parse_quantity,
+    system_for,
+    unit_name,
+)
 
 
 def _quantity(text: str, dimension: str, what: str) -> tuple[float, str]:
     """(value in SI base units, unit name as written) of a quantity with a unit."""
-    import pint
-
-    ureg = _ureg()
     try:
-        q = ureg.Quantity(text.strip())
-    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
-        raise UsageError(f"{what}: cannot read {text!r} as a quantity ({exc})") from None
-    if not isinstance(q, ureg.Quantity) or q.dimensionless:
-        example = "'10 ft', '3.05 m'" if dimension == "[length]" else "'50 ksi', '345 MPa'"
-        raise UsageError(f"{what}: {text!r} needs a unit, e.g. {example}")
-    if not q.check(dimension):
-        raise UsageError(f"{what}: {text!r} is not a {dimension.strip('[]')}")
-    unit = str(next(iter(q.unit_items()))[0]) if q.unit_items() else ""
-    return float(q.to_base_units().magnitude), unit
+        value = parse_quantity(text, dimension)
+    except QuantityError as exc:
+        raise UsageError(f"{what}: {exc}") from None
+    return value, unit_name(text)
 
 
 _COMPACT = re.compile(
@@ -80,7 +67,7 @@ def _dimension_section(text: str) -> Section | None:
     m = _COMPACT.fullmatch(spec)
     if m:
         nums = [float(v) for v in re.split(r"\s*[xX×]\s*", m.group("nums"))]
-        scale, _ = _quantity(f"1 {m.group('unit')}", "[length]", "shape")
+        scale, _ = _quantity(f"1 {m.group('unit')}", "length", "shape")
         dims = dict(zip(("d", "bf", "tw", "tf", "r"), (v * scale for v in nums), strict=False))
         kind = m.group("kind")
     else:
@@ -92,7 +79,7 @@ def _dimension_section(text: str) -> Section | None:
         pairs = _KEYWORD.findall(rest)
         if not pairs or _KEYWORD.sub("", rest).strip():
             raise UsageError(f"shape: cannot read dimensions in {text!r} (e.g. 'I d=300mm ...')")
-        dims = {k: _quantity(v, "[length]", f"shape {k}")[0] for k, v in pairs}
+        dims = {k: _quantity(v, "length", f"shape {k}")[0] for k, v in pairs}
         missing = [k for k in ("d", "bf", "tw", "tf") if k not in dims]
         if missing:
             raise UsageError(f"shape: missing {', '.join(missing)} in {text!r}")
@@ -119,7 +106,7 @@ def _steel(section: Section, grade: str | None, fy_text: str | None) -> Steel:
     if grade and fy_text:
         raise UsageError("give either --grade or --fy, not both")
     if fy_text:
-        fy, _ = _quantity(fy_text, "[pressure]", "--fy")
+        fy, _ = _quantity(fy_text, "stress", "--fy")
         if fy <= 0.0:
             raise UsageError("--fy must be positive")
         return steel_from_yield(fy, f"Fy {fy_text.strip()}")
@@ -133,27 +120,17 @@ def _steel(section: Section, grade: str | None, fy_text: str | None) -> Steel:
 
 @dataclass(frozen=True)
 class _Units:
-    imperial: bool
-
-    @property
-    def length(self) -> tuple[str, float]:
-        return ("ft", FT) if self.imperial else ("m", 1.0)
-
-    @property
-    def moment(self) -> tuple[str, float]:
-        return ("kip-ft", N_PER_KIP * FT) if self.imperial else ("kN·m", 1e3)
-
-    @property
-    def force(self) -> tuple[str, float]:
-        return ("kips", N_PER_KIP) if self.imperial else ("kN", 1e3)
-
-    @property
-    def stress(self) -> tuple[str, float]:
-        return ("ksi", KSI) if self.imperial else ("MPa", 1e6)
+    system: UnitSystem
 
     def fmt(self, value: float, kind: str, digits: int = 1) -> str:
-        unit, scale = getattr(self, kind)
-        return f"{value / scale:,.{digits}f} {unit}"
+        number, label = convert(value, kind, self.system)
+        return f"{number:,.{digits}f} {label}"
+
+    def label(self, kind: str) -> str:
+        return display_label(kind, self.system)
+
+    def factor(self, kind: str) -> float:
+        return display_factor(kind, self.system)
 
 
 @click.command("strength")
@@ -195,7 +172,7 @@ def strength(
         raise UsageError("--cb must be a positive number")
     if points < 2:
         raise UsageError("--points must be at least 2")
-    lb, lb_unit = _quantity(lb_text, "[length]", "--lb")
+    lb, lb_unit = _quantity(lb_text, "length", "--lb")
     if lb < 0.0:
         raise UsageError("--lb must not be negative")
     section = _section(shape)
@@ -251,7 +228,7 @@ def strength(
         click.echo(json.dumps(out, indent=2))
         return
 
-    u = _Units(imperial=lb_unit in IMPERIAL_LENGTHS)
+    u = _Units(system_for(lb_unit))
     sym = "φMn" if meth == "LRFD" else "Mn/Ω"
     fac = f"φb = {r.factor:.2f}" if meth == "LRFD" else f"Ωb = {r.factor:.2f}"
     lines = [
@@ -270,12 +247,14 @@ def strength(
         f"  shear {u.fmt(v.design_strength, 'force')} ({v.clause})",
     ]
     if sampled is not None:
-        lunit = u.length[0]
-        munit = u.moment[0]
+        lunit = u.label("length")
+        munit = u.label("moment")
         lines.append(f"  strength curve, Cb = {cb:.2f}:")
         lines.append(f"    {'Lb (' + lunit + ')':>10}  {sym + ' (' + munit + ')':>16}  limit state")
         for x, y, s in zip(sampled.lb, sampled.design_strength, sampled.limit_state, strict=True):
-            lines.append(f"    {x / u.length[1]:>10.2f}  {y / u.moment[1]:>16.1f}  {s}")
+            lines.append(
+                f"    {x * u.factor('length'):>10.2f}  {y * u.factor('moment'):>16.1f}  {s}"
+            )
     lines.append(CAUTION)
     click.echo("\n".join(lines))
 

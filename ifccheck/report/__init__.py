@@ -65,9 +65,9 @@ def write_all(result: CheckResult, source_ifc: Path, out_dir: Path, units: str) 
     from ifccheck.ifc.writeback import write_checked_ifc
     from ifccheck.report.bcf_out import write_issues_bcf
     from ifccheck.report.csv_out import write_beams_csv
-    from ifccheck.report.display import check_system
     from ifccheck.report.html_out import write_report_html
     from ifccheck.report.json_out import write_results_json
+    from ifccheck.units import check_system
 
     check_system(units)
     source_ifc = Path(source_ifc)
@@ -85,9 +85,9 @@ def write_diff_all(diff: DiffResult, out_dir: Path, units: str) -> dict[str, Pat
     """Write the four outputs of a revision comparison; keys json, csv, bcf, html."""
     from ifccheck.report.bcf_out import write_diff_bcf
     from ifccheck.report.csv_out import write_diff_csv
-    from ifccheck.report.display import check_system
     from ifccheck.report.html_out import write_diff_html
     from ifccheck.report.json_out import write_diff_json
+    from ifccheck.units import check_system
 
     check_system(units)
     paths = diff_output_paths(out_dir)

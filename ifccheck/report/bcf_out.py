@@ -24,7 +24,7 @@ from bcf.v2.visinfo import VisualizationInfoHandler
 from xsdata.models.datatype import XmlDateTime
 
 from ifccheck.report.atomic import atomic_path
-from ifccheck.report.display import DisplayUnits, check_system, system_for_length_unit
+from ifccheck.report.display import DisplayUnits
 from ifccheck.report.wording import (
     beam_issue_description,
     beam_issue_title,
@@ -164,9 +164,7 @@ def _save(bcf_file: BcfXml, path: Path) -> Path:
 
 
 def _units(result: CheckResult, units: str | None) -> DisplayUnits:
-    return DisplayUnits(
-        check_system(units) if units else system_for_length_unit(result.model.length_unit)
-    )
+    return DisplayUnits.for_model(result.model.length_unit, units)
 
 
 def issue_beams(result: CheckResult) -> list[BeamResult]:

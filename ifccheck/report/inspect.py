@@ -8,6 +8,7 @@ from typing import TYPE_CHECKING, Any
 from ifccheck import CAUTION, __version__
 from ifccheck.framing.types import Framing, MemberFraming
 from ifccheck.model import Member, Model, Section, Slab
+from ifccheck.report.display import DisplayUnits
 
 if TYPE_CHECKING:
     from ifccheck.loads.demand import BeamDemand, DemandResult
@@ -185,14 +186,14 @@ def summary(model: Model, seconds: float) -> dict[str, Any]:
     }
 
 
-def _length(value: float, imperial: bool) -> str:
-    return f"{value / 0.3048:.2f} ft" if imperial else f"{value:.3f} m"
+def _length(value: float, du: DisplayUnits) -> str:
+    return du.text(value, "length", 2 if du.system == "imperial" else 3)
 
 
 def inspect_text(
     model: Model,
     seconds: float,
-    imperial: bool,
+    du: DisplayUnits,
     framing: Framing | None = None,
     demand: DemandResult | None = None,
 ) -> str:
@@ -221,7 +222,7 @@ def inspect_text(
                     m.ifc_class.removeprefix("Ifc") + (f"/{m.role.value}"),
                     m.profile_name or "-",
                     m.steel.grade if m.steel else m.material.value,
-                    _length(m.length, imperial),
+                    _length(m.length, du),
                     m.axis_source,
                     m.profile_source or "-",
                     notes,
@@ -229,16 +230,14 @@ def inspect_text(
             )
         lines += _table(rows)
         lines.append("")
-        framing_text = _framing_lines(members, framing, demand, imperial, names) if framing else []
+        framing_text = _framing_lines(members, framing, demand, du, names) if framing else []
         if len(framing_text) > 1:
             lines += [*framing_text, ""]
     for s in model.slabs:
-        area = s.footprint.area / (0.3048**2) if imperial else s.footprint.area
-        unit = "ft²" if imperial else "m²"
         lines.append(
             f"slab {s.name or s.guid} on {s.storey or '(no storey)'}: thickness "
-            f"{_length(s.thickness, imperial)}, underside {_length(s.underside, imperial)}, "
-            f"area {area:.1f} {unit}, {len(s.openings)} opening(s)"
+            f"{du.text(s.thickness, 'thickness', 1)}, underside {_length(s.underside, du)}, "
+            f"area {du.text(s.footprint.area, 'area', 1)}, {len(s.openings)} opening(s)"
         )
     if demand is not None:
         for ds in demand.deck_spans.values():
@@ -266,7 +265,7 @@ def _framing_lines(
     members: list[Member],
     framing: Framing,
     demand: DemandResult | None,
-    imperial: bool,
+    du: DisplayUnits,
     names: dict[str, str],
 ) -> list[str]:
     out = ["  framing (stations from each member's start):"]
@@ -274,16 +273,14 @@ def _framing_lines(
         mf = framing.members.get(m.guid)
         if mf is None:
             continue
-        sup = ", ".join(
-            f"{_length(s.station, imperial)} on {names.get(s.by, s.by)}" for s in mf.supports
-        )
+        sup = ", ".join(f"{_length(s.station, du)} on {names.get(s.by, s.by)}" for s in mf.supports)
         seen: dict[tuple[float, bool], int] = {}
         for b in sorted(mf.brace_points, key=lambda b: b.station):
             if b.kind != "support":
                 key = (round(b.station, 3), b.counts)
                 seen[key] = seen.get(key, 0) + 1
         braces = ", ".join(
-            _length(st, imperial)
+            _length(st, du)
             + (f" ({n} members)" if n > 1 else "")
             + ("" if counts else " (does not count)")
             for (st, counts), n in seen.items()
@@ -291,13 +288,13 @@ def _framing_lines(
         covered = sum(b - a for a, b in mf.continuous_bracing)
         text = f"    {m.name or m.guid}: {mf.state}; supports {sup or 'none'}"
         text += f"; braces at {braces or 'ends only'}"
-        text += f"; slab-braced {_length(covered, imperial)} of {_length(m.length, imperial)}"
+        text += f"; slab-braced {_length(covered, du)} of {_length(m.length, du)}"
         if mf.free_ends:
             text += f"; free end: {', '.join(mf.free_ends)}"
         bd = demand.beams.get(m.guid) if demand else None
         if bd is not None:
             width = bd.tributary_left + bd.tributary_right
-            text += f"; tributary {_length(width, imperial)}"
+            text += f"; tributary {_length(width, du)}"
             if bd.reason:
                 text += f"; no demand: {bd.reason}"
         out.append(text)

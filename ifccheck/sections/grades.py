@@ -18,9 +18,10 @@ import re
 from dataclasses import dataclass
 
 from ifccheck.model import MaterialCategory, Steel
+from ifccheck.units import to_si
 
-KSI = 6.894757293168361e6  # Pa
-MPA = 1e6
+KSI = to_si(1.0, "ksi")  # Pa
+MPA = to_si(1.0, "MPa")
 
 E_AISC = 29000.0 * KSI  # AISC 360-16, Chapter B
 G_AISC = 11200.0 * KSI  # AISC 360-16, Symbols

@@ -14,11 +14,12 @@ from functools import cache
 from pathlib import Path
 
 from ifccheck.model import Section, ShapeFamily
+from ifccheck.units import to_si
 
 SOURCE = "AISC Shapes Database v16.0"
 
 IN = 0.0254  # m per inch (exact)
-LB_FT_TO_KG_M = 1.48816394  # kg/m per lb/ft (0.45359237 kg / 0.3048 m)
+LB_FT_TO_KG_M = to_si(1.0, "lb/ft")  # kg/m per lb/ft
 
 # CSV file stem → (family, how the fractional parts of the name are written)
 _FILES: dict[str, tuple[ShapeFamily, str]] = {

@@ -25,6 +25,7 @@ from pathlib import Path
 from typing import Any
 
 from ifccheck.errors import IfccheckError
+from ifccheck.units import system_for
 
 # report keys of write_all / write_diff_all → the names the API serves
 CHECK_FILES = {
@@ -177,7 +178,7 @@ def execute_job(spec: JobSpec) -> dict[str, Any]:
         progress(0.1 + 0.7 * done / max(total, 1))
 
     result, model, _ = run_check(model_path, settings, demands, beams_done)
-    units = spec.units or ("imperial" if model.imperial else "si")
+    units = spec.units or system_for(model.length_unit)
     progress(0.82, force=True)
 
     tmp = job_dir / f"tmp-{uuid.uuid4().hex}"
