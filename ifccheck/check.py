@@ -31,6 +31,7 @@ from ifccheck.loads.combinations import LIVE_DEFLECTION, TOTAL_DEFLECTION
 from ifccheck.loads.demand import BeamDemand, compute_demand, load_demand_csv
 from ifccheck.loads.statics import Diagram
 from ifccheck.model import MaterialCategory, Member, MemberRole, Model
+from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import (
     BeamResult,
     BracePointOut,
@@ -152,27 +153,29 @@ def _base(m: Member, mf: MemberFraming | None) -> BeamResult:
 
 def _not_checked_reason(
     m: Member, mf: MemberFraming | None, bd: BeamDemand | None, standard: DesignStandard
-) -> str:
-    if m.unresolved:
+) -> Reason | None:
+    if m.unresolved is not None:
         return m.unresolved
     if m.material is not MaterialCategory.STEEL or m.steel is None:
-        return f"out of scope: {m.material.value} member"
+        return Reason.of(
+            NotChecked.NOT_STEEL, category=m.material.value, material=m.material_name or "none"
+        )
     if m.section is None:
-        return "profile not resolved"
+        return Reason.of(NotChecked.NO_PROFILE)
     scope = standard.scope(m.section, m.steel)
     if scope:
-        return f"out of scope: {scope}"
+        return Reason.of(NotChecked.SECTION_OUT_OF_SCOPE, detail=scope)
     if mf is None:
-        return "not in the framing analysis"
+        return Reason.of(NotChecked.NOT_IN_FRAMING)
     if mf.state == "unsupported":
-        return "unsupported: neither end bears on a column, girder or wall"
+        return Reason.of(NotChecked.UNSUPPORTED)
     if bd is None:
-        return "no demand computed"
-    if bd.reason:
+        return Reason.of(NotChecked.NO_DEMAND)
+    if bd.reason is not None:
         return bd.reason
     if bd.analysis is None and bd.source != "analysis":
-        return "no demand computed"
-    return ""
+        return Reason.of(NotChecked.NO_DEMAND)
+    return None
 
 
 @dataclass
@@ -251,7 +254,7 @@ def _prepare(
         out.demand = bd.to_output()
         out.notes += [n for n in bd.notes if n not in out.notes]
     reason = _not_checked_reason(m, mf, bd, standard)
-    if reason:
+    if reason is not None:
         out.status, out.reason = "not_checked", reason
         return out
     assert mf is not None and bd is not None

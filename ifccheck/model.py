@@ -13,6 +13,8 @@ from enum import StrEnum
 import numpy as np
 from shapely.geometry import MultiPolygon, Polygon
 
+from ifccheck.reasons import Reason
+
 Point3 = tuple[float, float, float]
 
 
@@ -133,7 +135,7 @@ class Member:
     grade_source: str  # "material name", "material property", "default"
     notes: list[str] = field(default_factory=list)
     # Why this member cannot be checked at all (unresolved profile, non-steel...).
-    unresolved: str = ""
+    unresolved: Reason | None = None
     # Outline depth and width (m) when known without a full section.
     envelope: tuple[float, float] = (0.0, 0.0)
 

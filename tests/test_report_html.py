@@ -137,7 +137,7 @@ def test_sections_caution_and_summary():
     assert "AISC 360-16" in page and "LRFD" in page and rf.CHECKED_AT in page
     assert "writer-test.ifc" in page
     # the not-checked beam's reason and what the model needs
-    assert "not in the shape table" in page and "IfcIShapeProfileDef" in page
+    assert "not found in the shape table" in page and "IfcIShapeProfileDef" in page
 
 
 def test_detail_has_diagram_curve_and_marker():

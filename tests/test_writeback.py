@@ -21,6 +21,7 @@ from ifccheck.ifc.writeback import (
     step_string,
     write_checked_ifc,
 )
+from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import CheckResult
 
 SAMPLES = Path(__file__).resolve().parent.parent / "sample_models"
@@ -173,9 +174,9 @@ def test_demo_models(tmp_path, sample):
 def test_fast_copy_keeps_the_original_lines_and_matches_the_general_path(tmp_path):
     source = rf.write_model(tmp_path / "m.ifc", "IFC4", "foot")
     result = rf.check_result()
-    result.beams[
-        2
-    ].reason = "profile 'HSS–ODD' unknown \\ see note ☃"  # quote, backslash, non-ASCII
+    result.beams[2].reason = Reason.of(  # quote, backslash, non-ASCII
+        NotChecked.PROFILE_NOT_IN_TABLE, name="HSS–ODD \\ ☃", table="see note's table"
+    )
     fast = write_checked_ifc(source, result, tmp_path / "fast.ifc")
     raw, copy = source.read_bytes(), fast.read_bytes()
     end = raw.rfind(b"ENDSEC;")
@@ -193,7 +194,8 @@ def test_fast_copy_keeps_the_original_lines_and_matches_the_general_path(tmp_pat
         pa.pop("id"), pb.pop("id")
         assert pa == pb
     reason = ifcopenshell.util.element.get_psets(a.by_guid(result.beams[2].guid))[PSET_NAME]
-    assert reason["Reason"] == result.beams[2].reason
+    assert reason["Reason"] == result.beams[2].reason.text
+    assert reason["ReasonCode"] == "profile_not_in_table"
 
 
 @pytest.mark.parametrize(

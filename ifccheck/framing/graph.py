@@ -13,6 +13,7 @@ from ifccheck.framing.index import FALLBACK_DEPTH, FALLBACK_WIDTH, MemberGeometr
 from ifccheck.framing.slabs import Interval
 from ifccheck.framing.types import BracePoint, EndName, Framing, MemberFraming, Support
 from ifccheck.model import Model
+from ifccheck.reasons import NotChecked, Reason
 
 END_NAMES: dict[int, EndName | None] = {0: "start", 1: "end", -1: None}
 WALL_CLASS = "IfcWall"
@@ -34,10 +35,11 @@ def _fallback_note(profile: str) -> str:
     )
 
 
-def _line_reason(geom: MemberGeometry, rows: list[int]) -> str:
+def _line_reason(geom: MemberGeometry, rows: list[int]) -> Reason:
     kind = "strut" if all(geom.members[r].role.value == "strut" for r in rows) else "bracing"
-    names = ", ".join(geom.guids[r] for r in rows)
-    return f"{kind} line {names} reaches no anchor (column, wall, slab or braced bay)"
+    return Reason.of(
+        NotChecked.BRACE_UNANCHORED, kind=kind, members=tuple(geom.guids[r] for r in rows)
+    )
 
 
 def build_framing(
@@ -88,7 +90,7 @@ def _build(
         r: _line_reason(geom, anchorage.line[r]) for r, ok in anchorage.anchored.items() if not ok
     }
     for r in sorted(reasons):
-        warnings.append((geom.guids[r], reasons[r] + "; its brace points do not count"))
+        warnings.append((geom.guids[r], f"{reasons[r]}; its brace points do not count"))
 
     # per-link values gathered with numpy, then one pass in Python
     nm = geom.n
@@ -121,7 +123,7 @@ def _build(
     edges = []
     support_edges: list[tuple[str, str]] = []
     for c, cg, h, hg, h_class, end, is_beam, station, at, kind, flange in rows:
-        counts, reason = True, ""
+        counts, reason = True, None
         if kind == KIND_BRACE and c in reasons:
             counts, reason = False, reasons[c]
         edges.append(

@@ -12,6 +12,8 @@ from typing import Literal
 
 import networkx as nx
 
+from ifccheck.reasons import Reason
+
 Flange = Literal["top", "bottom", "both"]
 BraceKind = Literal["framing", "brace", "support"]
 EndName = Literal["start", "end"]
@@ -37,7 +39,7 @@ class BracePoint:
     by: str  # GUID of the bracing member (or the support for kind="support")
     flange: Flange
     counts: bool = True
-    reason: str = ""  # why it does not count, when counts is False
+    reason: Reason | None = None  # why it does not count, when counts is False
 
 
 @dataclass

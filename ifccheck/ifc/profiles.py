@@ -16,6 +16,7 @@ import ifcopenshell
 import ifcopenshell.util.element as uelement
 
 from ifccheck.model import MaterialCategory, Section, Steel
+from ifccheck.reasons import NotChecked, Reason
 from ifccheck.sections import (
     channel_from_dimensions,
     i_section_from_dimensions,
@@ -49,7 +50,7 @@ class ResolvedProfile:
     # depth and width of the outline when known (m), even if no section
     depth: float = 0.0
     width: float = 0.0
-    reason: str = ""  # why ``section`` is None
+    reason: Reason | None = None  # why ``section`` is None
     notes: list[str] = field(default_factory=list)
 
 
@@ -118,11 +119,12 @@ def _section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
         resolved.width = resolved.width or width
         return resolved
     kind = profile.is_a()
-    reason = (
-        f"profile dimensions missing: {kind} '{name}' is not a shape this tool can resolve by name"
+    detail = (
+        f"{kind} '{name}' is not a shape this tool can resolve by name"
         if name
-        else f"profile dimensions missing: unnamed {kind}"
+        else f"unnamed {kind}"
     )
+    reason = Reason.of(NotChecked.PROFILE_WITHOUT_DIMENSIONS, detail=detail)
     return ResolvedProfile(name or kind, None, "", depth, width, reason)
 
 
@@ -135,16 +137,15 @@ def resolve_name(name: str | None) -> ResolvedProfile | None:
     if section is not None:
         return ResolvedProfile(section.name, section, "name", section.d, section.bf)
     if _EU_NAME.fullmatch(token):
+        detail = f"'{token}' given by name only and no European shape table is shipped"
         return ResolvedProfile(
-            token,
-            None,
-            "name",
-            reason=f"profile dimensions missing: '{token}' given by name only and no "
-            "European shape table is shipped",
-        )
-    return ResolvedProfile(
-        token, None, "name", reason=f"profile '{token}' not found in AISC Shapes Database v16.0"
+            token, None, "name",
+            reason=Reason.of(NotChecked.PROFILE_WITHOUT_DIMENSIONS, detail=detail),
+        )  # fmt: skip
+    reason = Reason.of(
+        NotChecked.PROFILE_NOT_IN_TABLE, name=token, table="AISC Shapes Database v16.0"
     )
+    return ResolvedProfile(token, None, "name", reason=reason)
 
 
 def _prefer_table(name: str, computed: Section, d: float, bf: float) -> ResolvedProfile:

@@ -39,6 +39,7 @@ from ifccheck.model import (
     Storey,
     Wall,
 )
+from ifccheck.reasons import NotChecked, Reason
 from ifccheck.sections import default_steel
 
 Entity = ifcopenshell.entity_instance
@@ -185,7 +186,9 @@ class _Reader:
         notes += material.notes
         unresolved = profile.reason
         if material.category in (MaterialCategory.CONCRETE, MaterialCategory.TIMBER):
-            unresolved = f"out of scope: {material.category.value} member ({material.name})"
+            unresolved = Reason.of(
+                NotChecked.NOT_STEEL, category=material.category.value, material=material.name
+            )
         member = Member(
             guid=element.GlobalId,
             ifc_class=element.is_a(),
@@ -232,7 +235,10 @@ class _Reader:
         if extrusion is not None:
             resolved = section_from_profile(extrusion[1].SweptArea, self.scale)
             resolved.source = "swept area"
-            if resolved.section is not None or resolved.reason.startswith("profile dimensions"):
+            no_dimensions = resolved.reason is not None and (
+                resolved.reason.code is NotChecked.PROFILE_WITHOUT_DIMENSIONS
+            )
+            if resolved.section is not None or no_dimensions:
                 if resolved.section is None:
                     fallback = self._profile_by_name(element)
                     if fallback is not None and fallback.section is not None:
@@ -241,9 +247,7 @@ class _Reader:
         by_name = self._profile_by_name(element)
         if by_name is not None:
             return by_name
-        return ResolvedProfile(
-            "", None, "", reason="profile not found: no profile set, swept area or designation"
-        )
+        return ResolvedProfile("", None, "", reason=Reason.of(NotChecked.NO_PROFILE))
 
     def _profile_by_name(self, element: Entity) -> ResolvedProfile | None:
         el_type = uelement.get_type(element)

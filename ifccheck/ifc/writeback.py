@@ -318,8 +318,9 @@ class _PsetWriter:
         r = self.result
         label, text, ratio = "IfcLabel", "IfcText", "IfcRatioMeasure"
         props: list[Any] = [self._prop("Status", label, b.status)]
-        if b.reason:
-            props.append(self._prop("Reason", text, b.reason))
+        if b.reason is not None:
+            props.append(self._prop("Reason", text, b.reason.text))
+            props.append(self._prop("ReasonCode", label, b.reason.code.value))
         for name, v in (
             ("Ratio", b.ratio),
             ("FlexureRatio", b.flexure_ratio),

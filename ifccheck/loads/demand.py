@@ -57,6 +57,7 @@ from ifccheck.loads.statics import (
 )
 from ifccheck.loads.tributary import DeckSpan, Tributary, compute_tributary
 from ifccheck.model import Member, Model, Slab
+from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import DemandOut, LineLoadOut, PointLoadOut
 from ifccheck.units import G, parse_quantity
 
@@ -103,7 +104,7 @@ class BeamDemand:
     storey: str
     length: float
     role: str = "other"  # tributary role: deck, girder, other
-    reason: str = ""  # why no demand could be computed
+    reason: Reason | None = None  # why no demand could be computed
     notes: list[str] = field(default_factory=list)
     tributary_left: float = 0.0  # m
     tributary_right: float = 0.0
@@ -360,13 +361,13 @@ def _compute_demand(
             bd.notes.append("no section: steel self-weight and deflection not computed")
         mf = framing.members.get(m.guid)
         if mf is None:
-            bd.reason = "not in the framing analysis: supports unknown"
+            bd.reason = Reason.of(NotChecked.NOT_IN_FRAMING)
             continue
         bd.notes += [n for n in mf.notes if n not in bd.notes]
         for s in mf.supports:
             bd.supports.append(SupportReaction(s.station, s.by, s.by_class, s.end))
         if not mf.supports:
-            bd.reason = "no support found: the beam bears on nothing"
+            bd.reason = Reason.of(NotChecked.UNSUPPORTED)
 
     carries: dict[str, set[str]] = {}
     for m in beams:
@@ -378,7 +379,7 @@ def _compute_demand(
     for ring in cycles:
         path = " → ".join([*ring, ring[0]])
         for g in ring:
-            result.beams[g].reason = f"load-path cycle {path}: members bear on each other"
+            result.beams[g].reason = Reason.of(NotChecked.LOAD_PATH_CYCLE, path=path)
         result.warnings.append((ring[0], f"load-path cycle {path}: not computed"))
 
     incoming: dict[str, list[PointLoadItem]] = {}
@@ -421,11 +422,15 @@ def _compute_demand(
         for g, res in zip(level, analyse_beams(problems, combinations=factors), strict=True):
             bd = result.beams[g]
             if isinstance(res, Exception):
-                kind = "unstable" if isinstance(res, UnstableBeamError) else "statics failed"
-                bd.reason = f"{kind}: {res}"
-                state = framing.members[g].state
-                if state == "cantilever":
-                    bd.reason += " (a cantilever needs a moment connection at its support)"
+                detail = str(res)
+                if framing.members[g].state == "cantilever":
+                    detail += " (a cantilever needs a moment connection at its support)"
+                code = (
+                    NotChecked.UNSTABLE
+                    if isinstance(res, UnstableBeamError)
+                    else NotChecked.STATICS_FAILED
+                )
+                bd.reason = Reason.of(code, detail=detail)
                 continue
             bd.analysis = res
             bd.source = "computed"
@@ -542,7 +547,7 @@ def _apply_overrides(
             bd.notes.append("demand file gives no shear and none could be computed")
         if bd.reason:
             bd.notes.append(f"computed demand unavailable ({bd.reason}); analysis demand used")
-            bd.reason = ""
+            bd.reason = None
         bd.notes.append("moment" + (" and shear" if shear is not None else "") + " from analysis")
 
 

@@ -15,6 +15,7 @@ from collections.abc import Callable, Sequence
 from pathlib import Path
 from typing import Any
 
+from ifccheck.reasons import reason_code, reason_text
 from ifccheck.report.atomic import write_text
 from ifccheck.report.display import DisplayUnits
 from ifccheck.results import BeamChange, BeamResult, CheckResult, DiffResult
@@ -65,7 +66,8 @@ BEAM_COLUMNS: tuple[Column, ...] = (
     ("governing_check", None, lambda b: b.governing_check),
     ("status", None, lambda b: b.status),
     ("brace_stations", "length", _brace_stations),
-    ("reason", None, lambda b: b.reason),
+    ("reason", None, lambda b: reason_text(b.reason)),
+    ("reason_code", None, lambda b: reason_code(b.reason) or ""),
     ("notes", None, lambda b: b.notes),
 )
 

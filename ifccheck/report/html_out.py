@@ -14,6 +14,7 @@ from html import escape
 from pathlib import Path
 
 from ifccheck import CAUTION
+from ifccheck.reasons import reason_text
 from ifccheck.report.atomic import write_text
 from ifccheck.report.colours import NOT_CHECKED, SEVERITY_COLOURS, ratio_colour, text_colour_on
 from ifccheck.report.display import DisplayUnits
@@ -27,7 +28,7 @@ from ifccheck.report.svg import (
     moment_diagram_svg,
     strength_curve_svg,
 )
-from ifccheck.report.wording import fix_words, limit_state_words, needs_words
+from ifccheck.report.wording import advice, fix_words, limit_state_words
 from ifccheck.results import BeamResult, CheckResult, DiffResult, SlabOutline
 
 DETAIL_OTHERS = 200  # highest-ratio non-failing beams given a detail section
@@ -246,8 +247,9 @@ def _not_checked_section(result: CheckResult) -> str:
     if not beams:
         return ""
     rows = [
-        [escape(b.name or b.guid), escape(b.storey), escape(b.profile), escape(b.reason),
-         escape(needs_words(b.reason)), f"<code>{escape(b.guid)}</code>"]
+        [escape(b.name or b.guid), escape(b.storey), escape(b.profile),
+         escape(reason_text(b.reason)), escape(advice(b.reason)),
+         f"<code>{escape(b.guid)}</code>"]
         for b in beams
     ]  # fmt: skip
     return (
@@ -349,7 +351,7 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str) -> str:
                 [[_qty(du, p.station, "length"), escape(p.kind), escape(p.flange),
                   "yes" if p.counts else "no",
                   (f"{escape(p.by_name)} " if p.by_name else "") + f"<code>{escape(p.by)}</code>",
-                  escape(p.reason)]
+                  escape(reason_text(p.reason))]
                  for p in sorted(b.brace_points, key=lambda p: p.station)],
             )
         )  # fmt: skip

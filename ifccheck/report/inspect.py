@@ -8,6 +8,7 @@ from typing import TYPE_CHECKING, Any
 from ifccheck import CAUTION, __version__
 from ifccheck.framing.types import Framing, MemberFraming
 from ifccheck.model import Member, Model, Section, Slab
+from ifccheck.reasons import reason_code, reason_text
 from ifccheck.report.display import DisplayUnits
 
 if TYPE_CHECKING:
@@ -49,7 +50,8 @@ def member_dict(m: Member) -> dict[str, Any]:
         "web_up": list(m.web_up),
         "section": section_dict(m.section),
         "axis_source": m.axis_source,
-        "unresolved": m.unresolved or None,
+        "unresolved": m.unresolved.text if m.unresolved else None,
+        "unresolved_code": reason_code(m.unresolved),
         "notes": list(m.notes),
     }
 
@@ -69,7 +71,11 @@ def framing_dict(mf: MemberFraming) -> dict[str, Any]:
                 "by": b.by,
                 "flange": b.flange,
                 "counts": b.counts,
-                **({"reason": b.reason} if not b.counts else {}),
+                **(
+                    {"reason": reason_text(b.reason), "reason_code": reason_code(b.reason)}
+                    if not b.counts
+                    else {}
+                ),
             }
             for b in sorted(mf.brace_points, key=lambda b: b.station)
         ],
@@ -99,7 +105,8 @@ def demand_dict(bd: BeamDemand) -> dict[str, Any]:
         "governing_shear_combination": bd.governing_shear or None,
         "max_moment": bd.max_moment,
         "max_shear": bd.max_shear,
-        "reason": bd.reason or None,
+        "reason": bd.reason.text if bd.reason else None,
+        "reason_code": reason_code(bd.reason),
         "notes": list(bd.notes),
     }
 
@@ -215,7 +222,7 @@ def inspect_text(
         lines.append(f"== {storey or '(no storey)'}: {len(members)} members")
         rows = [header]
         for m in members:
-            notes = "; ".join(([m.unresolved] if m.unresolved else []) + m.notes)
+            notes = "; ".join(([m.unresolved.text] if m.unresolved else []) + m.notes)
             rows.append(
                 (
                     m.name or m.guid,

@@ -18,6 +18,7 @@ from collections import Counter
 from pathlib import Path, PurePath
 from typing import Any
 
+from ifccheck.reasons import reason_code, reason_text
 from ifccheck.report.atomic import write_text
 from ifccheck.results import (
     BeamChange,
@@ -156,7 +157,8 @@ def beam_dict(b: BeamResult, detail: bool = False) -> dict[str, Any]:
                 "by": p.by,
                 "flange": p.flange,
                 "counts": bool(p.counts),
-                "reason": p.reason,
+                "reason": reason_text(p.reason),
+                "reason_code": reason_code(p.reason),
             }
             for p in b.brace_points
         ],
@@ -175,7 +177,8 @@ def beam_dict(b: BeamResult, detail: bool = False) -> dict[str, Any]:
         "deflection_ratio": num(b.deflection_ratio),
         "ratio": num(b.ratio),
         "status": b.status,
-        "reason": b.reason,
+        "reason": reason_text(b.reason),
+        "reason_code": reason_code(b.reason),
         "notes": list(b.notes),
         "demand": demand_dict(b.demand),
     }

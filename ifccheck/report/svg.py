@@ -128,8 +128,8 @@ def beam_tooltip(b: BeamResult, du: DisplayUnits) -> str:
     seg = b.governing
     if seg is not None:
         parts.append(f"Lb {du.text(seg.lb, 'length')}")
-    if b.reason:
-        parts.append(b.reason)
+    if b.reason is not None:
+        parts.append(b.reason.text)
     return " · ".join(p for p in parts if p)
 
 

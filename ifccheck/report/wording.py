@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from ifccheck.reasons import NotChecked, Reason
 from ifccheck.report.display import DisplayUnits
 from ifccheck.results import BeamChange, BeamResult, SegmentResult
 
@@ -18,23 +19,45 @@ CHECK_WORDS = {"flexure": "bending", "shear": "shear", "deflection": "deflection
 
 STATUS_WORDS = {"pass": "passes", "fail": "fails", "not_checked": "was not checked"}
 
-# keyword in a not-checked reason → what the model needs
-_NEEDS = (
-    ("profile", "give the beam a profile the tool can read: an I-shape profile with "
-     "dimensions (IfcIShapeProfileDef) or a standard shape name"),
-    ("section", "give the beam a section the tool can read: an I-shape profile with "
-     "dimensions or a standard shape name"),
-    ("material", "assign a steel material with a grade name (e.g. A992, S355)"),
-    ("grade", "assign a steel material with a grade name (e.g. A992, S355)"),
-    ("steel", "check the beam's material: only steel beams are checked"),
-    ("support", "connect the beam's ends to the members that carry it "
-     "(girders, columns or walls) within the connection tolerance"),
-    ("axis", "give the beam an axis or an extruded body so its centre line can be found"),
-    ("geometry", "give the beam an axis or an extruded body so its centre line can be found"),
-    ("demand", "provide the loads or analysis results for this beam"),
-    ("load", "provide the loads or analysis results for this beam"),
-    ("cycle", "remove the loop in the load path (beams that carry each other)"),
-)  # fmt: skip
+_PROFILE_ADVICE = (
+    "give the beam a profile the tool can read: a parametric profile with dimensions "
+    "(IfcIShapeProfileDef, IfcUShapeProfileDef…) or a standard shape name in its type or profile"
+)
+
+# reason code → what the modelling team (or the engineer) should do about it
+ADVICE: dict[NotChecked, str] = {
+    NotChecked.NO_PROFILE: _PROFILE_ADVICE,
+    NotChecked.PROFILE_NOT_IN_TABLE: "use a designation from the shape tables the tool ships, "
+    "or model the profile with its dimensions (IfcIShapeProfileDef, IfcUShapeProfileDef…)",
+    NotChecked.PROFILE_WITHOUT_DIMENSIONS: _PROFILE_ADVICE,
+    NotChecked.NOT_STEEL: "nothing to fix if the member is meant to be concrete or timber: "
+    "only steel members are checked",
+    NotChecked.NO_GRADE: "assign a steel material whose name gives the grade (e.g. A992, S355), "
+    "map the material name to a grade under [steel.materials] in the settings, or state "
+    "steel.default_grade in the settings to take responsibility for the assumption",
+    NotChecked.BAD_ELEMENT: "correct the element's geometry or definition in the model",
+    NotChecked.SECTION_OUT_OF_SCOPE: "check this member by other means: the design standard "
+    "as implemented does not cover its section",
+    NotChecked.NOT_IN_FRAMING: "give the beam a readable centre line (an axis or an extruded "
+    "body) so that its connections can be found",
+    NotChecked.UNSUPPORTED: "connect the beam's ends to the members that carry it (girders, "
+    "columns or walls) within the connection tolerance",
+    NotChecked.UNSTABLE: "connect the beam's other end to its support, or declare the moment "
+    "connection a cantilever needs",
+    NotChecked.LOAD_PATH_CYCLE: "remove the loop in the load path (beams that carry each other)",
+    NotChecked.STATICS_FAILED: "check the beam's supports and loads in the model",
+    NotChecked.NO_DEMAND: "provide the loads (a slab or a declared deck) or analysis results "
+    "for this beam",
+    NotChecked.NO_FLOOR_LOAD: "model the slab or deck of this level, or declare it under [decks] "
+    "in the settings, or give the beam's demand from an analysis (--demands)",
+    NotChecked.NO_DECK_DIRECTION: "state the deck span direction of this level in the settings "
+    "(deck_span)",
+    NotChecked.BRACE_UNANCHORED: "tie the bracing line to a column, wall, slab or braced bay, "
+    "or do not rely on it",
+    NotChecked.BRACE_NOT_STRUCTURAL: "nothing to fix if it is hardware; model real braces as "
+    "members with a section",
+    NotChecked.BRACE_INADEQUATE: "use a stronger or stiffer brace, or a shorter path to its anchor",
+}
 
 
 def limit_state_words(limit_state: str) -> str:
@@ -91,13 +114,12 @@ def fix_words(b: BeamResult, du: DisplayUnits) -> str:
     return "Bracing does not control here: use a heavier section or reduce the load."
 
 
-def needs_words(reason: str) -> str:
-    """What the model needs so that a not-checked beam can be checked."""
-    low = reason.lower()
-    for key, need in _NEEDS:
-        if key in low:
-            return need[0].upper() + need[1:] + "."
-    return "Correct what the reason names in the model and run the check again."
+def advice(reason: Reason | None) -> str:
+    """What to do about a reason, as a sentence ('' for none)."""
+    if reason is None:
+        return ""
+    text = ADVICE[reason.code]
+    return text[0].upper() + text[1:] + "."
 
 
 def beam_issue_title(b: BeamResult) -> str:
@@ -114,8 +136,8 @@ def beam_issue_title(b: BeamResult) -> str:
 def beam_issue_description(b: BeamResult, du: DisplayUnits) -> str:
     """Why the beam is an issue and what would fix it, in plain sentences."""
     if b.status == "not_checked":
-        reason = b.reason or "no reason was recorded"
-        return f"This beam was not checked: {reason}. {needs_words(reason)}"
+        reason = b.reason.text if b.reason else "no reason was recorded"
+        return f"This beam was not checked: {reason}. {advice(b.reason)}".rstrip()
     lines: list[str] = []
     ratio = f" (ratio {b.ratio:.2f})" if b.ratio is not None else ""
     what = CHECK_WORDS.get(b.governing_check, b.governing_check or "the check")
