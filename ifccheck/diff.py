@@ -13,8 +13,14 @@ from collections import defaultdict
 
 import numpy as np
 
-from ifccheck.results import BeamChange, BeamResult, CheckResult, DiffResult
-from ifccheck.units import format_length
+from ifccheck.results import (
+    BeamChange,
+    BeamResult,
+    CauseKind,
+    ChangeCause,
+    CheckResult,
+    DiffResult,
+)
 
 # Two brace points closer than this are the same point (common practice:
 # modelled framing moves by inches between revisions without meaning).
@@ -121,13 +127,7 @@ def _lost_cover(old: BeamResult, new: BeamResult) -> float:
     return float(lines(old_iv).difference(lines(new.continuous_bracing)).length)
 
 
-def compare_beam(
-    old: BeamResult,
-    new: BeamResult,
-    matched_by: str,
-    units: str = "si",
-    names: dict[str, str] | None = None,
-) -> BeamChange | None:
+def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChange | None:
     """The change of one matched beam, or None when nothing that matters changed."""
     lost: set[float] = set()
     added: set[float] = set()
@@ -163,59 +163,52 @@ def compare_beam(
         status_before=old.status,
         status_after=new.status,
     )
-    worse, better = _assess(change, units, names or {})
-    if not worse and not better:
+    causes = _causes(change)
+    if not causes:
         return None
+    worse = [c for c in causes if c.worse]
     change.severity = "regression" if worse else "improvement"
-    change.reasons = worse or better
+    change.causes = worse or causes
     return change
 
 
-def _assess(c: BeamChange, units: str, names: dict[str, str]) -> tuple[list[str], list[str]]:
-    def length(v: float) -> str:
-        return format_length(v, units)  # type: ignore[arg-type]
-
-    def who(guids: list[str]) -> str:
-        return ", ".join(names.get(g, g) for g in guids)
-
-    worse: list[str] = []
-    better: list[str] = []
+def _causes(c: BeamChange) -> list[ChangeCause]:
+    """What changed, worse causes first; quantities stay in SI (the report words them)."""
+    out: list[ChangeCause] = []
     if c.lost_brace_points:
-        worse.append(
-            "lost brace point(s) at station(s) " + ", ".join(length(s) for s in c.lost_brace_points)
-        )
-    if c.added_brace_points:
-        better.append(f"{len(c.added_brace_points)} brace point(s) added")
+        out.append(ChangeCause(CauseKind.LOST_BRACES, stations=tuple(c.lost_brace_points)))
     if c.lost_supports:
-        worse.append("lost support(s): " + who(c.lost_supports))
-    if c.gained_supports:
-        better.append("gained support(s): " + who(c.gained_supports))
+        out.append(ChangeCause(CauseKind.LOST_SUPPORTS, members=tuple(c.lost_supports)))
     if c.lost_continuous_bracing > STATION_TOLERANCE:
-        worse.append(f"slab-braced length fell by {length(c.lost_continuous_bracing)}")
+        out.append(ChangeCause(CauseKind.LOST_SLAB_BRACING, after=c.lost_continuous_bracing))
     if (
         c.lb_before is not None
         and c.lb_after is not None
         and c.lb_after > c.lb_before + STATION_TOLERANCE
     ):
-        worse.append(f"governing Lb grew from {length(c.lb_before)} to {length(c.lb_after)}")
+        out.append(ChangeCause(CauseKind.LB_GREW, before=c.lb_before, after=c.lb_after))
     rank_b, rank_a = STATUS_RANK[c.status_before], STATUS_RANK[c.status_after]
+    status = (c.status_before, c.status_after)
     if rank_a > rank_b:
-        worse.append(f"status went from {c.status_before} to {c.status_after}")
-    elif rank_a < rank_b:
-        better.append(f"status went from {c.status_before} to {c.status_after}")
-    if c.ratio_before is not None and c.ratio_after is not None:
-        if c.ratio_after > c.ratio_before + RATIO_TOLERANCE:
-            worse.append(f"ratio rose from {c.ratio_before:.3f} to {c.ratio_after:.3f}")
-        elif c.ratio_after < c.ratio_before - RATIO_TOLERANCE:
-            better.append(f"ratio fell from {c.ratio_before:.3f} to {c.ratio_after:.3f}")
-    return worse, better
+        out.append(ChangeCause(CauseKind.STATUS_WORSE, before=status[0], after=status[1]))
+    ratios = (c.ratio_before, c.ratio_after)
+    if ratios[0] is not None and ratios[1] is not None and ratios[1] > ratios[0] + RATIO_TOLERANCE:
+        out.append(ChangeCause(CauseKind.RATIO_ROSE, before=ratios[0], after=ratios[1]))
+    if c.added_brace_points:
+        out.append(ChangeCause(CauseKind.ADDED_BRACES, stations=tuple(c.added_brace_points)))
+    if c.gained_supports:
+        out.append(ChangeCause(CauseKind.GAINED_SUPPORTS, members=tuple(c.gained_supports)))
+    if rank_a < rank_b:
+        out.append(ChangeCause(CauseKind.STATUS_BETTER, before=status[0], after=status[1]))
+    if ratios[0] is not None and ratios[1] is not None and ratios[1] < ratios[0] - RATIO_TOLERANCE:
+        out.append(ChangeCause(CauseKind.RATIO_FELL, before=ratios[0], after=ratios[1]))
+    return out
 
 
-def diff_results(old: CheckResult, new: CheckResult, units: str = "si") -> DiffResult:
-    """Match the beams of two checks and describe what changed (reasons in ``units``)."""
+def diff_results(old: CheckResult, new: CheckResult) -> DiffResult:
+    """Match the beams of two checks and say what changed (causes in SI)."""
     pairs, added, removed = match_beams(old.beams, new.beams)
-    names = {b.guid: b.name or b.guid for b in [*old.beams, *new.beams]}
-    changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how, units, names)) is not None]
+    changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how)) is not None]
     changes.sort(key=lambda c: (c.severity != "regression", c.storey, c.name))
     return DiffResult(
         old=old,

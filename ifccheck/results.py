@@ -7,6 +7,7 @@ beam's centroid line from its start point.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from enum import StrEnum
 from typing import Literal
 
 from ifccheck.reasons import Reason
@@ -175,6 +176,49 @@ class CheckResult:
 Severity = Literal["regression", "improvement", "changed"]
 
 
+class CauseKind(StrEnum):
+    """What changed about a beam between two revisions."""
+
+    LOST_BRACES = "lost_braces"  # stations
+    ADDED_BRACES = "added_braces"  # stations
+    LOST_SUPPORTS = "lost_supports"  # members
+    GAINED_SUPPORTS = "gained_supports"  # members
+    LOST_SLAB_BRACING = "lost_slab_bracing"  # after: length lost (m)
+    LB_GREW = "lb_grew"  # before, after (m)
+    STATUS_WORSE = "status_worse"  # before, after (status)
+    STATUS_BETTER = "status_better"
+    RATIO_ROSE = "ratio_rose"  # before, after
+    RATIO_FELL = "ratio_fell"
+    DEMAND_FELL_LOST_LOAD = "demand_fell_lost_load"  # members: whose load no longer arrives
+
+
+WORSE_CAUSES = frozenset(
+    {
+        CauseKind.LOST_BRACES,
+        CauseKind.LOST_SUPPORTS,
+        CauseKind.LOST_SLAB_BRACING,
+        CauseKind.LB_GREW,
+        CauseKind.STATUS_WORSE,
+        CauseKind.RATIO_ROSE,
+    }
+)
+
+
+@dataclass(frozen=True)
+class ChangeCause:
+    """One cause of a beam's change, in SI; the report puts it into words."""
+
+    kind: CauseKind
+    stations: tuple[float, ...] = ()  # m along the new beam
+    members: tuple[str, ...] = ()  # GUIDs
+    before: float | str | None = None
+    after: float | str | None = None
+
+    @property
+    def worse(self) -> bool:
+        return self.kind in WORSE_CAUSES
+
+
 @dataclass
 class BeamChange:
     """How one beam matched between two revisions changed."""
@@ -196,7 +240,7 @@ class BeamChange:
     status_before: str = ""
     status_after: str = ""
     severity: Severity = "changed"
-    reasons: list[str] = field(default_factory=list)
+    causes: list[ChangeCause] = field(default_factory=list)
 
 
 @dataclass

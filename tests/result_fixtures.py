@@ -28,6 +28,8 @@ from ifccheck.results import (
     BeamChange,
     BeamResult,
     BracePointOut,
+    CauseKind,
+    ChangeCause,
     CheckResult,
     DemandOut,
     Diagram,
@@ -361,13 +363,14 @@ def diff_result() -> DiffResult:
             lost_brace_points=[15 * FT], lb_before=ob2.governing.lb, lb_after=nb2.governing.lb,
             ratio_before=ob2.ratio, ratio_after=nb2.ratio, status_before=ob2.status,
             status_after=nb2.status, severity="regression",
-            reasons=["strut S1 no longer anchored: brace at 15 ft does not count"],
+            causes=[ChangeCause(CauseKind.LOST_BRACES, stations=(15 * FT,))],
         ),
         BeamChange(
             guid=g["b4"], old_guid=g["b4"], name="B-4", storey="Level 3", matched_by="geometry",
             added_brace_points=[10 * FT], ratio_before=0.55, ratio_after=0.5,
             status_before="pass", status_after="pass", severity="improvement",
-            reasons=["lighter finishes on Level 3"],
+            causes=[ChangeCause(CauseKind.ADDED_BRACES, stations=(10 * FT,)),
+                    ChangeCause(CauseKind.RATIO_FELL, before=0.55, after=0.5)],
         ),
     ]  # fmt: skip
     return DiffResult(

@@ -160,6 +160,11 @@ def test_revision_b_diff_names_the_beams_that_lost_bracing(revisions, alice):
     roof = next(c for c in diff["beams"].values() if c["name"] == "R-G90-0")
     assert roof["status_before"] == "pass" and roof["status_after"] == "fail"
     assert roof["lost_brace_points"]
+    # the demo is in feet: the reasons are worded in feet, as the CLI words them
+    # (they once came out in metres from the service)
+    assert diff["display_units"] == "imperial"
+    assert "lost brace point at 15.00 ft" in roof["reasons"]
+    assert any(c["kind"] == "lost_braces" for c in roof["causes"])
 
 
 def test_served_files_are_the_check_of_the_uploaded_model(revisions, alice, reference):

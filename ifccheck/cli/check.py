@@ -190,13 +190,13 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     from ifccheck.check import run_check
     from ifccheck.diff import diff_results
     from ifccheck.report import write_diff_all
-    from ifccheck.units import format_length
+    from ifccheck.report.wording import change_reasons, diff_names
 
     settings = _settings(config, method)
     old, _, _ = run_check(old_path, settings)
     new, model, _ = run_check(new_path, settings)
     chosen = _units(units, model.length_unit)
-    result = diff_results(old, new, chosen)
+    result = diff_results(old, new)
     written = write_diff_all(result, Path(out_dir), chosen)
     regressions = result.regressions
     click.echo(
@@ -204,19 +204,9 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
         f"{len(result.added)} added, {len(result.removed)} removed; "
         f"{len(regressions)} regression(s)"
     )
+    du, names = DisplayUnits(chosen), diff_names(result)
     for c in regressions:
-        lb = ""
-        if c.lb_before is not None and c.lb_after is not None:
-            lb = f", Lb {format_length(c.lb_before, chosen)} → {format_length(c.lb_after, chosen)}"
-        ratio = ""
-        if c.ratio_before is not None or c.ratio_after is not None:
-            rb = "-" if c.ratio_before is None else f"{c.ratio_before:.2f}"
-            ra = "-" if c.ratio_after is None else f"{c.ratio_after:.2f}"
-            ratio = f", ratio {rb} → {ra}"
-        click.echo(
-            f"  {c.name or c.guid} ({c.storey}): {c.status_before} → {c.status_after}{lb}{ratio}; "
-            + "; ".join(c.reasons)
-        )
+        click.echo(f"  {c.name or c.guid} ({c.storey}): " + "; ".join(change_reasons(c, du, names)))
     names = ", ".join(p.name for p in written.values())
     click.echo(f"diff written to {Path(out_dir)}: {names}")
     click.echo(CAUTION)

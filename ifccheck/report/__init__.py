@@ -92,7 +92,7 @@ def write_diff_all(diff: DiffResult, out_dir: Path, units: str) -> dict[str, Pat
     check_system(units)
     paths = diff_output_paths(out_dir)
     Path(out_dir).mkdir(parents=True, exist_ok=True)
-    write_diff_json(diff, paths["json"])
+    write_diff_json(diff, paths["json"], units)
     write_diff_csv(diff, paths["csv"], units)
     write_diff_bcf(diff, paths["bcf"], units)
     write_diff_html(diff, paths["html"], units)

@@ -30,6 +30,7 @@ from ifccheck.report.wording import (
     beam_issue_title,
     change_description,
     change_title,
+    diff_names,
     limit_state_words,
     segment_midpoint,
 )
@@ -207,6 +208,7 @@ def write_issues_bcf(result: CheckResult, path: Path, units: str | None = None) 
 def write_diff_bcf(diff: DiffResult, path: Path, units: str | None = None) -> Path:
     """Write ``diff.bcf``: a topic per regression, aimed at the beam in the new revision."""
     du = _units(diff.new, units)
+    names = diff_names(diff)
     new_beams = {b.guid: b for b in diff.new.beams}
     bcf_file = _new_bcf(diff.new.model.file)
     regressions: list[BeamChange] = sorted(
@@ -220,7 +222,7 @@ def write_diff_bcf(diff: DiffResult, path: Path, units: str | None = None) -> Pa
         if c.lost_supports:
             labels.append("lost support")
         handler = _topic(
-            bcf_file, key, change_title(c), change_description(c, du), diff.new.checked_at,
+            bcf_file, key, change_title(c), change_description(c, du, names), diff.new.checked_at,
             "Error", labels, "High", diff.new.model.file,
         )  # fmt: skip
         b = new_beams.get(c.guid)

@@ -18,7 +18,9 @@ from typing import Any
 from ifccheck.reasons import reason_code, reason_text
 from ifccheck.report.atomic import write_text
 from ifccheck.report.display import DisplayUnits
+from ifccheck.report.wording import change_reasons, diff_names
 from ifccheck.results import BeamChange, BeamResult, CheckResult, DiffResult
+from ifccheck.units import check_system
 
 # (column stem, kind or None for a plain value, getter)
 Column = tuple[str, str | None, Callable[[Any], Any]]
@@ -89,7 +91,6 @@ DIFF_COLUMNS: tuple[Column, ...] = (
     ("lost_supports", None, lambda c: c.lost_supports),
     ("gained_supports", None, lambda c: c.gained_supports),
     ("lost_continuous_bracing", "length", lambda c: c.lost_continuous_bracing),
-    ("reasons", None, lambda c: c.reasons),
 )
 
 
@@ -141,7 +142,9 @@ def diff_csv(diff: DiffResult, units: str) -> str:
     changes: list[BeamChange] = sorted(
         diff.changes, key=lambda c: (order.get(c.severity, 3), c.guid)
     )
-    return _table(changes, DIFF_COLUMNS, units)
+    du, names = DisplayUnits(check_system(units)), diff_names(diff)
+    reasons: Column = ("reasons", None, lambda c: change_reasons(c, du, names))
+    return _table(changes, (*DIFF_COLUMNS, reasons), units)
 
 
 def write_beams_csv(result: CheckResult, path: Path, units: str) -> Path:

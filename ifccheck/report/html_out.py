@@ -28,7 +28,13 @@ from ifccheck.report.svg import (
     moment_diagram_svg,
     strength_curve_svg,
 )
-from ifccheck.report.wording import advice, fix_words, limit_state_words
+from ifccheck.report.wording import (
+    advice,
+    change_reasons,
+    diff_names,
+    fix_words,
+    limit_state_words,
+)
 from ifccheck.results import BeamResult, CheckResult, DiffResult, SlabOutline
 
 DETAIL_OTHERS = 200  # highest-ratio non-failing beams given a detail section
@@ -442,6 +448,7 @@ def _severity(sev: str) -> str:
 def _changes_section(diff: DiffResult, du: DisplayUnits) -> str:
     order = {"regression": 0, "changed": 1, "improvement": 2}
     changes = sorted(diff.changes, key=lambda c: (order.get(c.severity, 3), c.storey, c.name))
+    names = diff_names(diff)
     stations = lambda xs: escape(", ".join(du.number(s, "length") for s in xs))  # noqa: E731
     rows = [
         [escape(c.name or c.guid), escape(c.storey), _severity(c.severity),
@@ -449,7 +456,7 @@ def _changes_section(diff: DiffResult, du: DisplayUnits) -> str:
          _num(c.ratio_before), _num(c.ratio_after),
          _qty(du, c.lb_before, "length"), _qty(du, c.lb_after, "length"),
          stations(c.lost_brace_points), stations(c.added_brace_points),
-         escape("; ".join(c.reasons))]
+         escape("; ".join(change_reasons(c, du, names)))]
         for c in changes
     ]  # fmt: skip
     lu = du.label("length")

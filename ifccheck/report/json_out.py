@@ -15,14 +15,18 @@ import gc
 import json
 import math
 from collections import Counter
+from collections.abc import Mapping
 from pathlib import Path, PurePath
 from typing import Any
 
 from ifccheck.reasons import reason_code, reason_text
 from ifccheck.report.atomic import write_text
+from ifccheck.report.display import DisplayUnits
+from ifccheck.report.wording import change_reasons, diff_names
 from ifccheck.results import (
     BeamChange,
     BeamResult,
+    ChangeCause,
     CheckResult,
     DemandOut,
     DiffResult,
@@ -235,7 +239,11 @@ def results_document(result: CheckResult, detail: bool = False) -> dict[str, Any
     }
 
 
-def change_dict(c: BeamChange) -> dict[str, Any]:
+def change_dict(
+    c: BeamChange, du: DisplayUnits | None = None, names: Mapping[str, str] | None = None
+) -> dict[str, Any]:
+    """One changed beam; ``reasons`` are in words in ``du``'s units, ``causes`` in SI."""
+    names = names or {}
     return {
         "guid": c.guid,
         "old_guid": c.old_guid,
@@ -254,7 +262,24 @@ def change_dict(c: BeamChange) -> dict[str, Any]:
         "lost_supports": list(c.lost_supports),
         "gained_supports": list(c.gained_supports),
         "lost_continuous_bracing": num(c.lost_continuous_bracing),
-        "reasons": list(c.reasons),
+        "reasons": change_reasons(c, du, names) if du is not None else [],
+        "causes": [cause_dict(x) for x in c.causes],
+    }
+
+
+def cause_dict(x: ChangeCause) -> dict[str, Any]:
+    """One cause of a change, machine-readable (SI)."""
+
+    def value(v: float | str | None) -> float | str | None:
+        return num(v) if isinstance(v, int | float) else v
+
+    return {
+        "kind": x.kind.value,
+        "worse": x.worse,
+        "stations": [num(s) for s in x.stations],
+        "members": list(x.members),
+        "before": value(x.before),
+        "after": value(x.after),
     }
 
 
@@ -288,8 +313,14 @@ def diff_summary(diff: DiffResult) -> dict[str, int]:
 _SEVERITY_ORDER = {"regression": 0, "changed": 1, "improvement": 2}
 
 
-def diff_document(diff: DiffResult) -> dict[str, Any]:
-    """The revision comparison as plain JSON data (see docs/outputs.md)."""
+def diff_document(diff: DiffResult, units: str | None = None) -> dict[str, Any]:
+    """The revision comparison as plain JSON data (see docs/outputs.md).
+
+    Quantities are SI; the ``reasons`` sentences of each beam use the display
+    units ``units`` (default: the new model's unit system), like the CSV and report.
+    """
+    du = DisplayUnits.for_model(diff.new.model.length_unit, units)
+    names = diff_names(diff)
     changes = sorted(diff.changes, key=lambda c: (_SEVERITY_ORDER.get(c.severity, 3), c.guid))
     return {
         "format": DIFF_FORMAT,
@@ -306,7 +337,8 @@ def diff_document(diff: DiffResult) -> dict[str, Any]:
         "added": list(diff.added),
         "removed": list(diff.removed),
         "summary": diff_summary(diff),
-        "beams": {c.guid: change_dict(c) for c in changes},
+        "display_units": du.system,
+        "beams": {c.guid: change_dict(c, du, names) for c in changes},
     }
 
 
@@ -356,8 +388,8 @@ def write_results_json(result: CheckResult, path: Path, detail: bool = False) ->
     return write_text(path, text)
 
 
-def write_diff_json(diff: DiffResult, path: Path) -> Path:
+def write_diff_json(diff: DiffResult, path: Path, units: str | None = None) -> Path:
     """Write ``diff.json`` atomically; return its path."""
     with collector_paused():
-        text = dumps(diff_document(diff))
+        text = dumps(diff_document(diff, units))
     return write_text(path, text)

@@ -2,9 +2,18 @@
 
 from __future__ import annotations
 
+from collections.abc import Mapping
+
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.report.display import DisplayUnits
-from ifccheck.results import BeamChange, BeamResult, SegmentResult
+from ifccheck.results import (
+    BeamChange,
+    BeamResult,
+    CauseKind,
+    ChangeCause,
+    DiffResult,
+    SegmentResult,
+)
 
 LIMIT_STATE_WORDS = {
     "yielding": "yielding (full plastic moment)",
@@ -18,6 +27,7 @@ LTB_STATES = ("inelastic_ltb", "elastic_ltb")
 CHECK_WORDS = {"flexure": "bending", "shear": "shear", "deflection": "deflection"}
 
 STATUS_WORDS = {"pass": "passes", "fail": "fails", "not_checked": "was not checked"}
+STATUS_STATE_WORDS = {"pass": "pass", "fail": "fail", "not_checked": "not checked"}
 
 _PROFILE_ADVICE = (
     "give the beam a profile the tool can read: a parametric profile with dimensions "
@@ -179,7 +189,64 @@ def change_title(c: BeamChange) -> str:
     return f"{name}{where}: " + (", ".join(parts) if parts else c.severity)
 
 
-def change_description(c: BeamChange, du: DisplayUnits) -> str:
+def cause_words(cause: ChangeCause, du: DisplayUnits, names: Mapping[str, str]) -> str:
+    """One cause of a change in words, quantities in the display units."""
+
+    def length(v: float | str | None) -> str:
+        return du.text(float(v), "length") if isinstance(v, int | float) else "–"
+
+    def ratio(v: float | str | None) -> str:
+        return f"{v:.3f}" if isinstance(v, int | float) else "–"
+
+    def status(v: float | str | None) -> str:
+        return STATUS_STATE_WORDS.get(str(v), str(v))
+
+    who = ", ".join(names.get(g, g) for g in cause.members)
+    at = ", ".join(du.text(s, "length") for s in cause.stations)
+    n = len(cause.stations)
+    k = cause.kind
+    if k is CauseKind.LOST_BRACES:
+        return f"lost brace point{'s' if n != 1 else ''} at {at}"
+    if k is CauseKind.ADDED_BRACES:
+        return f"brace point{'s' if n != 1 else ''} added at {at}"
+    if k is CauseKind.LOST_SUPPORTS:
+        return f"lost support on {who}"
+    if k is CauseKind.GAINED_SUPPORTS:
+        return f"gained support on {who}"
+    if k is CauseKind.LOST_SLAB_BRACING:
+        return f"slab-braced length fell by {length(cause.after)}"
+    if k is CauseKind.LB_GREW:
+        return f"governing Lb grew from {length(cause.before)} to {length(cause.after)}"
+    if k in (CauseKind.STATUS_WORSE, CauseKind.STATUS_BETTER):
+        return f"went from {status(cause.before)} to {status(cause.after)}"
+    if k is CauseKind.RATIO_ROSE:
+        return f"ratio rose from {ratio(cause.before)} to {ratio(cause.after)}"
+    if k is CauseKind.RATIO_FELL:
+        return f"ratio fell from {ratio(cause.before)} to {ratio(cause.after)}"
+    if k is CauseKind.DEMAND_FELL_LOST_LOAD:
+        return f"demand fell because {who} no longer delivers its load here"
+    raise ValueError(f"no words for change cause {k!r}")
+
+
+def change_reasons(c: BeamChange, du: DisplayUnits, names: Mapping[str, str]) -> list[str]:
+    """Every cause of a change in words."""
+    return [cause_words(x, du, names) for x in c.causes]
+
+
+def diff_names(diff: DiffResult) -> dict[str, str]:
+    """GUID → name of every beam in either revision (for words about changes)."""
+    return {b.guid: b.name or b.guid for b in [*diff.old.beams, *diff.new.beams]}
+
+
+def sentence(text: str) -> str:
+    text = text.strip()
+    return (text[0].upper() + text[1:] + ("" if text.endswith(".") else ".")) if text else ""
+
+
+def change_description(
+    c: BeamChange, du: DisplayUnits, names: Mapping[str, str] | None = None
+) -> str:
+    names = names or {}
     lines = [f"Between the two revisions this beam got {_severity_words(c.severity)}."]
     if c.lost_brace_points:
         at = ", ".join(du.text(s, "length") for s in c.lost_brace_points)
@@ -203,7 +270,7 @@ def change_description(c: BeamChange, du: DisplayUnits) -> str:
         lines.append(f"Ratio {rb} → {ra}.")
     if c.status_before or c.status_after:
         lines.append(f"Status {c.status_before or '–'} → {c.status_after or '–'}.")
-    lines.extend(r if r.endswith(".") else r + "." for r in c.reasons)
+    lines.extend(sentence(cause_words(x, du, names)) for x in c.causes)
     if c.lost_brace_points and c.severity == "regression":
         lines.append(
             "Restore the lost brace, or check that the longer unbraced length is intended."
