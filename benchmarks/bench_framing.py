@@ -36,7 +36,6 @@ from ifccheck.framing import (
     host_index,
     intermediate_links,
     member_geometry,
-    paused_gc,
     slab_coverage,
     wall_geometry,
 )
@@ -50,6 +49,7 @@ from ifccheck.model import (
     Slab,
     Storey,
 )
+from ifccheck.perf import gc_paused
 
 BAY = 9.0  # m
 STOREY = 4.0  # m
@@ -205,7 +205,7 @@ def main(argv: list[str]) -> None:
         for _ in range(REPEATS):
             framing = None
             gc.collect()
-            with paused_gc():  # as analyse_framing runs
+            with gc_paused():  # as analyse_framing runs
                 t, framing = run_stages(model)
             times = {k: min(v, times.get(k, math.inf)) for k, v in t.items()}
         gc.collect()

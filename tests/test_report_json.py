@@ -10,7 +10,7 @@ import jsonschema
 import pytest
 import result_fixtures as rf
 
-from ifccheck.report.atomic import atomic_path, write_text
+from ifccheck.atomic import atomic_path, write_text
 from ifccheck.report.json_out import (
     DIFF_SCHEMA,
     RESULTS_SCHEMA,

@@ -20,7 +20,7 @@ from ifccheck.framing.connections import (
     wall_geometry,
 )
 from ifccheck.framing.graph import build_framing, load_path_order
-from ifccheck.framing.index import BoxIndex, MemberGeometry, member_geometry, paused_gc
+from ifccheck.framing.index import BoxIndex, MemberGeometry, member_geometry
 from ifccheck.framing.slabs import slab_coverage
 from ifccheck.framing.types import (
     BracePoint,
@@ -29,6 +29,7 @@ from ifccheck.framing.types import (
     Support,
 )
 from ifccheck.model import Model
+from ifccheck.perf import gc_paused
 
 __all__ = [
     "Anchorage",
@@ -47,7 +48,6 @@ __all__ = [
     "intermediate_links",
     "load_path_order",
     "member_geometry",
-    "paused_gc",
     "slab_coverage",
     "wall_geometry",
 ]
@@ -62,7 +62,7 @@ def analyse_framing(
     load-path order for every beam, strut and brace of the model."""
     fs = framing or FramingSettings()
     bs = bracing or BracingSettings()
-    with paused_gc():
+    with gc_paused():
         return _analyse(model, fs, bs)
 
 

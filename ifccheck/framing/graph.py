@@ -9,10 +9,11 @@ import numpy as np
 
 from ifccheck.framing.anchorage import Anchorage
 from ifccheck.framing.connections import KIND_BRACE, KIND_FRAMING, KIND_SUPPORT, Links
-from ifccheck.framing.index import FALLBACK_DEPTH, FALLBACK_WIDTH, MemberGeometry, paused_gc
+from ifccheck.framing.index import FALLBACK_DEPTH, FALLBACK_WIDTH, MemberGeometry
 from ifccheck.framing.slabs import Interval
 from ifccheck.framing.types import BracePoint, EndName, Framing, MemberFraming, Support
 from ifccheck.model import Model
+from ifccheck.perf import gc_paused
 from ifccheck.reasons import NotChecked, Reason
 
 END_NAMES: dict[int, EndName | None] = {0: "start", 1: "end", -1: None}
@@ -52,7 +53,7 @@ def build_framing(
 ) -> Framing:
     """The MultiDiGraph, the MemberFraming per beam/strut/brace, the load
     order and the support cycles."""
-    with paused_gc():
+    with gc_paused():
         return _build(model, geom, links, coverage, anchorage, slab_bracing)
 
 

@@ -10,9 +10,6 @@ tall the building is.
 
 from __future__ import annotations
 
-import gc
-from collections.abc import Iterator
-from contextlib import contextmanager
 from dataclasses import dataclass
 
 import numpy as np
@@ -135,20 +132,6 @@ def member_geometry(members: list[Member]) -> MemberGeometry:
         is_column=is_column,
         in_graph=in_graph,
     )
-
-
-@contextmanager
-def paused_gc() -> Iterator[None]:
-    """Pause the cyclic garbage collector while allocating many small objects
-    that form no cycles: its full passes over a growing heap otherwise cost
-    more than the work itself on large models."""
-    enabled = gc.isenabled()
-    gc.disable()
-    try:
-        yield
-    finally:
-        if enabled:
-            gc.enable()
 
 
 def unique_sorted(a: np.ndarray) -> np.ndarray:

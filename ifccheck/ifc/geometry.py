@@ -273,3 +273,22 @@ def plan_footprint(matrix: np.ndarray, solid: Entity) -> tuple[Polygon, float, f
     z0 = float(ext[0, 2])
     z1 = z0 + float(direction[2]) * solid.Depth
     return poly, min(z0, z1), max(z0, z1)
+
+
+def cardinal_offset(cardinal_point: int, depth: float, width: float) -> tuple[float, float]:
+    """Offset (x, y) from the axis to the profile centre for a cardinal point.
+
+    buildingSMART IfcCardinalPointReference: 1 bottom left, 2 bottom centre,
+    3 bottom right, 4 mid-depth left, 5 mid-depth centre, 6 mid-depth right,
+    7 top left, 8 top centre, 9 top right, 10 geometric centroid. The point
+    named lies on the axis, so the centre sits the other way.
+    """
+    if cardinal_point in (5, 10):
+        return 0.0, 0.0
+    if not 1 <= cardinal_point <= 9:
+        raise ValueError(f"cardinal point {cardinal_point} not in 1..10")
+    col = (cardinal_point - 1) % 3  # 0 left, 1 centre, 2 right
+    row = (cardinal_point - 1) // 3  # 0 bottom, 1 mid, 2 top
+    px = (-0.5, 0.0, 0.5)[col] * width
+    py = (-0.5, 0.0, 0.5)[row] * depth
+    return -px, -py

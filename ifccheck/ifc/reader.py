@@ -22,7 +22,6 @@ from shapely.ops import unary_union
 
 from ifccheck.errors import ModelError
 from ifccheck.ifc import geometry as geo
-from ifccheck.ifc.author import cardinal_offset
 from ifccheck.ifc.profiles import (
     ResolvedProfile,
     resolve_material,
@@ -284,7 +283,9 @@ class _Reader:
                     return (a0 + offset) * self.scale, (a1 + offset) * self.scale, up, "axis"
                 up, across = _section_frame(obj, t)
                 cp = self._cardinal_point(element)
-                ox, oy = cardinal_offset(cp, profile.depth / self.scale, profile.width / self.scale)
+                ox, oy = geo.cardinal_offset(
+                    cp, profile.depth / self.scale, profile.width / self.scale
+                )
                 offset = ox * across + oy * up
                 if cp not in (5, 10):
                     notes.append(f"centroid offset from the axis by cardinal point {cp}")

@@ -36,7 +36,7 @@ import ifcopenshell.guid
 import ifcopenshell.ifcopenshell_wrapper as wrapper
 import ifcopenshell.util.unit
 
-from ifccheck.report.atomic import atomic_path
+from ifccheck.atomic import atomic_path
 from ifccheck.results import BeamResult, CheckResult
 
 PSET_NAME = "ifccheck_BeamCheck"

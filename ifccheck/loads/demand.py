@@ -52,11 +52,11 @@ from ifccheck.loads.statics import (
     PointLoad,
     UnstableBeamError,
     analyse_beams,
-    gc_paused,
     spans_of,
 )
 from ifccheck.loads.tributary import DeckSpan, Tributary, compute_tributary
 from ifccheck.model import Member, Model, Slab
+from ifccheck.perf import gc_paused
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import DemandOut, LineLoadOut, PointLoadOut
 from ifccheck.units import G, parse_quantity

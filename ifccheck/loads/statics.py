@@ -25,15 +25,14 @@ positive, reactions upward positive.
 
 from __future__ import annotations
 
-import gc
 import itertools
-from collections.abc import Iterator, Mapping, Sequence
-from contextlib import contextmanager
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 
 import numpy as np
 
 from ifccheck.errors import UnstableBeamError
+from ifccheck.perf import gc_paused
 
 # Nodes closer than this fraction of L are one node; supports closer than
 # SUPPORT_MERGE × L (plus 1 mm) are one support.
@@ -42,21 +41,6 @@ SUPPORT_MERGE = 1e-3
 # Loads and supports may lie this far outside [0, L] (rounding of geometry).
 OUTSIDE_TOLERANCE = 0.005  # m
 _CHUNK = 32768  # stations evaluated per step
-
-
-@contextmanager
-def gc_paused() -> Iterator[None]:
-    """Pause the cyclic garbage collector for a bulk stage: it builds many
-    small, long-lived objects and no reference cycles, and the collector
-    would rescan the growing heap over and over (a third of the run time of
-    the demand stage at 10k beams)."""
-    was = gc.isenabled()
-    gc.disable()
-    try:
-        yield
-    finally:
-        if was:
-            gc.enable()
 
 
 @dataclass(frozen=True)

@@ -28,8 +28,8 @@ from shapely.geometry.base import BaseGeometry
 from shapely.geometry.polygon import orient
 
 from ifccheck.config import Settings, StoreyLoads, deck_span_degrees
-from ifccheck.loads.statics import gc_paused
 from ifccheck.model import Member, MemberRole, Model, Slab
+from ifccheck.perf import gc_paused
 
 # Beams whose plan directions differ by less than this are parallel.
 FAMILY_TOLERANCE = 3.0  # degrees

@@ -23,7 +23,7 @@ from bcf.v2.topic import TopicHandler
 from bcf.v2.visinfo import VisualizationInfoHandler
 from xsdata.models.datatype import XmlDateTime
 
-from ifccheck.report.atomic import atomic_path
+from ifccheck.atomic import atomic_path
 from ifccheck.report.display import DisplayUnits
 from ifccheck.report.wording import (
     beam_issue_description,

@@ -15,8 +15,8 @@ from collections.abc import Callable, Sequence
 from pathlib import Path
 from typing import Any
 
+from ifccheck.atomic import write_text
 from ifccheck.reasons import reason_code, reason_text
-from ifccheck.report.atomic import write_text
 from ifccheck.report.display import DisplayUnits
 from ifccheck.report.wording import change_reasons, diff_names
 from ifccheck.results import BeamChange, BeamResult, CheckResult, DiffResult

@@ -14,11 +14,12 @@ from html import escape
 from pathlib import Path
 
 from ifccheck import CAUTION
+from ifccheck.atomic import write_text
+from ifccheck.perf import gc_paused
 from ifccheck.reasons import reason_text
-from ifccheck.report.atomic import write_text
 from ifccheck.report.colours import NOT_CHECKED, SEVERITY_COLOURS, ratio_colour, text_colour_on
 from ifccheck.report.display import DisplayUnits
-from ifccheck.report.json_out import collector_paused, diff_summary
+from ifccheck.report.json_out import diff_summary
 from ifccheck.report.svg import (
     attr,
     check_legend_svg,
@@ -406,7 +407,7 @@ def report_html(result: CheckResult, units: str) -> str:
 
 def write_report_html(result: CheckResult, path: Path, units: str) -> Path:
     """Write ``<stem>.report.html`` atomically; return its path."""
-    with collector_paused():
+    with gc_paused():
         text = report_html(result, units)
     return write_text(path, text)
 
@@ -539,6 +540,6 @@ def diff_html(diff: DiffResult, units: str) -> str:
 
 def write_diff_html(diff: DiffResult, path: Path, units: str) -> Path:
     """Write ``diff.html`` atomically; return its path."""
-    with collector_paused():
+    with gc_paused():
         text = diff_html(diff, units)
     return write_text(path, text)

@@ -8,10 +8,8 @@ a line of its own, so large results stay fast to write and easy to grep.
 
 from __future__ import annotations
 
-import contextlib
 import dataclasses
 import enum
-import gc
 import json
 import math
 from collections import Counter
@@ -19,8 +17,9 @@ from collections.abc import Mapping
 from pathlib import Path, PurePath
 from typing import Any
 
+from ifccheck.atomic import write_text
+from ifccheck.perf import gc_paused
 from ifccheck.reasons import reason_code, reason_text
-from ifccheck.report.atomic import write_text
 from ifccheck.report.display import DisplayUnits
 from ifccheck.report.wording import change_reasons, diff_names
 from ifccheck.results import (
@@ -365,31 +364,15 @@ def dumps(doc: dict[str, Any]) -> str:
     return "{\n" + ",\n".join(parts) + "\n}\n"
 
 
-@contextlib.contextmanager
-def collector_paused():
-    """Pause the cyclic garbage collector while building many small containers.
-
-    The documents hold no reference cycles; without the pause, the collector's
-    repeated full passes over the growing document cost several times the build.
-    """
-    was_enabled = gc.isenabled()
-    gc.disable()
-    try:
-        yield
-    finally:
-        if was_enabled:
-            gc.enable()
-
-
 def write_results_json(result: CheckResult, path: Path, detail: bool = False) -> Path:
     """Write ``<stem>.results.json`` atomically; return its path."""
-    with collector_paused():
+    with gc_paused():
         text = dumps(results_document(result, detail))
     return write_text(path, text)
 
 
 def write_diff_json(diff: DiffResult, path: Path, units: str | None = None) -> Path:
     """Write ``diff.json`` atomically; return its path."""
-    with collector_paused():
+    with gc_paused():
         text = dumps(diff_document(diff, units))
     return write_text(path, text)
