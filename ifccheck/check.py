@@ -76,9 +76,6 @@ def run_check(
     warnings: list[tuple[str, str]] = list(model.warnings) + list(framing.warnings)
     if demands_path is not None:
         overrides = load_demand_csv(Path(demands_path))
-        known = {m.guid for m in model.members}
-        for guid in sorted(set(overrides) - known):
-            warnings.append((guid, f"demand file names GUID {guid}, which is not in the model"))
     demand = compute_demand(model, framing, settings, overrides)
     warnings += [w for w in demand.warnings if w not in warnings]
     standard = get_standard(settings.design.standard)

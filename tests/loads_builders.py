@@ -15,7 +15,8 @@ import networkx as nx
 from framing_builders import w_section
 from shapely.geometry import Polygon, box
 
-from ifccheck.framing.types import Framing, MemberFraming, Support
+from ifccheck.framing.graph import load_path_order
+from ifccheck.framing.types import Framing, FramingEdge, MemberFraming, Support
 from ifccheck.model import (
     MaterialCategory,
     Member,
@@ -112,10 +113,14 @@ def framing(
     edges: Iterable[tuple[str, str, float, str | None]] = (),
 ) -> Framing:
     """A Framing from {beam: [(station, by, by_class, end), ...]}; ``edges`` are
-    (carried, host, station along host, end) graph edges."""
+    (carried, host, station along host, end) graph edges. The load path comes
+    from the supports, as the framing graph works it out; ``order`` ranks the
+    members within a level."""
     g = nx.MultiDiGraph()
     for c, h, st, end in edges:
-        g.add_edge(c, h, station=st, kind="framing", by=c, end=end, flange="top")
+        # ``at`` (along the carried beam) matters only for intermediate points, never built here
+        edge = FramingEdge(c, h, st, 0.0, "framing", end, "top")
+        g.add_edge(c, h, edge=edge)
     members = {}
     for guid, sups in supports.items():
         mf = MemberFraming(guid, [Support(s, by, cls, end) for s, by, cls, end in sups])
@@ -125,7 +130,12 @@ def framing(
         for s in mf.supports:
             if s.by in members:
                 members[s.by].carries.append(guid)
-    return Framing(g, members, list(order))
+    nodes = list(dict.fromkeys([*order, *members]))
+    support_edges = [
+        (g_, s.by) for g_, mf in members.items() for s in mf.supports if s.by in members
+    ]
+    load_order, levels, cycles = load_path_order(nodes, support_edges)
+    return Framing(g, members, load_order, levels, cycles)
 
 
 def bay_30ft(opening: Polygon | None = None, slab_thickness: float = 0.14) -> tuple[Model, Framing]:

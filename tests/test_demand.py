@@ -194,7 +194,9 @@ def test_override_from_csv(tmp_path: Path) -> None:
     assert b1.max_moment == pytest.approx(250 * kipft) and b1.max_shear == pytest.approx(30 * kip)
     # no shear given: the computed shear stays
     assert g1.max_moment == pytest.approx(400 * kipft) and g1.governing_shear == "1.2D+1.6L"
-    assert ("NOPE", "demand file: no floor beam with this GUID in the model") in r.warnings
+    assert [w for w in r.warnings if w[0] == "NOPE"] == [
+        ("NOPE", "the demand file names NOPE, which is no floor beam of the model")
+    ]
     assert r.beams["B2"].source == "computed"
     # the diagram keeps the computed shape (for Cb) scaled to the analysis peak
     d = b1.governing_diagram()
@@ -271,7 +273,9 @@ def test_cycle_and_unsupported_beams_are_reported_and_the_rest_computed() -> Non
     for g in ("A", "K"):
         assert r.beams[g].reason.code is NotChecked.LOAD_PATH_CYCLE
         assert r.beams[g].analysis is None
-    assert any("load-path cycle" in msg for _, msg in r.warnings)
+    assert [set(c) for c in fr.cycles] == [{"A", "K"}]  # found once, by the framing graph
+    assert r.beams["A"].reason.text.startswith("load-path cycle A → K → A")
+    assert not any("cycle" in msg for _, msg in r.warnings)  # the graph warns, not demand
     assert r.beams["U"].reason.code is NotChecked.UNSUPPORTED
     assert r.beams["S"].reason.code is NotChecked.UNSTABLE
     assert r.beams["S"].reason.text.startswith("unstable: 1 support")

@@ -66,9 +66,9 @@ def test_infill_at_third_points_brace_the_girder_at_exact_stations():
     assert i1.state == "supported" and i1.free_ends == []
     # the supported ends are brace points restraining both flanges (common practice)
     assert [(b.kind, b.flange) for b in i1.brace_points] == [("support", "both")] * 2
-    edge = f.graph.get_edge_data("I1", "G1")[0]
-    assert edge["kind"] == "framing" and edge["end"] == "start" and edge["by"] == "I1"
-    assert edge["station"] == pytest.approx(3.0, abs=MM)
+    edge = f.edges("I1", "G1")[0]
+    assert edge.kind == "framing" and edge.end == "start" and edge.by == "I1"
+    assert edge.station == pytest.approx(3.0, abs=MM)
 
 
 def test_setback_of_13_mm_connects_and_300_mm_does_not():
@@ -162,10 +162,10 @@ def test_girder_modelled_to_column_centrelines_and_to_column_faces():
     assert [(s.by, s.end) for s in g1.supports] == [("C1", "start"), ("C2", "end")]
     assert [(s.by, s.end) for s in g2.supports] == [("C3", "start"), ("C4", "end")]
     assert g1.state == g2.state == "supported"
-    assert f.graph.get_edge_data("G1", "C1")[0]["kind"] == "support"
+    assert f.edges("G1", "C1")[0].kind == "support"
     # the column's plan distance is measured from its axis: the end at the axis
     # lies inside the column body, the station is along the column
-    assert f.graph.get_edge_data("G1", "C1")[0]["station"] == pytest.approx(z, abs=MM)
+    assert f.edges("G1", "C1")[0].station == pytest.approx(z, abs=MM)
     assert f.load_order.index("G1") < f.load_order.index("C1")
 
 
@@ -228,4 +228,4 @@ def test_struts_and_braces_get_framing_records_columns_do_not():
     f = analyse_framing(model(bay([s])))
     assert {"G1", "G2", "S1"} <= set(f.members)
     assert not any(g.startswith("C") for g in f.members)
-    assert f.graph.get_edge_data("S1", "G1")[0]["kind"] == "brace"
+    assert f.edges("S1", "G1")[0].kind == "brace"

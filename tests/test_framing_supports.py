@@ -31,8 +31,8 @@ def test_cantilever_with_backspan_over_a_column():
     assert [(s.by, s.end) for s in b.supports] == [("C1", "start"), ("C2", None)]
     assert b.supports[1].station == pytest.approx(6.0, abs=MM)
     assert b.counting_braces("bottom") == pytest.approx([0.0, 6.0], abs=MM)
-    edge = f.graph.get_edge_data("B", "C2")[0]
-    assert edge["kind"] == "support" and edge["end"] is None
+    edge = f.edges("B", "C2")[0]
+    assert edge.kind == "support" and edge.end is None
 
 
 def test_beam_continuing_through_a_column_is_supported_there():
@@ -182,12 +182,13 @@ def test_support_cycle_is_reported_and_the_rest_still_ordered():
 
 
 def test_load_path_order_condenses_a_cycle():
-    order, cycles = load_path_order(
+    order, levels, cycles = load_path_order(
         ["a", "b", "c", "d"], [("a", "b"), ("b", "c"), ("c", "b"), ("c", "d")]
     )
     assert order[0] == "a" and order[-1] == "d"
     assert set(order[1:3]) == {"b", "c"}
-    assert [set(c) for c in cycles] == [{"b", "c"}]
+    assert levels == [["a"], ["b", "c"], ["d"]]  # the cycle is one step of one level
+    assert cycles == [["b", "c"]]
 
 
 def test_zero_length_member_is_flagged_not_fatal():

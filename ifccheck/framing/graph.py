@@ -11,7 +11,14 @@ from ifccheck.framing.anchorage import Anchorage
 from ifccheck.framing.connections import KIND_BRACE, KIND_FRAMING, KIND_SUPPORT, Links
 from ifccheck.framing.index import FALLBACK_DEPTH, FALLBACK_WIDTH, MemberGeometry
 from ifccheck.framing.slabs import Interval
-from ifccheck.framing.types import BracePoint, EndName, Framing, MemberFraming, Support
+from ifccheck.framing.types import (
+    BracePoint,
+    EndName,
+    Framing,
+    FramingEdge,
+    MemberFraming,
+    Support,
+)
 from ifccheck.model import Model
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import NotChecked, Reason
@@ -127,21 +134,8 @@ def _build(
         counts, reason = True, None
         if kind == KIND_BRACE and c in reasons:
             counts, reason = False, reasons[c]
-        edges.append(
-            (
-                cg,
-                hg,
-                {
-                    "station": station,
-                    "kind": kind,
-                    "by": cg,
-                    "end": end,
-                    "flange": flange,
-                    "at": at,
-                    "counts": counts,
-                },
-            )
-        )
+        edge = FramingEdge(cg, hg, station, at, kind, end, flange, counts)
+        edges.append((cg, hg, {"edge": edge}))
         own = framings[c]
         own.supports.append(Support(station=at, by=hg, by_class=h_class, end=end))
         own.brace_points.append(BracePoint(station=at, kind="support", by=hg, flange="both"))
@@ -193,47 +187,58 @@ def _build(
                 mf.notes.append(NOTE_SLAB_OFF)
 
     order_nodes = [g for i, g in enumerate(geom.guids) if geom.in_graph[i]]
-    load_order, cycles = load_path_order(order_nodes, support_edges)
+    load_order, levels, cycles = load_path_order(order_nodes, support_edges)
     for cyc in cycles:
-        path = " → ".join([*cyc, cyc[0]])
         warnings.append(
             (
                 cyc[0],
-                f"support cycle {path}: these members bear on each other (model problem); "
-                "load path taken through them as one group",
+                f"support cycle {cycle_path(cyc)}: these members bear on each other "
+                "(a model problem); their demand is not computed",
             )
         )
     return Framing(
         graph=graph,
         members={geom.guids[i]: mf for i, mf in framings.items()},
         load_order=load_order,
+        load_levels=levels,
         cycles=cycles,
         warnings=warnings,
     )
 
 
+def cycle_path(cycle: list[str]) -> str:
+    """'A → B → C → A'."""
+    return " → ".join([*cycle, cycle[0]])
+
+
 def load_path_order(
     nodes: list[str], edges: list[tuple[str, str]]
-) -> tuple[list[str], list[list[str]]]:
-    """Topological order of carried → carrier; strongly connected groups
-    (support cycles) are condensed to one step and reported."""
+) -> tuple[list[str], list[list[str]], list[list[str]]]:
+    """The load path, carried → carrier: (order, levels, cycles).
+
+    ``levels`` are topological generations: each member comes after every
+    member it carries. Strongly connected groups (support cycles) are
+    condensed to one step of one level and reported in ``cycles``.
+    """
     d = nx.DiGraph()
     d.add_nodes_from(nodes)
     d.add_edges_from(edges)
-    try:
-        return list(nx.topological_sort(d)), []
-    except nx.NetworkXUnfeasible:
-        pass
     rank = {g: i for i, g in enumerate(nodes)}
     sccs = list(nx.strongly_connected_components(d))
     cond = nx.condensation(d, sccs)
-    order: list[str] = []
+    levels: list[list[str]] = []
     cycles: list[list[str]] = []
-    for n in nx.topological_sort(cond):
-        group = sorted(cond.nodes[n]["members"], key=rank.__getitem__)
-        order.extend(group)
-        if len(group) > 1:
-            ring = [u for u, _ in nx.find_cycle(d.subgraph(group))]
-            cycles.append(ring + [g for g in group if g not in ring])
+    for generation in nx.topological_generations(cond):
+        level: list[str] = []
+        for n in generation:
+            group = sorted(cond.nodes[n]["members"], key=rank.__getitem__)
+            level.extend(group)
+            if len(group) > 1:
+                ring = [u for u, _ in nx.find_cycle(d.subgraph(group))]
+                first = ring.index(min(ring, key=rank.__getitem__))  # start at the first member
+                ring = ring[first:] + ring[:first]
+                cycles.append(ring + [g for g in group if g not in ring])
+        levels.append(sorted(level, key=rank.__getitem__))
     cycles.sort(key=lambda c: min(rank[g] for g in c))
-    return order, cycles
+    order = [g for level in levels for g in level]
+    return order, levels, cycles

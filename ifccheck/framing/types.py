@@ -42,6 +42,20 @@ class BracePoint:
     reason: Reason | None = None  # why it does not count, when counts is False
 
 
+@dataclass(frozen=True)
+class FramingEdge:
+    """One directed edge of the framing graph: a member end (or point) meeting a host."""
+
+    by: str  # GUID of the connecting member (the edge's source)
+    host: str  # GUID of the member or wall it meets (the edge's target)
+    station: float  # along the host
+    at: float  # along the connecting member
+    kind: BraceKind  # "framing", "brace" or "support" (as the host sees it)
+    end: EndName | None  # which end of the connecting member, None for an intermediate point
+    flange: Flange  # which flange of the host it restrains
+    counts: bool = True  # False where the brace reaches no anchor
+
+
 @dataclass
 class MemberFraming:
     """Framing facts for one beam-like member."""
@@ -72,15 +86,28 @@ class MemberFraming:
 class Framing:
     """The framing graph and its per-member digest.
 
-    Graph nodes are member GUIDs. Directed edges run from the connecting
-    member to the host it connects to, with attributes ``station`` (along the
-    host), ``kind`` ("framing", "brace" or "support"), ``by`` (the connecting
-    member's GUID), ``end`` (which end of the connecting member) and ``flange``
-    (which flange of the host it restrains).
+    Graph nodes are member (and wall) GUIDs. Directed edges run from the
+    connecting member to the host it connects to; each carries its
+    :class:`FramingEdge` under the key ``edge``. The load path is worked out
+    here once: ``load_levels`` are the generations of the carried → carrier
+    order (every member after all it carries; a support cycle is one step),
+    ``cycles`` the support cycles found.
     """
 
     graph: nx.MultiDiGraph
     members: dict[str, MemberFraming]
     load_order: list[str]  # carried before carrier: infill → girder → column
+    load_levels: list[list[str]] = field(default_factory=list)
     cycles: list[list[str]] = field(default_factory=list)
     warnings: list[tuple[str, str]] = field(default_factory=list)  # (guid, message)
+
+    def edges(self, by: str, host: str) -> list[FramingEdge]:
+        """The edges from member ``by`` to ``host`` (none when they do not meet)."""
+        if not self.graph.has_node(by):
+            return []
+        data = self.graph.get_edge_data(by, host) or {}
+        return [d["edge"] for d in data.values()]
+
+    @property
+    def in_cycle(self) -> set[str]:
+        return {g for cycle in self.cycles for g in cycle}

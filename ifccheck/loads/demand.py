@@ -27,11 +27,11 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Literal
 
-import networkx as nx
 import numpy as np
 
 from ifccheck.config import Settings, StoreyLoads
 from ifccheck.errors import DemandFileError, QuantityError
+from ifccheck.framing.graph import cycle_path
 from ifccheck.framing.types import Framing, Support
 from ifccheck.loads.combinations import (
     LIVE_DEFLECTION,
@@ -255,19 +255,14 @@ def _lines(members: list[Member]) -> dict[str, _Line]:
 def _host_station(framing: Framing, carried: _Line, guid: str, sup: Support, host: _Line) -> float:
     """Station along the host where the carried beam's support point meets it:
     the framing graph's edge station, else the projection onto the host's line."""
-    data = framing.graph.get_edge_data(guid, sup.by) if framing.graph.has_node(guid) else None
-    best = None
-    for d in (data or {}).values():
-        if "station" not in d:
-            continue
-        if sup.end is not None and d.get("end") == sup.end:
-            return float(d["station"])
-        at = d.get("at")
-        closer = best is None or (
-            at is not None and abs(at - sup.station) < abs(best[0] - sup.station)
-        )
-        if sup.end is None and at is not None and closer:
-            best = (at, float(d["station"]))
+    best: tuple[float, float] | None = None
+    for e in framing.edges(guid, sup.by):
+        if sup.end is not None and e.end == sup.end:
+            return e.station
+        if sup.end is None and (
+            best is None or abs(e.at - sup.station) < abs(best[0] - sup.station)
+        ):
+            best = (e.at, e.station)
     if best is not None:
         return best[1]
     p = carried.start + carried.direction * sup.station
@@ -275,37 +270,23 @@ def _host_station(framing: Framing, carried: _Line, guid: str, sup: Support, hos
     return min(max(s, 0.0), host.length)
 
 
-def _levels(
-    beams: list[str], carries: Mapping[str, set[str]], rank: Mapping[str, int]
-) -> tuple[list[list[str]], list[list[str]]]:
-    """Solve order as levels (a beam after every beam it carries) and the support
-    cycles found; cycle members are left out of the levels."""
-    pool = set(beams)
-    remaining = {b: set(carries.get(b, ())) & pool for b in beams}
-    done: set[str] = set()
-    levels: list[list[str]] = []
-    cycles: list[list[str]] = []
-    while remaining:
-        ready = sorted((b for b, deps in remaining.items() if deps <= done), key=rank.get)
-        if not ready:
-            g = nx.DiGraph()
-            g.add_nodes_from(remaining)
-            g.add_edges_from((c, b) for b, deps in remaining.items() for c in deps - done)
-            stuck: set[str] = set()
-            for comp in nx.strongly_connected_components(g):
-                if len(comp) > 1 or any(g.has_edge(n, n) for n in comp):
-                    ring = sorted(comp, key=rank.get)
-                    cycles.append(ring)
-                    stuck |= comp
-            for b in stuck:
-                del remaining[b]
-            done |= stuck  # they deliver nothing; their carriers go on without them
-            continue
-        levels.append(ready)
-        done.update(ready)
-        for b in ready:
-            del remaining[b]
-    return levels, cycles
+def _solve_levels(framing: Framing, result: DemandResult, beams: list[str]) -> list[list[str]]:
+    """The framing graph's load-path levels, kept to the beams that can be solved.
+
+    Members of a support cycle are not computed (the framing graph has warned
+    about the cycle); the beams that carry them go on without their load.
+    """
+    for cycle in framing.cycles:
+        path = cycle_path(cycle)
+        for g in cycle:
+            bd = result.beams.get(g)
+            if bd is not None and bd.reason is None:
+                bd.reason = Reason.of(NotChecked.LOAD_PATH_CYCLE, path=path)
+    solvable = {g for g in beams if result.beams[g].reason is None}
+    levels = [[g for g in level if g in solvable] for level in framing.load_levels]
+    placed = {g for level in levels for g in level}
+    rest = [g for g in beams if g in solvable and g not in placed]  # outside the graph
+    return [level for level in levels if level] + ([rest] if rest else [])
 
 
 def compute_demand(
@@ -338,9 +319,6 @@ def _compute_demand(
     )
     beams = [members[g] for g in trib.beams]
     lines = _lines(beams)
-    rank = {g: i for i, g in enumerate(framing.load_order)}
-    for i, m in enumerate(beams):
-        rank.setdefault(m.guid, len(framing.load_order) + i)
 
     own: dict[str, list[LineLoadItem]] = {}
     for m in beams:
@@ -369,18 +347,7 @@ def _compute_demand(
         if not mf.supports:
             bd.reason = Reason.of(NotChecked.UNSUPPORTED)
 
-    carries: dict[str, set[str]] = {}
-    for m in beams:
-        for s in result.beams[m.guid].supports:
-            if s.by in result.beams:
-                carries.setdefault(s.by, set()).add(m.guid)
-    solvable = [m.guid for m in beams if not result.beams[m.guid].reason]
-    levels, cycles = _levels(solvable, carries, rank)
-    for ring in cycles:
-        path = " → ".join([*ring, ring[0]])
-        for g in ring:
-            result.beams[g].reason = Reason.of(NotChecked.LOAD_PATH_CYCLE, path=path)
-        result.warnings.append((ring[0], f"load-path cycle {path}: not computed"))
+    levels = _solve_levels(framing, result, [m.guid for m in beams])
 
     incoming: dict[str, list[PointLoadItem]] = {}
     for level in levels:
@@ -535,7 +502,9 @@ def _apply_overrides(
     for guid, (moment, shear) in overrides.items():
         bd = result.beams.get(guid)
         if bd is None:
-            result.warnings.append((guid, "demand file: no floor beam with this GUID in the model"))
+            result.warnings.append(
+                (guid, f"the demand file names {guid}, which is no floor beam of the model")
+            )
             continue
         bd.source = "analysis"
         bd.max_moment = abs(moment)
