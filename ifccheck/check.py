@@ -37,11 +37,11 @@ from ifccheck.results import (
     BracePointOut,
     CheckResult,
     ModelInfo,
+    SampledDiagram,
     SegmentResult,
     SlabOutline,
 )
-from ifccheck.results import Diagram as DiagramOut
-from ifccheck.segments import SegmentSpec, beam_segments
+from ifccheck.segments import SegmentSpec, beam_segments, compression_moment
 
 # A segment whose compression-flange moment is below this share of the beam's
 # largest moment does not load that flange and is not listed.
@@ -354,8 +354,8 @@ def _segment_demands(
     # node stations appear twice and may differ by rounding: keep them monotone
     x = np.maximum.accumulate(np.asarray(d.x, dtype=float))
     moment = np.asarray(d.M, dtype=float)
-    sagging = segment_moments(x, np.maximum(moment, 0.0), starts, ends)[0]
-    hogging = segment_moments(x, np.maximum(-moment, 0.0), starts, ends)[0]
+    sagging = segment_moments(x, compression_moment("top", moment), starts, ends)[0]
+    hogging = segment_moments(x, compression_moment("bottom", moment), starts, ends)[0]
     demand = np.maximum(sagging, hogging) if either_flange else np.where(top, sagging, hogging)
     cb = standard.moment_gradient(x, moment, starts, ends, tips)
     return demand, np.asarray(cb, dtype=float)
@@ -395,23 +395,9 @@ def _strength_diagrams(bd: BeamDemand, length: float, out: BeamResult) -> list:
             out.notes.append(
                 f"analysis moment applied to the shape of {name} (scaled by {scale:.3f})"
             )
-            return [("analysis", _Scaled(shape, scale))]
+            return [("analysis", shape.scaled(scale))]
     out.notes.append("analysis moment taken as uniform along the beam (Cb = 1.0)")
     return [("analysis", _UniformMoment(length, bd.max_moment))]
-
-
-class _Scaled:
-    """A computed diagram scaled to an analysis moment, keeping its shape for Cb."""
-
-    def __init__(self, d: Diagram, scale: float) -> None:
-        self._d, self._k = d, scale
-        self.x, self.M, self.nodes, self.length = d.x, d.M * scale, d.nodes, d.length
-
-    def moment_at(self, stations) -> np.ndarray:
-        return self._d.moment_at(stations) * self._k
-
-    def shear_at(self, stations) -> np.ndarray:
-        return self._d.shear_at(stations) * self._k
 
 
 def _shear(
@@ -455,10 +441,10 @@ def _deflection(out: BeamResult, m: Member, bd: BeamDemand, settings: Settings) 
     out.deflection_ratio = max(ratios) if ratios else None
 
 
-def _diagram_out(d: Diagram) -> DiagramOut:
+def _diagram_out(d: Diagram) -> SampledDiagram:
     xs = np.linspace(0.0, float(d.length), DIAGRAM_POINTS)
     xs = np.union1d(xs, d.nodes)
-    return DiagramOut(
+    return SampledDiagram(
         stations=[float(v) for v in xs],
         moment=[float(v) for v in d.moment_at(xs)],
         shear=[float(v) for v in d.shear_at(xs)],

@@ -165,7 +165,7 @@ class Member:
 
     @property
     def is_vertical(self) -> bool:
-        return abs(self.direction[2]) > 0.9
+        return bool(abs(self.direction[2]) > 0.9)
 
 
 @dataclass

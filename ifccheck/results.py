@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from enum import StrEnum
-from typing import Literal
+from typing import Any, Literal
 
 from ifccheck.reasons import Reason
 
@@ -80,8 +80,8 @@ class DemandOut:
 
 
 @dataclass
-class Diagram:
-    """Governing-combination moment and shear along the beam, for the report."""
+class SampledDiagram:
+    """Governing-combination moment and shear sampled along the beam, for the report."""
 
     stations: list[float]
     moment: list[float]  # N·m, sagging positive
@@ -101,7 +101,7 @@ class BeamResult:
     end: tuple[float, float, float]
     length: float
     span: float  # longest distance between adjacent supports (m)
-    supports: list[dict] = field(default_factory=list)  # {station, by}
+    supports: list[dict[str, Any]] = field(default_factory=list)  # {station, by}
     brace_points: list[BracePointOut] = field(default_factory=list)
     continuous_bracing: list[tuple[float, float]] = field(default_factory=list)
     free_ends: list[str] = field(default_factory=list)
@@ -122,7 +122,7 @@ class BeamResult:
     reason: Reason | None = None  # why it is not_checked
     notes: list[str] = field(default_factory=list)
     demand: DemandOut | None = None
-    diagram: Diagram | None = None
+    diagram: SampledDiagram | None = None
     # design strength versus Lb for this beam's section, steel, Cb and method:
     # (Lb m, strength N·m) points, for the report's capacity curve
     curve: list[tuple[float, float]] | None = None
@@ -155,7 +155,7 @@ class CheckResult:
     tool: str
     version: str
     model: ModelInfo
-    settings: dict
+    settings: dict[str, Any]
     standard: str
     method: str
     checked_at: str  # ISO 8601 date-time, UTC
@@ -166,7 +166,7 @@ class CheckResult:
     caution: str = ""
 
     def summary(self) -> dict[str, int]:
-        counts = {s: 0 for s in STATUSES}
+        counts: dict[str, int] = {s: 0 for s in STATUSES}
         for b in self.beams:
             counts[b.status] += 1
         counts["total"] = len(self.beams)

@@ -115,7 +115,7 @@ def beam_segments(
             if bp.counts and bp.flange in (flange, "both"):
                 braces.setdefault(round(bp.station, 6), bp.by)
         continuous = framing.continuous_bracing if (flange == "top" and slab_bracing) else []
-        out += flange_segments(length, braces, continuous, flange)  # type: ignore[arg-type]
+        out += flange_segments(length, braces, continuous, flange)
     return out
 
 

@@ -32,11 +32,11 @@ from ifccheck.results import (
     ChangeCause,
     CheckResult,
     DemandOut,
-    Diagram,
     DiffResult,
     LineLoadOut,
     ModelInfo,
     PointLoadOut,
+    SampledDiagram,
     SegmentResult,
     SlabOutline,
 )
@@ -210,9 +210,9 @@ def _segments(
     return out
 
 
-def _diagram(w: float, length: float, n: int = 41) -> Diagram:
+def _diagram(w: float, length: float, n: int = 41) -> SampledDiagram:
     xs = [length * i / (n - 1) for i in range(n)]
-    return Diagram(
+    return SampledDiagram(
         stations=xs,
         moment=[_uniform(w, length, x) for x in xs],
         shear=[w * (length / 2 - x) for x in xs],

@@ -28,8 +28,11 @@ from loads_builders import (
 )
 from shapely.geometry import box
 
+from ifccheck.check import check_beams
 from ifccheck.config import Settings, settings_from_dict
+from ifccheck.design import get_standard
 from ifccheck.errors import DemandFileError
+from ifccheck.loads.combinations import LIVE_DEFLECTION, TOTAL_DEFLECTION
 from ifccheck.loads.demand import compute_demand, load_demand_csv
 from ifccheck.reasons import NotChecked
 from ifccheck.results import DemandOut
@@ -142,10 +145,10 @@ def test_deflections_by_case() -> None:
     EI = E_STEEL * 301 * IN**4  # W16X26 Ix = 301 in⁴ (AISC Shapes Database v16.0)
     b1 = r.beams["B1"]
     # Table 3-23 case 1: Δ = 5wL⁴/384EI at midspan
-    assert b1.live_deflection().deflection_at(L / 2) == pytest.approx(
+    assert b1.diagram(LIVE_DEFLECTION).deflection_at(L / 2) == pytest.approx(
         5 * wl * L**4 / (384 * EI), rel=1e-9
     )
-    assert b1.total_deflection().deflection_at(L / 2) == pytest.approx(
+    assert b1.diagram(TOTAL_DEFLECTION).deflection_at(L / 2) == pytest.approx(
         5 * (wd + wl) * L**4 / (384 * EI), rel=1e-9
     )
     assert b1.spans == [(0.0, pytest.approx(L), "span")]
@@ -198,11 +201,18 @@ def test_override_from_csv(tmp_path: Path) -> None:
         ("NOPE", "the demand file names NOPE, which is no floor beam of the model")
     ]
     assert r.beams["B2"].source == "computed"
-    # the diagram keeps the computed shape (for Cb) scaled to the analysis peak
-    d = b1.governing_diagram()
-    assert d.max_moment == pytest.approx(250 * kipft)
-    assert d.moment_at(L / 4) / d.moment_at(L / 2) == pytest.approx(0.75)  # wx(L-x)/2 shape
-    assert r.beams["B2"].governing_diagram().max_moment == pytest.approx(r.beams["B2"].max_moment)
+    # the check keeps the computed shape (for Cb) scaled to the analysis peak
+    members = {mm.guid: mm for mm in m.members}
+    (out,) = check_beams(
+        [(members["B1"], fr.members["B1"], b1)], get_standard("AISC 360-16"), Settings()
+    )
+    d = out.diagram
+    moment = dict(zip(d.stations, d.moment, strict=True))
+    assert max(d.moment) == pytest.approx(250 * kipft)
+    L = 30 * FT
+    assert moment[min(moment, key=lambda x: abs(x - L / 4))] / max(d.moment) == pytest.approx(
+        0.75, abs=2e-3
+    )  # the wx(L - x)/2 shape of the uniform load, sampled at 161 stations
 
 
 def test_csv_units_in_cells(tmp_path: Path) -> None:

@@ -6,12 +6,16 @@ import json
 import sys
 import time
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import click
 
 from ifccheck import CAUTION
 from ifccheck.report.display import DisplayUnits
 from ifccheck.units import UnitSystem
+
+if TYPE_CHECKING:
+    from ifccheck.results import CheckResult
 
 
 def _read(path: str, default_grade: str = "A992"):
@@ -84,7 +88,7 @@ def _units(units: str | None, length_unit: str) -> UnitSystem:
     return DisplayUnits.for_model(length_unit, units).system
 
 
-def _summary_line(result, units: str) -> str:
+def _summary_line(result: CheckResult, units: UnitSystem) -> str:
     from ifccheck.units import format_length, format_moment
 
     s = result.summary()
@@ -93,7 +97,7 @@ def _summary_line(result, units: str) -> str:
         f"{result.method}: {s['pass']} pass, {s['fail']} fail, {s['not_checked']} not checked"
     )
     worst = max(
-        (b for b in result.beams if b.ratio is not None), key=lambda b: b.ratio, default=None
+        (b for b in result.beams if b.ratio is not None), key=lambda b: b.ratio or 0.0, default=None
     )
     if worst is not None:
         line += f"; highest ratio {worst.ratio:.2f} at {worst.name or worst.guid} ({worst.profile}"
@@ -166,8 +170,8 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
     for guid, message in result.warnings:
         click.echo(f"warning: {names.get(guid, guid)}: {message}", err=True)
     click.echo(_summary_line(result, chosen))
-    names = ", ".join(p.name for p in written.values())
-    click.echo(f"results written to {Path(out_dir)}: {names}")
+    files = ", ".join(p.name for p in written.values())
+    click.echo(f"results written to {Path(out_dir)}: {files}")
     click.echo(CAUTION)
     s = result.summary()
     sys.exit(1 if s["fail"] or s["not_checked"] else 0)
@@ -207,7 +211,7 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     du, names = DisplayUnits(chosen), diff_names(result)
     for c in regressions:
         click.echo(f"  {c.name or c.guid} ({c.storey}): " + "; ".join(change_reasons(c, du, names)))
-    names = ", ".join(p.name for p in written.values())
-    click.echo(f"diff written to {Path(out_dir)}: {names}")
+    files = ", ".join(p.name for p in written.values())
+    click.echo(f"diff written to {Path(out_dir)}: {files}")
     click.echo(CAUTION)
     sys.exit(1 if regressions else 0)

@@ -92,7 +92,7 @@ def live_patterns(regions: int) -> list[tuple[int, ...]]:
             tuple(k for k in range(regions) if mask >> k & 1)
             for mask in range(1, (1 << regions) - 1)
         ]
-    sets = {(k,) for k in range(regions)}
+    sets: set[tuple[int, ...]] = {(k,) for k in range(regions)}
     sets |= {(k, k + 1) for k in range(regions - 1)}
     sets |= {tuple(range(0, regions, 2)), tuple(range(1, regions, 2))}
     return sorted(sets)

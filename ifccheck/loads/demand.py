@@ -34,9 +34,7 @@ from ifccheck.errors import DemandFileError, QuantityError
 from ifccheck.framing.graph import cycle_path
 from ifccheck.framing.types import Framing, Support
 from ifccheck.loads.combinations import (
-    LIVE_DEFLECTION,
     SERVICE,
-    TOTAL_DEFLECTION,
     Combination,
     governing,
     live_patterns,
@@ -145,28 +143,6 @@ class BeamDemand:
         if combination in self.analysis.cases:
             return self.analysis.case(combination)
         raise KeyError(f"no combination or load case named {combination!r}")
-
-    def governing_diagram(self, effect: Literal["moment", "shear"] = "moment") -> Diagram:
-        """The governing strength combination's diagram. Where the demand comes
-        from an analysis, the computed diagram of the combination that governed
-        the computation, scaled so that its peak equals the analysis value (the
-        shape of the computed loads, for Cb)."""
-        if self.analysis is None:
-            raise ValueError(f"{self.guid}: no diagram ({self.reason or 'demand from analysis'})")
-        name = self.computed_governing[0 if effect == "moment" else 1]
-        combo = next(c for c in self.combinations if c.name == name)
-        d = self.analysis.combine(combo.factors)
-        if self.source != "analysis":
-            return d
-        peak = d.max_moment if effect == "moment" else d.max_shear
-        target = self.max_moment if effect == "moment" else self.max_shear
-        return d.scaled(target / peak) if peak > 0 else d
-
-    def live_deflection(self) -> Diagram:
-        return self.diagram(LIVE_DEFLECTION)
-
-    def total_deflection(self) -> Diagram:
-        return self.diagram(TOTAL_DEFLECTION)
 
     def to_output(self) -> DemandOut:
         """The auditable summary for the results writers."""
@@ -406,7 +382,7 @@ def _compute_demand(
             if len(own_combos) != len(combos):
                 mo, sh = res.combination_maxima([c.factors for c in own_combos])
             elif res.maxima is not None:
-                mo, sh = res.maxima
+                mo, sh = list(res.maxima[0]), list(res.maxima[1])
             else:
                 mo, sh = res.combination_maxima(factors)
             (cm, bd.max_moment), (cs, bd.max_shear) = (

@@ -440,6 +440,8 @@ def _compute_tributary(model: Model, settings: Settings) -> TributaryResult:
         else:
             inferred = max(range(len(fams)), key=lambda i: fams[i].members.size, default=None)
         override = _override_angle(loads.storeys.get(storey))
+        span_angle: float | None
+        source: Literal["inferred", "settings", "none"]
         if override is not None:
             chosen = _nearest_family(fams, (override + 90.0) % 180.0)
             span_angle, source = override, "settings"
@@ -468,10 +470,12 @@ def _compute_tributary(model: Model, settings: Settings) -> TributaryResult:
 
     # nominal strips: the storey's deck family with edge extensions
     edge_ext = np.zeros(len(beams))
-    for fams in storey_families.values():
-        for f in fams:
+    for families in storey_families.values():
+        for family in families:
             # a lone beam (no spacing known) takes the floor out to the slab edge
-            edge_ext[f.members] = f.spacing if f.spacing is not None else plan_len[f.members]
+            edge_ext[family.members] = (
+                family.spacing if family.spacing is not None else plan_len[family.members]
+            )
     nrm = np.stack([-t[:, 1], t[:, 0]], axis=1)
     flip = np.einsum("ij,ij->i", nrm, fam_p) < 0  # the beam's own left is -p
     nrm[flip] *= -1.0  # now nrm is +p for every beam
@@ -511,7 +515,7 @@ def _compute_tributary(model: Model, settings: Settings) -> TributaryResult:
     to_clip: list[list[int]] = [[] for _ in beams]
     trs: list[Tributary] = []
     for i, m in enumerate(beams):
-        fam = {None: deck_family(m.storey, None)}
+        fam: dict[str | None, int | None] = {None: deck_family(m.storey, None)}
         for si in cand.get(i, []):
             fam[slabs[si].guid] = deck_family(m.storey, slabs[si])
         tr = _beam_tributary(

@@ -144,7 +144,7 @@ def _topic(
         file=[mdl.HeaderFile(filename=model_file, date=_date(created), is_external=True)]
     )
     # share the file's XML handler: a fresh one per topic rebuilds xsdata's class metadata
-    handler = TopicHandler(topic_dir=Path(guid), xml_handler=bcf_file._xml_handler)
+    handler = TopicHandler(topic_dir=Path(guid), xml_handler=bcf_file._xml_handler)  # type: ignore[arg-type]
     handler.markup = mdl.Markup(header=header, topic=topic)
     # the package's add_topic draws a random GUID; ours is stable, so register it directly
     bcf_file.topics[guid] = handler
@@ -153,7 +153,9 @@ def _topic(
 
 def _new_bcf(project: str) -> BcfXml:
     bcf_file = BcfXml.create_new(project)
-    bcf_file.project_info.project.project_id = _uuid("project", project)
+    info = bcf_file.project_info
+    assert info is not None and info.project is not None  # create_new makes both
+    info.project.project_id = _uuid("project", project)
     return bcf_file
 
 

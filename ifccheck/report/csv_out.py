@@ -120,7 +120,7 @@ def column_names(columns: Sequence[Column], du: DisplayUnits) -> list[str]:
 
 
 def _table(rows: Sequence[Any], columns: Sequence[Column], units: str) -> str:
-    du = DisplayUnits(units)
+    du = DisplayUnits(check_system(units))
     factors = [1.0 if kind is None else du.factor(kind) for _, kind, _ in columns]
     getters = [get for _, _, get in columns]
     buf = io.StringIO()

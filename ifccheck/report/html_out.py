@@ -18,7 +18,7 @@ from ifccheck.atomic import write_text
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import reason_text
 from ifccheck.report.colours import NOT_CHECKED, SEVERITY_COLOURS, ratio_colour, text_colour_on
-from ifccheck.report.display import DisplayUnits
+from ifccheck.report.display import DisplayUnits, check_system
 from ifccheck.report.json_out import diff_summary
 from ifccheck.report.svg import (
     attr,
@@ -372,7 +372,7 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str) -> str:
 
 def report_html(result: CheckResult, units: str) -> str:
     """The check report page as text."""
-    du = DisplayUnits(units)
+    du = DisplayUnits(check_system(units))
     details, note = detail_beams(result)
     linked = {b.guid for b in details}
     beams_by = _by_storey(result.beams, lambda b: b.storey)
@@ -499,7 +499,7 @@ def _added_removed_section(diff: DiffResult) -> str:
 
 def diff_html(diff: DiffResult, units: str) -> str:
     """The revision comparison page as text."""
-    du = DisplayUnits(units)
+    du = DisplayUnits(check_system(units))
     changes = {c.guid: c for c in diff.changes}
     added = set(diff.added)
     removed_ids = set(diff.removed)

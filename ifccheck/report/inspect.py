@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from collections import defaultdict
+from collections.abc import Sequence
 from typing import TYPE_CHECKING, Any
 
 from ifccheck import CAUTION, __version__
@@ -308,7 +309,7 @@ def _framing_lines(
     return out
 
 
-def _table(rows: list[tuple[str, ...]]) -> list[str]:
+def _table(rows: Sequence[tuple[str, ...]]) -> list[str]:
     widths = [max(len(r[i]) for r in rows) for i in range(len(rows[0]) - 1)]
     out = []
     for r in rows:

@@ -272,7 +272,7 @@ def diff_plan_svg(
                 ratio = "" if c.ratio_after is None else f" {c.ratio_after:.2f}"
                 labels.append(_label(frame, b, f"{b.name or b.guid}{ratio}"))
             style = f'stroke="{colour}" stroke-width="4" stroke-linecap="round"'
-            state = c.severity
+            state: str = c.severity
             tip = f"{b.name or b.guid}: {c.severity}"
             for s in c.lost_brace_points:
                 marks.append(_cross(*frame.px(*_along(b, s))))

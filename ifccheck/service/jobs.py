@@ -207,8 +207,8 @@ def execute_job(spec: JobSpec) -> dict[str, Any]:
         }
         (tmp / OUTCOME).write_text(json.dumps(outcome))
         for f in tmp.iterdir():
-            with f.open("rb") as fh:
-                os.fsync(fh.fileno())
+            with f.open("rb") as done:
+                os.fsync(done.fileno())
         _publish(tmp, job_dir / OUT_DIR)
     finally:
         shutil.rmtree(tmp, ignore_errors=True)

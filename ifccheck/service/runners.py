@@ -122,8 +122,8 @@ class _Worker:
     def __init__(self, ctx, function: str) -> None:
         self._ctx = ctx
         self._function = function
-        self.proc = None
-        self.conn = None
+        self.proc: Any = None  # a multiprocessing Process of the chosen start method
+        self.conn: Any = None
         self.ready = False
 
     def ensure(self) -> None:
@@ -278,7 +278,7 @@ class DaskRunner:
         self.address = address
         self.job_timeout = job_timeout
         self._function = function
-        self._client = None
+        self._client: Any = None  # a distributed.Client once started
         self._lock = threading.Lock()
         self._running: dict[str, tuple[Any, JobSpec, Done, float]] = {}
         self._stopping = threading.Event()

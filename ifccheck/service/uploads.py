@@ -190,7 +190,7 @@ async def receive(request: Request, staging: Path, max_upload: int) -> Upload:
         raise too_large(max_upload)
     staging.mkdir(parents=True, exist_ok=True)
     receiver = _Receiver(staging, max_upload)
-    parser = MultipartParser(options[b"boundary"], receiver.callbacks())
+    parser = MultipartParser(options[b"boundary"], receiver.callbacks())  # type: ignore[arg-type]
     received = 0
     try:
         async for chunk in request.stream():
