@@ -30,12 +30,14 @@ from ifccheck.ifc.reader import read_model
 from ifccheck.loads.combinations import LIVE_DEFLECTION, TOTAL_DEFLECTION
 from ifccheck.loads.demand import BeamDemand, compute_demand, load_demand_csv
 from ifccheck.loads.statics import Diagram
+from ifccheck.loads.tributary import DeckSpan
 from ifccheck.model import MaterialCategory, Member, MemberRole, Model
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import (
     BeamResult,
     BracePointOut,
     CheckResult,
+    LevelInfo,
     ModelInfo,
     SampledDiagram,
     SegmentResult,
@@ -113,8 +115,33 @@ def run_check(
         slabs=slabs,
         warnings=warnings,
         caution=CAUTION,
+        levels=_levels(model, demand.deck_spans),
+        assumptions=_assumptions(results, demand.deck_spans),
     )
     return result, model, framing
+
+
+def _levels(model: Model, deck_spans: dict[str, DeckSpan]) -> list[LevelInfo]:
+    elevation = {s.name: s.elevation for s in model.storeys}
+    return [
+        LevelInfo(
+            name=name,
+            elevation=elevation.get(name),
+            deck_angle=ds.angle,
+            deck_source=ds.source,
+            typical_spacing=ds.typical_spacing,
+        )
+        for name, ds in deck_spans.items()
+    ]
+
+
+def _assumptions(beams: list[BeamResult], deck_spans: dict[str, DeckSpan]) -> dict[str, int]:
+    """What the check took as given rather than read from the model, counted."""
+    checked = [b for b in beams if b.status != "not_checked"]
+    return {
+        "default_grade": sum(1 for b in checked if b.grade_source == "default"),
+        "inferred_deck_direction": sum(1 for d in deck_spans.values() if d.source == "inferred"),
+    }
 
 
 def _base(m: Member, mf: MemberFraming | None) -> BeamResult:
@@ -131,6 +158,7 @@ def _base(m: Member, mf: MemberFraming | None) -> BeamResult:
         profile=m.profile_name,
         grade=m.steel.grade if m.steel else "",
         fy=m.steel.fy if m.steel else 0.0,
+        grade_source=m.grade_source,
         start=m.start,
         end=m.end,
         length=m.length,

@@ -74,6 +74,14 @@ class Settings:
     bracing: BracingSettings = field(default_factory=BracingSettings)
     loads: LoadSettings = field(default_factory=LoadSettings)
     deflection: DeflectionSettings = field(default_factory=DeflectionSettings)
+    # where the settings came from (None: the built-in defaults) and which dotted
+    # keys it set; every other value is a default (the design basis says which)
+    source: str | None = None
+    explicit: frozenset[str] = frozenset()
+
+    def is_default(self, key: str) -> bool:
+        """Whether a dotted key ("loads.live") was left at its default."""
+        return not any(k == key or k.startswith(key + ".") for k in self.explicit)
 
 
 # --------------------------------------------------------------------------
@@ -98,7 +106,9 @@ def load_settings(path: Path | None) -> Settings:
         raise SettingsError(f"settings: {path}: not UTF-8 text") from None
     except tomllib.TOMLDecodeError as e:
         raise SettingsError(f"settings: {path}: invalid TOML: {e}") from None
-    return settings_from_dict(data)
+    settings = settings_from_dict(data)
+    settings.source = str(path)
+    return settings
 
 
 def settings_from_dict(d: Mapping[str, Any]) -> Settings:
@@ -113,12 +123,23 @@ def settings_from_dict(d: Mapping[str, Any]) -> Settings:
         target = getattr(s, section)
         for key, value in table.items():
             setattr(target, key, fields[key](value, f"{section}.{key}"))
+    s.explicit = frozenset(_dotted_keys(d))
     return s
+
+
+def _dotted_keys(d: Mapping[str, Any], prefix: str = "") -> list[str]:
+    out: list[str] = []
+    for k, v in d.items():
+        key = f"{prefix}.{k}" if prefix else str(k)
+        out += _dotted_keys(v, key) if isinstance(v, Mapping) else [key]
+    return out
 
 
 def settings_to_dict(s: Settings) -> dict[str, Any]:
     """Plain dict of the settings in SI base units (Pa, m, kg/m³; deflection as span/N)."""
-    return asdict(s)
+    out = asdict(s)
+    out["explicit"] = sorted(s.explicit)
+    return out
 
 
 def deck_span_degrees(text: str) -> float:

@@ -126,6 +126,7 @@ class BeamResult:
     # design strength versus Lb for this beam's section, steel, Cb and method:
     # (Lb m, strength N·m) points, for the report's capacity curve
     curve: list[tuple[float, float]] | None = None
+    grade_source: str = ""  # "material name", "material property", "default", ...
 
     @property
     def governing(self) -> SegmentResult | None:
@@ -140,6 +141,28 @@ class SlabOutline:
     storey: str
     exterior: list[tuple[float, float]]
     holes: list[list[tuple[float, float]]] = field(default_factory=list)
+
+
+@dataclass
+class LevelInfo:
+    """One floor or roof level as the load path saw it."""
+
+    name: str  # the storey's name, or the level's elevation for models without storeys
+    elevation: float | None  # m
+    deck_angle: float | None  # deck span direction, degrees from +x in [0, 180)
+    deck_source: str  # "inferred", "settings" or "none"
+    deck_evidence: int = 0  # beams agreeing with the inferred direction
+    typical_spacing: float | None = None  # m, of the beams the deck spans between
+
+
+@dataclass
+class LoadBalance:
+    """Floor load applied to a level and delivered to its supporting members, per case."""
+
+    level: str
+    case: str  # "D", "L", ...
+    applied: float  # N
+    delivered: float  # N
 
 
 @dataclass
@@ -164,6 +187,19 @@ class CheckResult:
     slabs: list[SlabOutline] = field(default_factory=list)
     warnings: list[tuple[str, str]] = field(default_factory=list)  # (guid, message)
     caution: str = ""
+    levels: list[LevelInfo] = field(default_factory=list)
+    load_balance: list[LoadBalance] = field(default_factory=list)
+    # what was assumed rather than read, counted: "default_grade", "inferred_deck_direction",
+    # "inferred_role" → number of beams or levels
+    assumptions: dict[str, int] = field(default_factory=dict)
+
+    def not_checked_by_reason(self) -> dict[str, int]:
+        """Not-checked beams counted by reason code."""
+        counts: dict[str, int] = {}
+        for b in self.beams:
+            if b.status == "not_checked" and b.reason is not None:
+                counts[b.reason.code.value] = counts.get(b.reason.code.value, 0) + 1
+        return dict(sorted(counts.items()))
 
     def summary(self) -> dict[str, int]:
         counts: dict[str, int] = {s: 0 for s in STATUSES}
