@@ -24,6 +24,7 @@ from ifccheck.config import Settings, settings_to_dict
 from ifccheck.design import get_standard
 from ifccheck.design.base import DesignStandard, segment_moments
 from ifccheck.errors import OutOfScope
+from ifccheck.floors import prepare_floors
 from ifccheck.framing import analyse_framing
 from ifccheck.framing.types import Framing, MemberFraming
 from ifccheck.ifc.reader import read_model
@@ -38,6 +39,7 @@ from ifccheck.results import (
     BracePointOut,
     CheckResult,
     LevelInfo,
+    LoadBalance,
     ModelInfo,
     SampledDiagram,
     SegmentResult,
@@ -73,6 +75,7 @@ def run_check(
     """The whole job on one model file."""
     path = Path(model_path)
     model = read_model(path, default_grade=settings.steel.default_grade)
+    prepare_floors(model, settings)
     framing = analyse_framing(model, settings.framing, settings.bracing)
     overrides = None
     warnings: list[tuple[str, str]] = list(model.warnings) + list(framing.warnings)
@@ -116,31 +119,42 @@ def run_check(
         warnings=warnings,
         caution=CAUTION,
         levels=_levels(model, demand.deck_spans),
-        assumptions=_assumptions(results, demand.deck_spans),
+        load_balance=[
+            LoadBalance(r.level, r.case, r.applied, r.delivered) for r in demand.load_balance
+        ],
+        assumptions=_assumptions(model, results, demand.deck_spans),
+        excluded=dict(framing.excluded),
     )
     return result, model, framing
 
 
 def _levels(model: Model, deck_spans: dict[str, DeckSpan]) -> list[LevelInfo]:
-    elevation = {s.name: s.elevation for s in model.storeys}
-    return [
-        LevelInfo(
-            name=name,
-            elevation=elevation.get(name),
-            deck_angle=ds.angle,
-            deck_source=ds.source,
-            typical_spacing=ds.typical_spacing,
+    out = []
+    for lv in model.levels:
+        ds = deck_spans.get(lv.name)
+        out.append(
+            LevelInfo(
+                name=lv.name,
+                elevation=lv.elevation,
+                deck_angle=ds.angle if ds else None,
+                deck_source=ds.source if ds else "none",
+                deck_evidence=ds.evidence if ds else 0,
+                typical_spacing=ds.typical_spacing if ds else None,
+            )
         )
-        for name, ds in deck_spans.items()
-    ]
+    return out
 
 
-def _assumptions(beams: list[BeamResult], deck_spans: dict[str, DeckSpan]) -> dict[str, int]:
+def _assumptions(
+    model: Model, beams: list[BeamResult], deck_spans: dict[str, DeckSpan]
+) -> dict[str, int]:
     """What the check took as given rather than read from the model, counted."""
     checked = [b for b in beams if b.status != "not_checked"]
     return {
         "default_grade": sum(1 for b in checked if b.grade_source == "default"),
         "inferred_deck_direction": sum(1 for d in deck_spans.values() if d.source == "inferred"),
+        "inferred_role": sum(1 for m in model.members if m.role_source == "geometry"),
+        "declared_deck": sum(1 for s in model.slabs if s.declared),
     }
 
 
@@ -297,8 +311,9 @@ def _prepare(
         either = bd.source == "analysis"
         if either:
             out.notes.append("analysis moment checked on both flanges (its sign is not known)")
+        off = bd.offset if bd.analysis is not None else 0.0  # analysis line from a centreline
         for name, d in diagrams:
-            demand, cb = _segment_demands(d, starts, ends, tips, top, standard, either)
+            demand, cb = _segment_demands(d, starts + off, ends + off, tips, top, standard, either)
             cb = np.where(loose, cb, 1.0)
             rows += [(i, name, float(demand[i]), float(cb[i])) for i in range(len(specs))]
     return _Pending(out, m, bd, diagrams, specs, rows)
@@ -362,7 +377,9 @@ def _finish(p: _Pending, flex, standard: DesignStandard, settings: Settings) -> 
     gov_name = bd.governing_moment or (p.diagrams[-1][0] if p.diagrams else "")
     gov = dict(p.diagrams).get(gov_name)
     if gov is not None:
-        out.diagram = _diagram_out(gov)
+        out.diagram = _diagram_out(gov, bd.offset if bd.analysis is not None else 0.0)
+    if bd.analysis is not None and bd.spans:
+        out.span = max(b - a for a, b, _ in bd.spans)
     _curve(out, m, standard, method)
 
 
@@ -469,11 +486,12 @@ def _deflection(out: BeamResult, m: Member, bd: BeamDemand, settings: Settings) 
     out.deflection_ratio = max(ratios) if ratios else None
 
 
-def _diagram_out(d: Diagram) -> SampledDiagram:
+def _diagram_out(d: Diagram, offset: float = 0.0) -> SampledDiagram:
+    """The diagram sampled for the report, stations along the beam from its modelled start."""
     xs = np.linspace(0.0, float(d.length), DIAGRAM_POINTS)
     xs = np.union1d(xs, d.nodes)
     return SampledDiagram(
-        stations=[float(v) for v in xs],
+        stations=[float(v) - offset for v in xs],
         moment=[float(v) for v in d.moment_at(xs)],
         shear=[float(v) for v in d.shear_at(xs)],
     )

@@ -36,6 +36,9 @@ class FramingSettings:
     elevation_tolerance: float = 0.050  # m
     # A slab underside within this of the top of steel bears on the beam.
     slab_bearing_tolerance: float = 0.050  # m
+    # Beams whose tops of steel lie within this of each other form one level
+    # when the model has no storeys, or puts all its framing in one.
+    level_tolerance: float = 0.150  # m
 
 
 @dataclass
@@ -48,6 +51,24 @@ class StoreyLoads:
     dead: float | None = None  # Pa, superimposed dead
     live: float | None = None  # Pa
     deck_span: str | None = None  # "x", "y" or an angle in degrees as text
+    # False for a level that carries no floor (a platform): its beams are checked
+    # on what they carry (self-weight, line loads) rather than left unchecked
+    floor: bool | None = None
+
+
+@dataclass
+class DeckSettings:
+    """A deck the model does not contain, declared for one level.
+
+    It supplies the load and the bracing a modelled slab would, over the
+    level's framed area. Its self-weight is ``thickness`` × concrete density
+    or ``weight`` (a pressure); neither means none beyond the area loads.
+    """
+
+    deck_span: str | None = None
+    thickness: float | None = None  # m
+    weight: float | None = None  # Pa
+    braces_top_flange: bool = True
 
 
 @dataclass
@@ -74,6 +95,8 @@ class Settings:
     bracing: BracingSettings = field(default_factory=BracingSettings)
     loads: LoadSettings = field(default_factory=LoadSettings)
     deflection: DeflectionSettings = field(default_factory=DeflectionSettings)
+    # declared decks by level: a storey name or a level elevation such as "+36 ft"
+    decks: dict[str, DeckSettings] = field(default_factory=dict)
     # where the settings came from (None: the built-in defaults) and which dotted
     # keys it set; every other value is a default (the design basis says which)
     source: str | None = None
@@ -114,7 +137,8 @@ def load_settings(path: Path | None) -> Settings:
 def settings_from_dict(d: Mapping[str, Any]) -> Settings:
     """Validate a parsed TOML document (nested dicts) into :class:`Settings`."""
     s = Settings()
-    _check_table(d, "", set(_SECTIONS))
+    _check_table(d, "", {*_SECTIONS, "decks"})
+    s.decks = _deck_table(d.get("decks", {}), "decks")
     for section, fields in _SECTIONS.items():
         table = d.get(section)
         if table is None:
@@ -240,7 +264,29 @@ _STOREY_FIELDS: dict[str, Callable[[Any, str], Any]] = {
     "dead": _quantity("pressure"),
     "live": _quantity("pressure"),
     "deck_span": _deck_span,
+    "floor": _bool,
 }
+
+_DECK_FIELDS: dict[str, Callable[[Any, str], Any]] = {
+    "deck_span": _deck_span,
+    "thickness": _quantity("length", strict=True),
+    "weight": _quantity("pressure"),
+    "braces_top_flange": _bool,
+}
+
+
+def _deck_table(value: Any, key: str) -> dict[str, DeckSettings]:
+    if not isinstance(value, Mapping):
+        raise _fail(key, f"{value!r} is not a table")
+    out: dict[str, DeckSettings] = {}
+    for name, entry in value.items():
+        where = _key(key, name)
+        _check_table(entry, where, set(_DECK_FIELDS))
+        deck = DeckSettings(**{k: _DECK_FIELDS[k](v, _key(where, k)) for k, v in entry.items()})
+        if deck.thickness is not None and deck.weight is not None:
+            raise _fail(where, "give either thickness or weight, not both")
+        out[name] = deck
+    return out
 
 
 def _storey_table(value: Any, key: str) -> dict[str, StoreyLoads]:
@@ -263,6 +309,7 @@ _SECTIONS: dict[str, dict[str, Callable[[Any, str], Any]]] = {
         "gap": _quantity("length"),
         "elevation_tolerance": _quantity("length"),
         "slab_bearing_tolerance": _quantity("length"),
+        "level_tolerance": _quantity("length", strict=True),
     },
     "bracing": {"slab": _bool},
     "loads": {

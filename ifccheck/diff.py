@@ -13,6 +13,7 @@ from collections import defaultdict
 
 import numpy as np
 
+from ifccheck.reasons import NotChecked
 from ifccheck.results import (
     BeamChange,
     BeamResult,
@@ -127,8 +128,15 @@ def _lost_cover(old: BeamResult, new: BeamResult) -> float:
     return float(lines(old_iv).difference(lines(new.continuous_bracing)).length)
 
 
-def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChange | None:
-    """The change of one matched beam, or None when nothing that matters changed."""
+def compare_beam(
+    old: BeamResult, new: BeamResult, matched_by: str, unloading: frozenset[str] = frozenset()
+) -> BeamChange | None:
+    """The change of one matched beam, or None when nothing that matters changed.
+
+    ``unloading`` are the beams of the new revision that carry nothing (they lost a
+    support): a beam whose demand fell because one of them no longer loads it is
+    ``changed``, never better.
+    """
     lost: set[float] = set()
     added: set[float] = set()
     for flange in FLANGES:
@@ -169,7 +177,19 @@ def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChang
     worse = [c for c in causes if c.worse]
     change.severity = "regression" if worse else "improvement"
     change.causes = worse or causes
+    lost_loaders = sorted((_loaders(old) - _loaders(new)) & unloading)
+    if not worse and lost_loaders:
+        change.severity = "changed"
+        change.causes = [ChangeCause(CauseKind.DEMAND_FELL_LOST_LOAD, members=tuple(lost_loaders))]
     return change
+
+
+def _loaders(b: BeamResult) -> set[str]:
+    """The members whose reactions load a beam."""
+    return {p.source for p in b.demand.point_loads} if b.demand is not None else set()
+
+
+UNLOADING = frozenset({NotChecked.UNSTABLE, NotChecked.UNSUPPORTED, NotChecked.NOT_IN_FRAMING})
 
 
 def _causes(c: BeamChange) -> list[ChangeCause]:
@@ -208,7 +228,11 @@ def _causes(c: BeamChange) -> list[ChangeCause]:
 def diff_results(old: CheckResult, new: CheckResult) -> DiffResult:
     """Match the beams of two checks and say what changed (causes in SI)."""
     pairs, added, removed = match_beams(old.beams, new.beams)
-    changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how)) is not None]
+    unloading = frozenset(
+        b.guid for b in new.beams
+        if b.status == "not_checked" and b.reason is not None and b.reason.code in UNLOADING
+    )  # fmt: skip
+    changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how, unloading)) is not None]
     changes.sort(key=lambda c: (c.severity != "regression", c.storey, c.name))
     return DiffResult(
         old=old,

@@ -138,6 +138,11 @@ class Member:
     unresolved: Reason | None = None
     # Outline depth and width (m) when known without a full section.
     envelope: tuple[float, float] = (0.0, 0.0)
+    # The floor or roof level a horizontal framing member belongs to (set by the
+    # floors stage: its storey, or its elevation where storeys do not tell).
+    level: str = ""
+    # How the role was decided: "class" (IFC class and type) or "geometry".
+    role_source: str = "class"
 
     @property
     def length(self) -> float:
@@ -181,6 +186,13 @@ class Slab:
     ifc_class: str = "IfcSlab"
     openings: list[Polygon] = field(default_factory=list)
     notes: list[str] = field(default_factory=list)
+    level: str = ""  # the level it bears on (set by the floors stage)
+    # A deck declared in the settings, not modelled: it bears on every beam of its
+    # level, braces their top flanges if ``braces``, and weighs ``self_weight``.
+    declared: bool = False
+    braces: bool = True
+    self_weight: float | None = None  # Pa; None: thickness × concrete density
+    bearing_tolerance: float | None = None  # m; None: framing.slab_bearing_tolerance
 
     @property
     def thickness(self) -> float:
@@ -208,6 +220,16 @@ class Storey:
 
 
 @dataclass
+class Level:
+    """A floor or roof level: the storey's framing, or beams at one elevation."""
+
+    name: str  # the storey's name, or the elevation ("+36 ft") where storeys do not tell
+    elevation: float  # m, median top of steel of its beams
+    storey: str = ""  # the storey it belongs to, when there is one
+    beams: int = 0  # horizontal framing members on it
+
+
+@dataclass
 class Model:
     """What the reader produced from one model file."""
 
@@ -221,6 +243,7 @@ class Model:
     walls: list[Wall] = field(default_factory=list)
     warnings: list[tuple[str, str]] = field(default_factory=list)  # (guid, message)
     geometry_fallbacks: int = 0
+    levels: list[Level] = field(default_factory=list)  # set by the floors stage
 
     def member(self, guid: str) -> Member:
         for m in self.members:

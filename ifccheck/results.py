@@ -192,6 +192,8 @@ class CheckResult:
     # what was assumed rather than read, counted: "default_grade", "inferred_deck_direction",
     # "inferred_role" → number of beams or levels
     assumptions: dict[str, int] = field(default_factory=dict)
+    # members written as beams, columns or members that brace and support nothing, by kind
+    excluded: dict[str, list[str]] = field(default_factory=dict)
 
     def not_checked_by_reason(self) -> dict[str, int]:
         """Not-checked beams counted by reason code."""

@@ -16,6 +16,7 @@ LAYERS: list[set[str]] = [
     {"units", "model", "results"},
     {"config", "sections"},
     {"ifc", "framing", "design"},
+    {"floors"},
     {"loads"},
     {"segments"},
     {"check", "diff"},

@@ -251,6 +251,11 @@ def test_missing_demand_file(tmp_path: Path) -> None:
 # -- load paths that cannot be followed ------------------------------------------------
 
 
+# the small floor has no slab: its level is declared to carry none, so that its beams
+# are computed on their self-weight (ASCE 7-16 §2.3.1 combination 1, 1.4D)
+NO_FLOOR = settings_from_dict({"loads": {"storeys": {"L2": {"floor": False}}}})
+
+
 def small_floor():
     """Beam N on girder H (on columns); A and K bear on each other (a cycle);
     U bears on nothing; S has a single support (a cantilever)."""
@@ -279,7 +284,7 @@ def small_floor():
 
 def test_cycle_and_unsupported_beams_are_reported_and_the_rest_computed() -> None:
     m, fr = small_floor()
-    r = compute_demand(m, fr, Settings())
+    r = compute_demand(m, fr, NO_FLOOR)
     for g in ("A", "K"):
         assert r.beams[g].reason.code is NotChecked.LOAD_PATH_CYCLE
         assert r.beams[g].analysis is None
@@ -300,7 +305,7 @@ def test_cycle_and_unsupported_beams_are_reported_and_the_rest_computed() -> Non
 def test_beam_outside_the_framing_analysis() -> None:
     m, fr = small_floor()
     del fr.members["N"]
-    r = compute_demand(m, fr, Settings())
+    r = compute_demand(m, fr, NO_FLOOR)
     assert r.beams["N"].reason.code is NotChecked.NOT_IN_FRAMING
     assert r.beams["H"].point_loads == []
 

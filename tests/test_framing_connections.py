@@ -214,13 +214,26 @@ def test_corner_without_column_the_deeper_beam_carries():
     assert f.cycles == []
 
 
-def test_unresolved_section_takes_part_with_fallback_size():
+def test_a_beam_of_unknown_section_braces_and_supports_nothing():
+    # issue rule: only members with a known section (or columns and walls) brace or support
     i1 = beam_top_flush("I1", (3, 0), (3, 9), "W18X35", TOP)
     i1.section = None
     i1.profile_name = "XYZ-18"
     f = analyse_framing(model(bay([i1])))
-    assert "I1" in framing_points(f, "G1")
-    assert any("fallback depth of 0.300 m" in n for n in f.members["I1"].notes)
+    assert "I1" not in framing_points(f, "G1")
+    assert f.excluded == {"member of unknown section": ["I1"]}
+    assert [m for _, m in f.warnings if "brace and support nothing" in m] == [
+        "1 element written as beams, columns or members brace and support nothing "
+        "(not structural members): 1 member of unknown section"
+    ]
+
+
+def test_a_column_of_unknown_section_still_supports_with_a_fallback_size():
+    members = bay([])
+    members[0].section = None  # C1: a column with an unreadable profile
+    f = analyse_framing(model(members))
+    assert "C1" in {s.by for s in f.members["G1"].supports}
+    assert any("fallback depth of 0.300 m" in msg for _, msg in f.warnings)
 
 
 def test_struts_and_braces_get_framing_records_columns_do_not():

@@ -13,11 +13,12 @@ import math
 import numpy as np
 import pytest
 import shapely
-from loads_builders import FT, bay_30ft, beam, model, slab
+from loads_builders import FT, bay_30ft, beam, framing, model, slab
 from shapely import affinity
 from shapely.geometry import box
 
 from ifccheck.config import Settings, settings_from_dict
+from ifccheck.framing.types import Framing
 from ifccheck.loads.tributary import (
     compute_tributary,
     family_direction,
@@ -27,6 +28,14 @@ from ifccheck.loads.tributary import (
 from ifccheck.model import Member, Model
 
 L = 30 * FT
+
+
+def on_pins(*beams: Member) -> Framing:
+    """A hand-built framing with each beam on a pin at either end (hosts not modelled)."""
+    return framing(
+        {b.guid: [(0.0, f"P0-{b.guid}", "IfcColumn", "start"),
+                  (b.length, f"P1-{b.guid}", "IfcColumn", "end")] for b in beams}
+    )  # fmt: skip
 
 
 def floor_width(tr, station: float) -> float:
@@ -62,8 +71,8 @@ def test_find_neighbours_skips_collinear_and_short_overlaps() -> None:
 
 
 def test_bay_infill_takes_10_ft() -> None:
-    m, _ = bay_30ft()
-    res = compute_tributary(m, Settings())
+    m, fr = bay_30ft()
+    res = compute_tributary(m, Settings(), fr)
     deck = res.deck_spans["L2"]
     assert deck.source == "inferred"
     assert deck.angle == pytest.approx(0.0, abs=1e-9)  # deck spans along x
@@ -82,8 +91,8 @@ def test_bay_infill_takes_10_ft() -> None:
 
 
 def test_bay_edge_beams_and_girders() -> None:
-    m, _ = bay_30ft()
-    res = compute_tributary(m, Settings())
+    m, fr = bay_30ft()
+    res = compute_tributary(m, Settings(), fr)
     e1, e2 = res.beams["E1"], res.beams["E2"]
     # the slab ends at the column lines: 5 ft inside, nothing outside
     assert e1.floor_area == pytest.approx(5 * FT * L)
@@ -97,8 +106,8 @@ def test_bay_edge_beams_and_girders() -> None:
 def test_slab_opening_reduces_the_strip() -> None:
     # a 3 ft × 6 ft opening inside B1's strip (x 5-15 ft), from y = 10 to 16 ft
     hole = box(11 * FT, 10 * FT, 14 * FT, 16 * FT)
-    m, _ = bay_30ft(opening=hole)
-    tr = compute_tributary(m, Settings()).beams["B1"]
+    m, fr = bay_30ft(opening=hole)
+    tr = compute_tributary(m, Settings(), fr).beams["B1"]
     assert tr.floor_area == pytest.approx((300 - 18) * FT**2)
     assert floor_width(tr, 5 * FT) == pytest.approx(10 * FT)
     assert floor_width(tr, 13 * FT) == pytest.approx(7 * FT)
@@ -106,15 +115,15 @@ def test_slab_opening_reduces_the_strip() -> None:
     floor = sorted((p.start, p.end) for p in tr.pieces if p.kind == "floor")
     assert [a for a, _ in floor] == pytest.approx([0.0, 10 * FT, 16 * FT])
     # B2's strip (15-25 ft) is untouched
-    b2 = compute_tributary(m, Settings()).beams["B2"]
+    b2 = compute_tributary(m, Settings(), fr).beams["B2"]
     assert b2.floor_area == pytest.approx(300 * FT**2)
 
 
 def test_slanted_opening_edge_is_integrated() -> None:
     # a triangular opening in B1's strip: area 0.5 × 4 ft × 8 ft = 16 ft²
     tri = shapely.Polygon([(11 * FT, 10 * FT), (15 * FT, 10 * FT), (15 * FT, 18 * FT)])
-    m, _ = bay_30ft(opening=tri)
-    tr = compute_tributary(m, Settings()).beams["B1"]
+    m, fr = bay_30ft(opening=tri)
+    tr = compute_tributary(m, Settings(), fr).beams["B1"]
     assert tr.floor_area == pytest.approx((300 - 16) * FT**2, rel=1e-9)
     # the opening is 4 ft wide at y = 10 ft narrowing to 0 at 18 ft: at y = 16.05 ft
     # it takes 4 (1 - 6.05/8) ft off the 10 ft strip (width averaged over a bin)
@@ -123,9 +132,9 @@ def test_slanted_opening_edge_is_integrated() -> None:
 
 
 def test_storey_override_turns_the_deck() -> None:
-    m, _ = bay_30ft()
+    m, fr = bay_30ft()
     s = settings_from_dict({"loads": {"storeys": {"L2": {"deck_span": "y"}}}})
-    res = compute_tributary(m, s)
+    res = compute_tributary(m, s, fr)
     assert res.deck_spans["L2"].source == "settings"
     assert res.deck_spans["L2"].angle == pytest.approx(90.0)
     assert res.beams["B1"].role == "girder"
@@ -135,38 +144,36 @@ def test_storey_override_turns_the_deck() -> None:
 
 
 def test_slab_override_turns_the_deck_on_that_slab() -> None:
-    m, _ = bay_30ft()
+    m, fr = bay_30ft()
     s = settings_from_dict({"loads": {"slabs": {"S1": {"deck_span": "90 deg"}}}})
-    res = compute_tributary(m, s)
+    res = compute_tributary(m, s, fr)
     assert res.deck_spans["L2"].source == "inferred"  # the storey as inferred
     assert res.beams["G1"].role == "deck" and res.beams["B1"].role == "girder"
 
 
-def test_no_slab_modelled_uses_spacing_alone() -> None:
-    m, _ = bay_30ft()
+def test_no_slab_modelled_gives_no_floor_load() -> None:
+    # no pass on self-weight alone: without a slab or a declared deck, no floor
+    # load is invented from the beam spacing
+    m, fr = bay_30ft()
     m.slabs = []
-    res = compute_tributary(m, Settings())
-    b1 = res.beams["B1"]
-    assert b1.floor_area == pytest.approx(10 * FT * L)
-    assert all(p.slab is None and p.kind == "floor" for p in b1.pieces)
-    assert any("no slab modelled" in n for n in b1.notes)
-    # an edge beam takes nothing beyond itself without a slab to say how far
-    assert res.beams["E1"].floor_area == pytest.approx(5 * FT * L)
+    res = compute_tributary(m, Settings(), fr)
+    assert res.deck_spans["L2"].source == "inferred"  # the framing still tells the direction
+    assert all(tr.pieces == [] for tr in res.beams.values())
 
 
 def test_slab_not_bearing_gives_no_load() -> None:
-    m, _ = bay_30ft()
+    m, fr = bay_30ft()
     m.slabs[0].underside += 0.5  # half a metre above the steel
     m.slabs[0].top += 0.5
-    res = compute_tributary(m, Settings())
+    res = compute_tributary(m, Settings(), fr)
     assert res.beams["B1"].pieces == []
-    assert any("no slab bears" in n for n in res.beams["B1"].notes)
+    assert res.floors == []  # the slab bears on no beam: no floor of the framing
 
 
 def test_topping_on_deck_slab_counts_weight_twice_area_once() -> None:
-    m, _ = bay_30ft(slab_thickness=0.06)
+    m, fr = bay_30ft(slab_thickness=0.06)
     m.slabs.append(slab("T1", box(0, 0, L, L), underside=4.06, thickness=0.08))
-    tr = compute_tributary(m, Settings()).beams["B1"]
+    tr = compute_tributary(m, Settings(), fr).beams["B1"]
     assert tr.floor_area == pytest.approx(10 * FT * L)
     weights = {p.slab for p in tr.pieces if p.kind == "slab"}
     assert weights == {"S1", "T1"}
@@ -178,11 +185,19 @@ def test_far_neighbour_is_not_a_neighbour() -> None:
     members = [beam(f"B{i}", (x * FT, 0), (x * FT, L), "W16X26") for i, x in
                enumerate((0, 10, 20, 120))]  # fmt: skip
     s = slab("S", box(-5 * FT, 0, 125 * FT, L))
-    res = compute_tributary(model(members, [s]), Settings())
+    res = compute_tributary(model(members, [s]), Settings(), on_pins(*members))
     b2 = res.beams["B2"]
     assert {b2.left_neighbour, b2.right_neighbour} == {"B1", None}
-    # 5 ft toward B1, and out to at most one typical spacing (10 ft) on the open side
-    assert b2.floor_area == pytest.approx(15 * FT * L)
+    # its strip: 5 ft toward B1, and out to at most one typical spacing (10 ft) on
+    # the open side; the floor beyond the strips (x = 30 to 110 ft) still reaches the
+    # nearest beams, B2 and B3, split at the midpoint x = 70 ft to within a 0.5 m cell
+    assert b2.left + b2.right == pytest.approx(15 * FT)
+    assert b2.floor_area == pytest.approx(55 * FT * L, rel=0.02)
+    assert res.beams["B3"].floor_area == pytest.approx(55 * FT * L, rel=0.02)
+    # and no floor disappears (conservation, exact by construction)
+    total = sum(tr.floor_area for tr in res.beams.values())
+    assert total == pytest.approx(s.footprint.area, rel=1e-9)
+    assert res.floors[0].delivered == pytest.approx(res.floors[0].area, rel=1e-9)
 
 
 def rotated(m: Model, degrees: float) -> Model:
@@ -201,8 +216,8 @@ def rotated(m: Model, degrees: float) -> Model:
 
 
 def test_skewed_grid_gives_the_same_widths() -> None:
-    m, _ = bay_30ft(opening=box(11 * FT, 10 * FT, 14 * FT, 16 * FT))
-    res = compute_tributary(rotated(m, 30.0), Settings())
+    m, fr = bay_30ft(opening=box(11 * FT, 10 * FT, 14 * FT, 16 * FT))
+    res = compute_tributary(rotated(m, 30.0), Settings(), fr)
     assert res.deck_spans["L2"].angle == pytest.approx(30.0)
     assert res.beams["B1"].floor_area == pytest.approx((300 - 18) * FT**2)
     assert res.beams["B2"].floor_area == pytest.approx(300 * FT**2)

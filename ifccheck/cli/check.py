@@ -38,6 +38,7 @@ def _read(path: str, default_grade: str = "A992"):
               help="Only read the model: skip the framing graph and the demand.")  # fmt: skip
 def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool) -> None:
     """Show what was read from MODEL and what the framing and loads make of it."""
+    from ifccheck.floors import prepare_floors
     from ifccheck.framing import analyse_framing
     from ifccheck.loads.demand import compute_demand
     from ifccheck.report.inspect import inspect_document, inspect_text
@@ -46,6 +47,7 @@ def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool)
     model, seconds = _read(model_path, settings.steel.default_grade)
     framing = demand = None
     if not read_only:
+        prepare_floors(model, settings)
         framing = analyse_framing(model, settings.framing, settings.bracing)
         demand = compute_demand(model, framing, settings)
     if as_json:
@@ -168,7 +170,8 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
     written = write_all(result, Path(model_path), Path(out_dir), chosen)
     names = {m.guid: m.name or m.guid for m in model.members}
     for guid, message in result.warnings:
-        click.echo(f"warning: {names.get(guid, guid)}: {message}", err=True)
+        who = names.get(guid, guid)
+        click.echo(f"warning: {who}: {message}" if who else f"warning: {message}", err=True)
     click.echo(_summary_line(result, chosen))
     files = ", ".join(p.name for p in written.values())
     click.echo(f"results written to {Path(out_dir)}: {files}")
@@ -211,6 +214,10 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     du, names = DisplayUnits(chosen), diff_names(result)
     for c in regressions:
         click.echo(f"  {c.name or c.guid} ({c.storey}): " + "; ".join(change_reasons(c, du, names)))
+    for c in result.changes:
+        if c.severity == "changed":
+            click.echo(f"warning: {c.name or c.guid}: " + "; ".join(change_reasons(c, du, names)),
+                       err=True)  # fmt: skip
     files = ", ".join(p.name for p in written.values())
     click.echo(f"diff written to {Path(out_dir)}: {files}")
     click.echo(CAUTION)

@@ -21,6 +21,7 @@ from ifccheck.framing.connections import (
 )
 from ifccheck.framing.graph import build_framing, load_path_order
 from ifccheck.framing.index import BoxIndex, MemberGeometry, member_geometry
+from ifccheck.framing.roles import STUB, infer_roles
 from ifccheck.framing.slabs import slab_coverage
 from ifccheck.framing.types import (
     BracePoint,
@@ -45,6 +46,7 @@ __all__ = [
     "build_framing",
     "end_links",
     "host_index",
+    "infer_roles",
     "intermediate_links",
     "load_path_order",
     "member_geometry",
@@ -72,12 +74,48 @@ def _analyse(model: Model, fs: FramingSettings, bs: BracingSettings) -> Framing:
     index = host_index(geom, fs)
     ends = end_links(geom, walls, fs, index)
     links = Links.concat([ends, intermediate_links(geom, walls, fs, index, ends)])
-    coverage = (
-        slab_coverage(
-            geom, model.slabs, fs.slab_bearing_tolerance, np.flatnonzero(geom.is_connector)
-        )
-        if bs.slab
-        else {}
+    links, stubs = drop_stub_links(geom, links)
+    # a declared deck's own switch decides whether it braces; modelled slabs follow bracing.slab
+    bracing_slabs = [s for s in model.slabs if (s.braces if s.declared else bs.slab)]
+    coverage = slab_coverage(
+        geom, bracing_slabs, fs.slab_bearing_tolerance, np.flatnonzero(geom.is_connector)
     )
     anchorage = bracing_anchorage(geom, links, coverage, fs.gap, [w.guid for w in model.walls])
-    return build_framing(model, geom, links, coverage, anchorage, bs.slab)
+    framing = build_framing(model, geom, links, coverage, anchorage, bs.slab)
+    framing.excluded = excluded_members(geom, stubs)
+    if framing.excluded:
+        framing.warnings.append(("", excluded_warning(framing.excluded)))
+    return framing
+
+
+def drop_stub_links(geom: MemberGeometry, links: Links) -> tuple[Links, set[int]]:
+    """Links without pieces shorter than the depth of the member they touch (hardware,
+    stubs, cap plates); returns the kept links and the rows of the stubs."""
+    on_member = ~links.host_wall
+    host = np.where(on_member, links.host, 0)
+    stub_conn = on_member & (geom.length[links.conn] < geom.depth[host])
+    stub_host = on_member & (geom.length[host] < geom.depth[links.conn])
+    stubs = set(links.conn[stub_conn].tolist()) | set(host[stub_host].tolist())
+    return links.select(~(stub_conn | stub_host)), stubs
+
+
+def excluded_members(geom: MemberGeometry, stubs: set[int]) -> dict[str, list[str]]:
+    """GUIDs of the members that brace or support nothing, by kind."""
+    out: dict[str, list[str]] = {}
+    for i, kind in enumerate(geom.excluded_kind):
+        if kind is not None:
+            out.setdefault(kind, []).append(geom.guids[i])
+    for i in sorted(stubs):
+        if geom.excluded_kind[i] is None:
+            out.setdefault(STUB, []).append(geom.guids[i])
+    return dict(sorted(out.items()))
+
+
+def excluded_warning(excluded: dict[str, list[str]]) -> str:
+    """One line for every member that braces or supports nothing, counted by kind."""
+    total = sum(len(v) for v in excluded.values())
+    parts = ", ".join(f"{len(v)} {k}{'s' if len(v) != 1 else ''}" for k, v in excluded.items())
+    return (
+        f"{total} element{'s' if total != 1 else ''} written as beams, columns or members "
+        f"brace and support nothing (not structural members): {parts}"
+    )

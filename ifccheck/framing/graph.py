@@ -160,7 +160,7 @@ def _build(
     linked = np.zeros((nm, 2), dtype=bool)
     at_end = links.end >= 0
     linked[links.conn[at_end], links.end[at_end]] = True
-    storeys_with_slab = {s.storey for s in model.slabs}
+    levels_with_slab = {s.level or s.storey for s in model.slabs}
     by_station = attrgetter("station", "by")
     bp_order = attrgetter("station", "kind", "by")
     for i, mf in framings.items():
@@ -178,12 +178,11 @@ def _build(
         if len(mf.carries) > 1:  # in station order along this member
             carried = set(mf.carries)
             mf.carries = list(dict.fromkeys(b.by for b in mf.brace_points if b.by in carried))
-        if slab_bracing:
-            mf.continuous_bracing = list(coverage.get(i, []))
+        mf.continuous_bracing = list(coverage.get(i, []))
         if any(b.kind == "framing" and b.counts for b in mf.brace_points):
-            if m.storey not in storeys_with_slab and not coverage.get(i):
+            if (m.level or m.storey) not in levels_with_slab and not coverage.get(i):
                 mf.notes.append(NOTE_NO_SLAB)
-            elif not slab_bracing:
+            elif not slab_bracing and not coverage.get(i):
                 mf.notes.append(NOTE_SLAB_OFF)
 
     order_nodes = [g for i, g in enumerate(geom.guids) if geom.in_graph[i]]

@@ -16,6 +16,7 @@ import numpy as np
 import shapely
 from shapely import STRtree
 
+from ifccheck.framing.roles import structural_mask
 from ifccheck.model import Member, MemberRole
 
 # Geometry used for a member whose profile did not resolve (common practice:
@@ -57,7 +58,10 @@ class MemberGeometry:
     is_beam: np.ndarray
     is_bracing: np.ndarray  # STRUT or BRACE
     is_column: np.ndarray
-    in_graph: np.ndarray  # BEAM, STRUT, BRACE or COLUMN
+    in_graph: np.ndarray  # BEAM, STRUT, BRACE or COLUMN, and structural
+    # may brace or support: a known section or a column, never hardware (roles.py)
+    structural: np.ndarray
+    excluded_kind: list[str | None]  # why a member of a graph role is not structural
 
     @property
     def n(self) -> int:
@@ -83,10 +87,14 @@ def member_geometry(members: list[Member]) -> MemberGeometry:
     depth = np.array([m.section.d if m.section else FALLBACK_DEPTH for m in members], float)
     width = np.array([m.section.bf if m.section else FALLBACK_WIDTH for m in members], float)
     role = [m.role for m in members]
-    is_beam = np.array([r is MemberRole.BEAM for r in role], dtype=bool)
+    structural, kinds = structural_mask(members)
+    is_beam = np.array([r is MemberRole.BEAM for r in role], dtype=bool) & structural
     is_bracing = np.array([r in (MemberRole.STRUT, MemberRole.BRACE) for r in role], dtype=bool)
-    is_column = np.array([r is MemberRole.COLUMN for r in role], dtype=bool)
+    is_bracing &= structural
+    is_column = np.array([r is MemberRole.COLUMN for r in role], dtype=bool) & structural
     in_graph = is_beam | is_bracing | is_column
+    graph_role = np.array([r in GRAPH_ROLES for r in role], dtype=bool)
+    excluded = [k if graph_role[i] else None for i, k in enumerate(kinds)]
 
     d = p1 - p0
     length = np.linalg.norm(d, axis=1)
@@ -131,6 +139,8 @@ def member_geometry(members: list[Member]) -> MemberGeometry:
         is_bracing=is_bracing,
         is_column=is_column,
         in_graph=in_graph,
+        structural=structural,
+        excluded_kind=excluded,
     )
 
 

@@ -46,8 +46,9 @@ def slab_coverage(
     # candidates: plan boxes meet and the slab underside is at the top of steel
     b = shapely.bounds(foot)
     under = np.array([s.underside for s in slabs], dtype=float)
-    slab_lo = np.column_stack([b[:, 0], b[:, 1], under - tolerance])
-    slab_hi = np.column_stack([b[:, 2], b[:, 3], under + tolerance])
+    tol = np.array([bearing_tolerance(s, tolerance) for s in slabs], dtype=float)
+    slab_lo = np.column_stack([b[:, 0], b[:, 1], under - tol])
+    slab_hi = np.column_stack([b[:, 2], b[:, 3], under + tol])
     top = geom.top[rows]
     li, si = BoxIndex(slab_lo, slab_hi).query(
         np.column_stack([np.minimum(xy0, xy1), top]),
@@ -86,6 +87,12 @@ def slab_coverage(
             lo_parts.append(np.clip(np.minimum.reduceat(st, starts), 0.0, geom.length[m]))
             hi_parts.append(np.clip(np.maximum.reduceat(st, starts), 0.0, geom.length[m]))
     return _merge(np.concatenate(member_parts), np.concatenate(lo_parts), np.concatenate(hi_parts))
+
+
+def bearing_tolerance(slab: Slab, default: float) -> float:
+    """How far a slab's underside may lie from a top of steel and still bear on it
+    (a declared deck bears on every beam of its level)."""
+    return slab.bearing_tolerance if slab.bearing_tolerance is not None else default
 
 
 def _merge(member: np.ndarray, lo: np.ndarray, hi: np.ndarray) -> dict[int, list[Interval]]:

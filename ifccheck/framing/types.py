@@ -100,6 +100,9 @@ class Framing:
     load_levels: list[list[str]] = field(default_factory=list)
     cycles: list[list[str]] = field(default_factory=list)
     warnings: list[tuple[str, str]] = field(default_factory=list)  # (guid, message)
+    # members written as beams, columns or members that brace and support nothing,
+    # GUIDs by kind ("fastener", "plate or flat", "member of unknown section", ...)
+    excluded: dict[str, list[str]] = field(default_factory=dict)
 
     def edges(self, by: str, host: str) -> list[FramingEdge]:
         """The edges from member ``by`` to ``host`` (none when they do not meet)."""

@@ -41,6 +41,7 @@ from ifccheck.loads.combinations import (
     patterned,
     strength_combinations,
 )
+from ifccheck.loads.spans import is_floor_beam, span_note
 from ifccheck.loads.statics import (
     BeamAnalysis,
     BeamProblem,
@@ -52,7 +53,14 @@ from ifccheck.loads.statics import (
     analyse_beams,
     spans_of,
 )
-from ifccheck.loads.tributary import DeckSpan, Tributary, compute_tributary
+from ifccheck.loads.tributary import (
+    DeckSpan,
+    Tributary,
+    TributaryResult,
+    compute_tributary,
+    level_entries,
+    level_of,
+)
 from ifccheck.model import Member, Model, Slab
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import NotChecked, Reason
@@ -92,6 +100,7 @@ class SupportReaction:
     by_class: str
     end: str | None
     reactions: dict[str, float] = field(default_factory=dict)  # case → N, upward positive
+    centreline: float = 0.0  # station of the support's centreline along the beam
 
 
 @dataclass
@@ -121,6 +130,11 @@ class BeamDemand:
     # governing combinations (moment, shear) of the computed demand, kept when
     # an analysis overrides the maxima
     computed_governing: tuple[str, str] = ("", "")
+    # The analysis runs between support centrelines: its station 0 is ``offset``
+    # before the beam's modelled start, and it is ``span_length`` long.
+    offset: float = 0.0
+    span_length: float = 0.0
+    floor_loaded: bool = False  # a floor or roof load reached it (itself or carried)
 
     @property
     def computed(self) -> bool:
@@ -170,39 +184,65 @@ class DemandResult:
     support_reactions: dict[str, dict[str, float]]
     method: str
     warnings: list[tuple[str, str]] = field(default_factory=list)
+    load_balance: list[LoadBalanceRow] = field(default_factory=list)
 
 
-def _pressures(settings: Settings, storey: str, slab: Slab | None) -> tuple[float, float]:
-    """(superimposed dead, live) in Pa: slab override, then storey, then default."""
+@dataclass(frozen=True)
+class LoadBalanceRow:
+    """Per level and case: the load put on the level and what its beams passed on."""
+
+    level: str
+    case: str
+    applied: float  # N: floor area × pressure, slab and steel self-weight
+    delivered: float  # N: reactions onto columns, walls and members of other levels
+
+
+def _pressures(
+    settings: Settings, level: StoreyLoads | None, slab: Slab | None
+) -> tuple[float, float]:
+    """(superimposed dead, live) in Pa: slab override, then level, then default."""
     loads = settings.loads
     chain: list[StoreyLoads | None] = []
     if slab is not None:
-        chain += [loads.slabs.get(slab.guid), loads.storeys.get(slab.storey)]
-    chain.append(loads.storeys.get(storey))
+        chain.append(loads.slabs.get(slab.guid))
+    chain.append(level)
     dead = next((e.dead for e in chain if e is not None and e.dead is not None), loads.dead)
     live = next((e.live for e in chain if e is not None and e.live is not None), loads.live)
     return dead, live
 
 
+def _slab_weight(slab: Slab, settings: Settings) -> float:
+    """Self-weight of a slab or declared deck, Pa."""
+    if slab.self_weight is not None:
+        return slab.self_weight
+    return slab.thickness * settings.loads.concrete_density * G
+
+
 def _own_loads(
-    m: Member, length: float, tr: Tributary | None, settings: Settings, slabs: Mapping[str, Slab]
+    m: Member,
+    length: float,
+    tr: Tributary | None,
+    settings: Settings,
+    slabs: Mapping[str, Slab],
+    level: StoreyLoads | None = None,
 ) -> list[LineLoadItem]:
+    """Steel self-weight, and the floor of its tributary unless its level carries none."""
     out: list[LineLoadItem] = []
     if m.section is not None and m.section.A > 0:
         w = m.section.A * settings.loads.steel_density * G
         out.append(LineLoadItem("D", w, 0.0, length, "steel self-weight"))
-    if tr is None:
+    if tr is None or (level is not None and level.floor is False):
         return out
     for p in tr.pieces:
         slab = slabs.get(p.slab) if p.slab else None
         if p.kind == "floor":
-            dead, live = _pressures(settings, m.storey, slab)
+            dead, live = _pressures(settings, level, slab)
             if dead > 0:
                 out.append(LineLoadItem("D", dead * p.width, p.start, p.end, "superimposed dead"))
             if live > 0:
                 out.append(LineLoadItem("L", live * p.width, p.start, p.end, "live"))
         elif slab is not None:
-            q = slab.thickness * settings.loads.concrete_density * G
+            q = _slab_weight(slab, settings)
             out.append(
                 LineLoadItem("D", q * p.width, p.start, p.end, f"slab self-weight {slab.guid}")
             )
@@ -282,7 +322,7 @@ def _compute_demand(
     settings: Settings,
     overrides: Mapping[str, tuple[float, float | None]] | None,
 ) -> DemandResult:
-    trib = compute_tributary(model, settings)
+    trib = compute_tributary(model, settings, framing)
     members = {m.guid: m for m in model.members}
     slabs = {s.guid: s for s in model.slabs}
     combos = strength_combinations(settings.design.method)
@@ -296,34 +336,50 @@ def _compute_demand(
     beams = [members[g] for g in trib.beams]
     lines = _lines(beams)
 
+    entries = level_entries(model, settings)
+    for m in model.members:  # floor beams that carry nothing: their reason
+        if is_floor_beam(m) and m.guid in trib.unable:
+            bd = BeamDemand(m.guid, level_of(m), m.length, reason=trib.unable[m.guid])
+            mf = framing.members.get(m.guid)
+            bd.notes += list(mf.notes) if mf is not None else []
+            result.beams[m.guid] = bd
+
     own: dict[str, list[LineLoadItem]] = {}
     for m in beams:
         tr = trib.beams[m.guid]
+        span = trib.spans[m.guid]
         bd = BeamDemand(
             guid=m.guid,
-            storey=m.storey,
+            storey=level_of(m),
             length=lines[m.guid].length,
             role=tr.role,
             tributary_left=tr.left,
             tributary_right=tr.right,
             combinations=combos,
             notes=list(tr.notes),
+            offset=-span.start,
+            span_length=span.span_length,
         )
         result.beams[m.guid] = bd
-        own[m.guid] = _own_loads(m, lines[m.guid].length, tr, settings, slabs)
+        entry = entries.get(level_of(m))
+        floor = entry is None or entry.floor is not False
+        own[m.guid] = _own_loads(m, lines[m.guid].length, tr, settings, slabs, entry)
         if m.section is None:
             bd.notes.append("no section: steel self-weight and deflection not computed")
-        mf = framing.members.get(m.guid)
-        if mf is None:
-            bd.reason = Reason.of(NotChecked.NOT_IN_FRAMING)
-            continue
+        if not floor:
+            bd.notes.append("its level carries no floor (settings): checked on what it carries")
+        note = span_note(span)
+        if note:
+            bd.notes.append(note)
+        mf = framing.members[m.guid]
         bd.notes += [n for n in mf.notes if n not in bd.notes]
         for s in mf.supports:
-            bd.supports.append(SupportReaction(s.station, s.by, s.by_class, s.end))
-        if not mf.supports:
-            bd.reason = Reason.of(NotChecked.UNSUPPORTED)
+            bd.supports.append(
+                SupportReaction(s.station, s.by, s.by_class, s.end, centreline=span.centreline(s))
+            )
 
     levels = _solve_levels(framing, result, [m.guid for m in beams])
+    balance = _Balance()
 
     incoming: dict[str, list[PointLoadItem]] = {}
     for level in levels:
@@ -336,12 +392,14 @@ def _compute_demand(
             bd.point_loads = sorted(incoming.get(g, []), key=lambda p: (p.station, p.source))
             line: dict[str, list[LineLoad]] = {c: [] for c in CASES}
             point: dict[str, list[PointLoad]] = {c: [] for c in CASES}
+            off = bd.offset  # analysis stations run from the first support centreline
             for x in items:
-                line[x.case].append(LineLoad(x.w, x.start, x.end))
+                line[x.case].append(LineLoad(x.w, x.start + off, x.end + off))
             for y in bd.point_loads:
-                point[y.case].append(PointLoad(y.P, y.station))
+                point[y.case].append(PointLoad(y.P, y.station + off))
             cases = {c: CaseLoads(tuple(line[c]), tuple(point[c])) for c in CASES}
-            regions = spans_of(np.array(sorted(s.station for s in bd.supports)), lines[g].length)
+            supports = sorted(s.centreline + bd.offset for s in bd.supports)
+            regions = spans_of(np.array(supports), bd.span_length)
             patterns = live_patterns(len(regions)) if len(bd.supports) >= 2 else []
             if patterns:
                 cases.update(_live_by_region(line["L"], point["L"], regions))
@@ -353,14 +411,11 @@ def _compute_demand(
                     *SERVICE, *(p for c in SERVICE for p in patterned(c, patterns, labels))
                 )  # fmt: skip
             fr = framing.members[g]
-            extra = {b.station for b in fr.brace_points}
-            extra |= {x for iv in fr.continuous_bracing for x in iv}
+            extra = {b.station + off for b in fr.brace_points}
+            extra |= {x + off for iv in fr.continuous_bracing for x in iv}
+            extra = {x for x in extra if 0.0 <= x <= bd.span_length}
             EI = m.steel.E * m.section.Ix if m.section is not None and m.steel is not None else None
-            problems.append(
-                BeamProblem(
-                    lines[g].length, [s.station for s in bd.supports], cases, EI, sorted(extra)
-                )
-            )
+            problems.append(BeamProblem(bd.span_length, supports, cases, EI, sorted(extra)))
         factors = [c.factors for c in combos]
         for g, res in zip(level, analyse_beams(problems, combinations=factors), strict=True):
             bd = result.beams[g]
@@ -377,7 +432,8 @@ def _compute_demand(
                 continue
             bd.analysis = res
             bd.source = "computed"
-            _deliver(bd, res, lines, result, incoming, framing)
+            _deliver(bd, res, lines, result, incoming, framing, balance)
+            bd.floor_loaded = _floor_reached(bd, trib.beams[g], result)
             own_combos = bd.combinations
             if len(own_combos) != len(combos):
                 mo, sh = res.combination_maxima([c.factors for c in own_combos])
@@ -398,9 +454,120 @@ def _compute_demand(
             result.warnings.append(
                 (g, f"not computed ({bd.reason}); reactions of {', '.join(lost)} stop here")
             )
+    _require_floor_load(model, result, trib, entries)
+    result.load_balance = _load_balance(model, trib, settings, entries, own, balance, members)
+    for row in result.load_balance:
+        if row.applied > 0 and abs(row.delivered - row.applied) > BALANCE_TOLERANCE * row.applied:
+            result.warnings.append(
+                ("", f"load on {row.level} not conserved for {row.case}: "
+                 f"{row.delivered / row.applied:.1%} of the applied load reaches the supports")
+            )  # fmt: skip
     if overrides:
         _apply_overrides(result, overrides)
     return result
+
+
+# Applied and delivered load of a level agree within this share (Issue: 0.5 %).
+BALANCE_TOLERANCE = 0.005
+
+
+@dataclass
+class _Balance:
+    """Load leaving each level's beams for its supports, per case (N)."""
+
+    delivered: dict[tuple[str, str], float] = field(default_factory=dict)
+
+    def add(self, level: str, case: str, force: float) -> None:
+        key = (level, case)
+        self.delivered[key] = self.delivered.get(key, 0.0) + force
+
+
+def _floor_reached(bd: BeamDemand, tr: Tributary, result: DemandResult) -> bool:
+    """A floor load reached the beam: its own tributary floor, or a beam it carries."""
+    if tr.floor_area > 0.0:
+        return True
+    sources = {p.source for p in bd.point_loads}
+    return any(result.beams[s].floor_loaded for s in sources if s in result.beams)
+
+
+def _require_floor_load(
+    model: Model, result: DemandResult, trib: TributaryResult, entries: Mapping[str, StoreyLoads]
+) -> None:
+    """No pass on self-weight alone: a beam no floor load reached is not checked (unless
+    its level carries no floor by the settings), with one warning per level."""
+    floors = {fa.level for fa in trib.floors}
+    levels_with_slab = {s.level or s.storey for s in model.slabs}
+    missing: dict[str, int] = {}
+    for bd in result.beams.values():
+        level = bd.storey
+        if bd.reason is not None or bd.floor_loaded:
+            continue
+        if entries.get(level, StoreyLoads()).floor is False:
+            continue
+        ds = result.deck_spans.get(level)
+        if level in levels_with_slab and ds is not None and ds.angle is None:
+            bd.reason = Reason.of(NotChecked.NO_DECK_DIRECTION, level=level or "its level")
+        elif level not in levels_with_slab and level not in floors:
+            bd.reason = Reason.of(
+                NotChecked.NO_FLOOR_LOAD,
+                detail=f"no slab modelled on {level or 'its level'} and none declared",
+            )
+            missing[level] = missing.get(level, 0) + 1
+        else:
+            bd.reason = Reason.of(
+                NotChecked.NO_FLOOR_LOAD,
+                detail="no slab bears on it and no beam carrying floor load frames into it",
+            )
+    for level, n in sorted(missing.items()):
+        result.warnings.append(
+            ("", f"no floor load on {level or 'a level without a name'}: no slab modelled and "
+             f"none declared; {n} beam{'s' if n != 1 else ''} not checked (declare the deck "
+             "under [decks] or give their demand with --demands)")
+        )  # fmt: skip
+    for level, ds in sorted(result.deck_spans.items()):
+        if ds.angle is None and level in levels_with_slab:
+            result.warnings.append(
+                ("", f"deck span direction on {level} cannot be told from the framing (no "
+                 "infill beams framing into beams at both ends); state deck_span in the settings")
+            )  # fmt: skip
+
+
+def _load_balance(
+    model: Model,
+    trib: TributaryResult,
+    settings: Settings,
+    entries: Mapping[str, StoreyLoads],
+    own: Mapping[str, list[LineLoadItem]],
+    balance: _Balance,
+    members: Mapping[str, Member],
+) -> list[LoadBalanceRow]:
+    """Applied (floor area × pressure, slab and steel self-weight) against delivered load,
+    per level and case, for the levels whose floor was distributed."""
+    slabs = {s.guid: s for s in model.slabs}
+    applied: dict[tuple[str, str], float] = {}
+
+    def add(level: str, case: str, force: float) -> None:
+        applied[(level, case)] = applied.get((level, case), 0.0) + force
+
+    for fa in trib.floors:
+        if not fa.computed or entries.get(fa.level, StoreyLoads()).floor is False:
+            continue
+        slab = slabs[fa.slab]
+        dead, live = _pressures(settings, entries.get(fa.level), slab)
+        add(fa.level, "D", fa.area * (dead + _slab_weight(slab, settings)))
+        add(fa.level, "L", fa.area * live)
+    for g, items in own.items():
+        level = level_of(members[g])
+        for x in items:
+            if x.source == "steel self-weight":
+                add(level, x.case, x.w * (x.end - x.start))
+    rows = []
+    for (level, case), force in sorted(applied.items()):
+        if level in {lv for lv, _ in applied} and any(fa.level == level for fa in trib.floors):
+            rows.append(
+                LoadBalanceRow(level, case, force, balance.delivered.get((level, case), 0.0))
+            )
+    return rows
 
 
 def region_labels(regions: list[tuple[float, float, str]]) -> list[str]:
@@ -436,13 +603,15 @@ def _deliver(
     result: DemandResult,
     incoming: dict[str, list[PointLoadItem]],
     framing: Framing,
+    balance: _Balance,
 ) -> None:
-    """Give each support its reaction and pass it on to the supporting member."""
+    """Give each support its reaction and pass it on to the supporting member; what
+    leaves the beam's level is counted in ``balance``."""
     carried = lines[bd.guid]
     # framing supports → analysis support (merged stations); one receiver each
     groups: dict[int, list[SupportReaction]] = {}
     for s in bd.supports:
-        j = int(np.argmin(np.abs(res.supports - s.station)))
+        j = int(np.argmin(np.abs(res.supports - (s.centreline + bd.offset))))
         groups.setdefault(j, []).append(s)
     fsup = {(s.station, s.by): s for s in framing.members[bd.guid].supports}
     for j, group in groups.items():
@@ -451,13 +620,15 @@ def _deliver(
         if len(group) > 1:
             others = ", ".join(s.by for s in group[1:])
             bd.notes.append(
-                f"support at {receiver.station:.3f} m bears on {receiver.by} and {others}: "
-                f"the reaction goes to {receiver.by}"
+                f"a support bears on {receiver.by} and {others}: the reaction goes to {receiver.by}"
             )
+        host = result.beams.get(receiver.by)
         st = None
-        if receiver.by in result.beams:
+        if receiver.by in lines:
             sup = fsup[(receiver.station, receiver.by)]
             st = _host_station(framing, carried, bd.guid, sup, lines[receiver.by])
+        elif host is not None:
+            st = 0.0  # a floor beam that carries nothing: the load stops there (warned)
         for ci, c in enumerate(res.cases):
             if c not in CASES:
                 continue  # live-load patterns (L@k) are for this beam's own check only
@@ -470,6 +641,8 @@ def _deliver(
             else:
                 tot = result.support_reactions.setdefault(receiver.by, {})
                 tot[c] = tot.get(c, 0.0) + R
+            if host is None or host.storey != bd.storey:
+                balance.add(bd.storey, c, R)
 
 
 def _apply_overrides(

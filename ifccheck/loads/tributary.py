@@ -1,24 +1,30 @@
-"""Tributary widths of floor beams under one-way deck action.
+"""Tributary widths of floor beams under one-way deck action, with the floor conserved.
 
-On each storey the floor beams are grouped by plan direction (families of
-parallel beams). The deck spans between the family with the closest
-spacing — perpendicular to those beams — unless the settings say otherwise
-(per storey or per slab). Each beam of that family (a "deck beam") takes
-half the centre-to-centre distance to its nearest overlapping parallel
-neighbour on each side; with no neighbour on a side it takes the floor out
-to the slab edge (at most one typical spacing) where a slab is modelled, and
-nothing where none is. The strip (beam line buffered by those widths, flat
-caps) is clipped to the footprints of the slabs bearing on the beam (their
-openings are holes), and its width along the beam becomes a set of pieces
-[start, end, width] in stations. Beams of the other families ("girders")
-take no deck load; they carry the reactions of the beams framing into them.
+On each level the load-carrying floor beams (``spans.load_capable``) are
+grouped by plan direction (families of parallel beams). The deck spans
+perpendicular to the family that the infill beams belong to — the beams
+framing into other beams at both ends — unless the settings say otherwise
+(per level, per slab, or a declared deck). Where neither tells, the level's
+deck direction is unknown and its beams are not checked.
+
+Each beam of that family (a "deck beam") takes half the centre-to-centre
+distance to its nearest overlapping parallel neighbour on each side; with no
+neighbour on a side it takes the floor out to the slab edge (at most one
+typical spacing). The strip runs between the centrelines of the beam's
+supports, is clipped to the footprints of the slabs bearing on the beam
+(openings are holes) and its width along the beam becomes pieces [start,
+end, width] in stations. Whatever floor of a bearing slab the strips leave
+(edges beyond the outer beams, corners, the sides of openings) goes to the
+nearest beam the slab bears on (``residual.py``), so every area of floor
+reaches a member. Beams of the other families ("girders") carry the
+reactions of the beams framing into them, and their share of the leftover.
 """
 
 from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from typing import Literal
 
 import numpy as np
@@ -28,8 +34,14 @@ from shapely.geometry.base import BaseGeometry
 from shapely.geometry.polygon import orient
 
 from ifccheck.config import Settings, StoreyLoads, deck_span_degrees
-from ifccheck.model import Member, MemberRole, Model, Slab
+from ifccheck.floors import assign_levels, match_levels
+from ifccheck.framing.slabs import bearing_tolerance
+from ifccheck.framing.types import Framing
+from ifccheck.loads.residual import leftover_pieces
+from ifccheck.loads.spans import BeamSpan, beam_spans, load_capable
+from ifccheck.model import Member, Model, Slab
 from ifccheck.perf import gc_paused
+from ifccheck.reasons import Reason
 
 # Beams whose plan directions differ by less than this are parallel.
 FAMILY_TOLERANCE = 3.0  # degrees
@@ -84,15 +96,28 @@ class Tributary:
 
 @dataclass
 class DeckSpan:
-    """The deck span direction used on one storey."""
+    """The deck span direction used on one level."""
 
-    storey: str
+    storey: str  # the level's name
     angle: float | None  # deck span direction, degrees from +x in [0, 180)
     source: Literal["inferred", "settings", "none"]
     beam_angle: float | None  # direction of the beams the deck spans between
     typical_spacing: float | None  # m, median spacing of those beams
     # every family of parallel beams: (direction in degrees, beams, typical spacing)
     families: list[tuple[float, int, float | None]] = field(default_factory=list)
+    evidence: int = 0  # beams that agree: the infill of the deck family, or its beams
+    basis: str = ""  # "infill beams", "the only family of parallel beams" or "settings"
+
+
+@dataclass
+class FloorArea:
+    """The floor of one slab or declared deck that the load path distributes."""
+
+    slab: str  # GUID
+    level: str
+    area: float  # m² (plan, openings removed)
+    delivered: float = 0.0  # m² that reached a beam
+    computed: bool = True  # False where the level's deck direction is unknown
 
 
 @dataclass
@@ -100,17 +125,10 @@ class TributaryResult:
     beams: dict[str, Tributary]
     deck_spans: dict[str, DeckSpan]
     warnings: list[tuple[str, str]] = field(default_factory=list)
-
-
-def floor_beams(model: Model) -> list[Member]:
-    """Members that can carry floor load: horizontal-ish beams with a plan length."""
-    out = []
-    for m in model.members:
-        if m.role is not MemberRole.BEAM or m.is_vertical:
-            continue
-        if math.hypot(m.end[0] - m.start[0], m.end[1] - m.start[1]) > 1e-6:
-            out.append(m)
-    return out
+    # floor beams that carry nothing, and why (fewer than two supports, ...)
+    unable: dict[str, Reason] = field(default_factory=dict)
+    spans: dict[str, BeamSpan] = field(default_factory=dict)
+    floors: list[FloorArea] = field(default_factory=list)
 
 
 def plan_families(angles: np.ndarray, tol: float = FAMILY_TOLERANCE) -> np.ndarray:
@@ -205,8 +223,9 @@ def find_neighbours(
 @dataclass
 class _Family:
     direction: float  # degrees
-    members: np.ndarray  # indices into the storey's beam list
+    members: np.ndarray  # indices into the level's beam list
     spacing: float | None
+    infill: int = 0  # members framing into beams at both ends
 
 
 def _override_angle(*entries: StoreyLoads | None) -> float | None:
@@ -367,197 +386,328 @@ def _strips(
     return shapely.polygons(np.stack([a - em, b - em, b + ep, a + ep], axis=1))
 
 
-def compute_tributary(model: Model, settings: Settings) -> TributaryResult:
-    """Deck span direction per storey and tributary width pieces per floor beam."""
+def compute_tributary(model: Model, settings: Settings, framing: Framing) -> TributaryResult:
+    """Deck span direction per level and tributary width pieces per load-carrying beam."""
+    if not model.levels:  # called without the floors stage: the levels it would find
+        assign_levels(model, settings.framing.level_tolerance)
     with gc_paused():
-        return _compute_tributary(model, settings)
+        return _compute_tributary(model, settings, framing)
 
 
-def _compute_tributary(model: Model, settings: Settings) -> TributaryResult:
-    beams = floor_beams(model)
-    result = TributaryResult(beams={}, deck_spans={})
-    loads = settings.loads
-    by_storey: dict[str, list[int]] = {}
-    for i, m in enumerate(beams):
-        by_storey.setdefault(m.storey, []).append(i)
-    if not beams:
-        return result
+def level_of(m: Member) -> str:
+    return m.level or m.storey
 
-    p0 = np.array([m.start[:2] for m in beams], dtype=float)
-    p1 = np.array([m.end[:2] for m in beams], dtype=float)
+
+def level_entries(model: Model, settings: Settings) -> dict[str, StoreyLoads]:
+    """The ``loads.storeys`` entry that applies to each level (by name, storey or
+    elevation); a declared deck's ``deck_span`` stands in where the entry has none."""
+    tol = settings.framing.level_tolerance
+    out: dict[str, StoreyLoads] = {}
+    for key, entry in settings.loads.storeys.items():
+        for lv in match_levels(key, model.levels, tol):
+            out[lv.name] = entry
+    for key, deck in settings.decks.items():
+        if deck.deck_span is None:
+            continue
+        for lv in match_levels(key, model.levels, tol):
+            found = out.get(lv.name, StoreyLoads())
+            if found.deck_span is None:
+                out[lv.name] = replace(found, deck_span=deck.deck_span)
+    return out
+
+
+@dataclass
+class _Beams:
+    """The load-carrying floor beams as arrays (row i is ``members[i]``), plan geometry."""
+
+    members: list[Member]
+    p0: np.ndarray  # plan start
+    t: np.ndarray  # plan unit direction
+    plan_len: np.ndarray
+    angle: np.ndarray  # plan direction, degrees in [0, 180)
+    length3d: np.ndarray
+    top: np.ndarray
+    span: np.ndarray  # (start, end) stations of the centreline span
+    scale: np.ndarray  # station per plan length (sloped beams)
+    infill: np.ndarray  # frames into beams at both ends
+
+
+def _beam_arrays(beams: list[Member], spans: dict[str, BeamSpan], framing: Framing) -> _Beams:
+    p0 = np.array([m.start[:2] for m in beams], dtype=float).reshape(-1, 2)
+    p1 = np.array([m.end[:2] for m in beams], dtype=float).reshape(-1, 2)
     d = p1 - p0
     plan_len = np.hypot(d[:, 0], d[:, 1])
-    t = d / plan_len[:, None]
-    angle = np.degrees(np.arctan2(t[:, 1], t[:, 0])) % 180.0
-    length3d = np.array([m.length for m in beams])
-    top = np.array([m.top_of_steel for m in beams])
+    length3d = np.array([m.length for m in beams], dtype=float)
+    beam_guids = {m.guid for m in beams}
+    return _Beams(
+        members=beams,
+        p0=p0,
+        t=d / plan_len[:, None],
+        plan_len=plan_len,
+        angle=np.degrees(np.arctan2(d[:, 1], d[:, 0])) % 180.0,
+        length3d=length3d,
+        top=np.array([m.top_of_steel for m in beams], dtype=float),
+        span=np.array([(spans[m.guid].start, spans[m.guid].end) for m in beams]).reshape(-1, 2),
+        scale=length3d / plan_len,
+        infill=np.array([_is_infill(framing, m.guid, beam_guids) for m in beams], dtype=bool),
+    )
 
-    # per storey: families, neighbours, typical spacing, deck family
-    family_of = np.full(len(beams), -1)
-    fam_p = np.zeros((len(beams), 2))  # the family's +p direction for each beam
-    left = np.zeros(len(beams))
-    right = np.zeros(len(beams))  # widths toward +p (left) and -p (right) before edges
-    nb_plus = np.full(len(beams), -1)
-    nb_minus = np.full(len(beams), -1)
-    storey_families: dict[str, list[_Family]] = {}
-    for storey, idx_list in by_storey.items():
-        idx = np.asarray(idx_list)
-        labels = plan_families(angle[idx])
-        fams: list[_Family] = []
-        for f in range(int(labels.max()) + 1 if idx.size else 0):
-            members = idx[labels == f]
-            direction = family_direction(angle[members])
-            td = np.array([math.cos(math.radians(direction)), math.sin(math.radians(direction))])
-            pd = np.array([-td[1], td[0]])
-            ua, ub = p0[members] @ td, p1[members] @ td
-            mid = 0.5 * (p0[members] + p1[members])
-            nb = find_neighbours(np.minimum(ua, ub), np.maximum(ua, ub), mid @ pd)
-            nearest = np.minimum(nb.gap_plus, nb.gap_minus)
-            spacing = (
-                float(np.median(nearest[np.isfinite(nearest)]))
-                if np.isfinite(nearest).any()
-                else None
-            )
-            if spacing is not None:
-                for gap, nbr in ((nb.gap_plus, nb.plus), (nb.gap_minus, nb.minus)):
-                    too_far = gap > FAR_NEIGHBOUR * spacing
-                    gap[too_far] = np.inf
-                    nbr[too_far] = -1
-            gp = np.where(np.isfinite(nb.gap_plus), nb.gap_plus / 2, 0.0)
-            gm = np.where(np.isfinite(nb.gap_minus), nb.gap_minus / 2, 0.0)
-            family_of[members] = len(fams)
-            fam_p[members] = pd
-            left[members], right[members] = gp, gm
-            nb_plus[members] = np.where(nb.plus >= 0, members[np.maximum(nb.plus, 0)], -1)
-            nb_minus[members] = np.where(nb.minus >= 0, members[np.maximum(nb.minus, 0)], -1)
-            fams.append(_Family(direction, members, spacing))
-        storey_families[storey] = fams
 
-        spaced = [i for i, f in enumerate(fams) if f.spacing is not None]
-        inferred: int | None
-        if spaced:
-            inferred = min(spaced, key=lambda i: (fams[i].spacing, -fams[i].members.size))
-        else:
-            inferred = max(range(len(fams)), key=lambda i: fams[i].members.size, default=None)
-        override = _override_angle(loads.storeys.get(storey))
-        span_angle: float | None
-        source: Literal["inferred", "settings", "none"]
-        if override is not None:
-            chosen = _nearest_family(fams, (override + 90.0) % 180.0)
-            span_angle, source = override, "settings"
-        else:
-            chosen = inferred
-            span_angle = (fams[chosen].direction + 90.0) % 180.0 if chosen is not None else None
-            source = "inferred" if chosen is not None else "none"
-        result.deck_spans[storey] = DeckSpan(
-            storey=storey,
-            angle=span_angle,
-            source=source,
-            beam_angle=fams[chosen].direction if chosen is not None else None,
-            typical_spacing=fams[chosen].spacing if chosen is not None else None,
-            families=[(f.direction, int(f.members.size), f.spacing) for f in fams],
-        )
+def _is_infill(framing: Framing, guid: str, beams: set[str]) -> bool:
+    """Both ends bear on beams only (no column or wall at either end)."""
+    by_end: dict[str, set[str]] = {}
+    for s in framing.members[guid].supports:
+        if s.end is not None:
+            by_end.setdefault(s.end, set()).add(s.by)
+    return len(by_end) == 2 and all(hosts <= beams for hosts in by_end.values())
+
+
+def _compute_tributary(model: Model, settings: Settings, framing: Framing) -> TributaryResult:
+    capable, unable = load_capable(model, framing)
+    spans = beam_spans(model, framing, capable)
+    result = TributaryResult(beams={}, deck_spans={}, unable=unable, spans=spans)
+    if not capable:
+        return result
+    bm = _beam_arrays(capable, spans, framing)
+    entries = level_entries(model, settings)
+    by_level: dict[str, list[int]] = {}
+    for i, m in enumerate(capable):
+        by_level.setdefault(level_of(m), []).append(i)
+
+    n = len(capable)
+    family_of = np.full(n, -1)
+    fam_p = np.zeros((n, 2))  # the family's +p direction for each beam
+    half = np.zeros((n, 2))  # half gaps toward +p and -p (0 where no neighbour)
+    nb = np.full((n, 2), -1)  # neighbours toward +p and -p
+    level_families: dict[str, list[_Family]] = {}
+    for level, rows in by_level.items():
+        fams = _families(np.asarray(rows), bm, family_of, fam_p, half, nb)
+        level_families[level] = fams
+        result.deck_spans[level] = _deck_span(level, fams, bm, entries.get(level))
 
     slabs = model.slabs
-    storeys_with_slab = {s.storey for s in slabs}
-    foot = np.array([s.footprint for s in slabs], dtype=object)
-    under = np.array([s.underside for s in slabs], dtype=float)
-    slab_top = np.array([s.top for s in slabs], dtype=float)
-    tree = STRtree(foot) if slabs else None
-    if slabs:
-        shapely.prepare(foot)
-    tol = settings.framing.slab_bearing_tolerance
-
-    # nominal strips: the storey's deck family with edge extensions
-    edge_ext = np.zeros(len(beams))
-    for families in storey_families.values():
-        for family in families:
-            # a lone beam (no spacing known) takes the floor out to the slab edge
-            edge_ext[family.members] = (
-                family.spacing if family.spacing is not None else plan_len[family.members]
-            )
-    nrm = np.stack([-t[:, 1], t[:, 0]], axis=1)
-    flip = np.einsum("ij,ij->i", nrm, fam_p) < 0  # the beam's own left is -p
-    nrm[flip] *= -1.0  # now nrm is +p for every beam
-    ext_plus = np.where(nb_plus >= 0, left, edge_ext)
-    ext_minus = np.where(nb_minus >= 0, right, edge_ext)
-    rects = _strips(p0, p1, t, nrm, ext_plus, ext_minus, 0.0)
-    # the query strips are a hair smaller, so slabs that only touch them drop out
-    query = _strips(p0, p1, t, nrm, ext_plus, ext_minus, _TOUCH)
-    cand: dict[int, list[int]] = {}
-    if tree is not None:
-        bi, si = tree.query(query, predicate="intersects")
-        bearing = np.abs(under[si] - top[bi]) <= tol
-        for b, s in zip(bi[bearing].tolist(), si[bearing].tolist(), strict=True):
-            cand.setdefault(b, []).append(s)
-        # slabs stacked on a bearing slab (a topping on a deck) are carried too
-        for b, s in zip(bi[~bearing].tolist(), si[~bearing].tolist(), strict=True):
-            if b in cand and any(abs(under[s] - slab_top[c]) <= tol for c in cand[b]):
-                cand[b].append(s)
-
-    # the family the deck spans between, per (storey, slab): overrides first
+    cand = _bearing_slabs(bm, slabs, settings.framing.slab_bearing_tolerance)
     deck_cache: dict[tuple[str, str | None], int | None] = {}
 
-    def deck_family(storey: str, slab: Slab | None) -> int | None:
-        key = (storey, slab.guid if slab is not None else None)
+    def deck_family(level: str, slab: Slab | None) -> int | None:
+        key = (level, slab.guid if slab is not None else None)
         if key not in deck_cache:
-            fams = storey_families[storey]
-            entries = [loads.storeys.get(storey)]
-            if slab is not None:
-                entries = [loads.slabs.get(slab.guid), loads.storeys.get(slab.storey), *entries]
-            angle = _override_angle(*entries)
-            beam_dir = result.deck_spans[storey].beam_angle
+            fams = level_families[level]
+            angle = _override_angle(settings.loads.slabs.get(slab.guid)) if slab else None
+            beam_dir = result.deck_spans[level].beam_angle
             if angle is not None:
                 beam_dir = (angle + 90.0) % 180.0
             deck_cache[key] = None if beam_dir is None else _nearest_family(fams, beam_dir)
         return deck_cache[key]
 
-    to_clip: list[list[int]] = [[] for _ in beams]
+    # nominal strips: the deck family with edge extensions, support centreline to centreline
+    edge_ext = np.zeros(n)
+    for families in level_families.values():
+        for family in families:
+            # a lone beam (no spacing known) takes the floor out to the slab edge
+            edge_ext[family.members] = (
+                family.spacing if family.spacing is not None else bm.plan_len[family.members]
+            )
+    t = bm.t
+    nrm = np.stack([-t[:, 1], t[:, 0]], axis=1)
+    flip = np.einsum("ij,ij->i", nrm, fam_p) < 0  # the beam's own left is -p
+    nrm[flip] *= -1.0  # now nrm is +p for every beam
+    ext_plus = np.where(nb[:, 0] >= 0, half[:, 0], edge_ext)
+    ext_minus = np.where(nb[:, 1] >= 0, half[:, 1], edge_ext)
+    a = bm.p0 + t * (bm.span[:, 0] / bm.scale)[:, None]
+    b = bm.p0 + t * (bm.span[:, 1] / bm.scale)[:, None]
+    rects = _strips(a, b, t, nrm, ext_plus, ext_minus, 0.0)
+
+    to_clip: list[list[int]] = [[] for _ in capable]
     trs: list[Tributary] = []
-    for i, m in enumerate(beams):
-        fam: dict[str | None, int | None] = {None: deck_family(m.storey, None)}
+    for i, m in enumerate(capable):
+        level = level_of(m)
+        fam: dict[str | None, int | None] = {None: deck_family(level, None)}
         for si in cand.get(i, []):
-            fam[slabs[si].guid] = deck_family(m.storey, slabs[si])
+            fam[slabs[si].guid] = deck_family(level, slabs[si])
         tr = _beam_tributary(
-            m,
-            beams,
-            slabs,
-            cand.get(i, []),
-            m.storey in storeys_with_slab,
-            int(family_of[i]),
-            float(plan_len[i]),
-            float(length3d[i]),
-            (float(left[i]), float(right[i])),
-            (int(nb_plus[i]), int(nb_minus[i])),
-            float(edge_ext[i]),
-            bool(flip[i]),
-            fam,
-            to_clip[i],
-        )
+            m, capable, slabs, cand.get(i, []), int(family_of[i]),
+            (float(ext_plus[i]), float(ext_minus[i])), (int(nb[i, 0]), int(nb[i, 1])),
+            bool(flip[i]), fam, to_clip[i],
+        )  # fmt: skip
+        if result.deck_spans[level].angle is None:
+            tr.role, to_clip[i] = "other", []
         result.beams[m.guid] = tr
         trs.append(tr)
-    jobs = _clip_jobs(to_clip, rects, slabs, foot, trs, length3d, plan_len)
+    jobs, taken = _clip_jobs(to_clip, rects, slabs, bm, trs)
 
     # integrate every clipped strip in one pass
     owner = np.array([i for i, js in enumerate(jobs) for _ in js], dtype=int)
     flat = [j for js in jobs for j in js]
-    got = _integrate([j.geom for j in flat], p0[owner], t[owner], nrm[owner], plan_len[owner])
-    side = np.zeros((len(beams), 2))
+    got = _integrate([j.geom for j in flat], a[owner], t[owner], nrm[owner],
+                     (bm.span[owner, 1] - bm.span[owner, 0]) / bm.scale[owner])  # fmt: skip
+    side = np.zeros((n, 2))
     for k, (i, job) in enumerate(zip(owner.tolist(), flat, strict=True)):
-        tr = result.beams[beams[i].guid]
-        scale = length3d[i] / plan_len[i]  # station per plan length (sloped beams)
+        tr = result.beams[capable[i].guid]
+        s0, sc = float(bm.span[i, 0]), float(bm.scale[i])
         for kind in job.kinds:
-            tr.pieces += [WidthPiece(a * scale, z * scale, w / scale, job.slab, kind)
-                          for a, z, w in got.runs[k]]  # fmt: skip
+            tr.pieces += [WidthPiece(s0 + u0 * sc, s0 + u1 * sc, w / sc, job.slab, kind)
+                          for u0, u1, w in got.runs[k]]  # fmt: skip
         if "floor" in job.kinds:
             side[i] += (got.plus[k], got.minus[k])
     for i in np.unique(owner).tolist():
         # a side without a neighbour reaches the slab edge: report its mean width
-        tr = result.beams[beams[i].guid]
-        wp = float(side[i, 0] / plan_len[i]) if nb_plus[i] < 0 else float(left[i])
-        wm = float(side[i, 1] / plan_len[i]) if nb_minus[i] < 0 else float(right[i])
-        _set_widths(tr, wp, wm, bool(flip[i]), beams, int(nb_plus[i]), int(nb_minus[i]))
+        tr = result.beams[capable[i].guid]
+        length = (bm.span[i, 1] - bm.span[i, 0]) / bm.scale[i]
+        wp = float(side[i, 0] / length) if nb[i, 0] < 0 else float(half[i, 0])
+        wm = float(side[i, 1] / length) if nb[i, 1] < 0 else float(half[i, 1])
+        _set_widths(tr, wp, wm, bool(flip[i]), capable, int(nb[i, 0]), int(nb[i, 1]))
+    _deliver_leftovers(result, bm, slabs, cand, taken)
     return result
+
+
+def _families(
+    rows: np.ndarray, bm: _Beams, family_of: np.ndarray, fam_p: np.ndarray,
+    half: np.ndarray, nb: np.ndarray,
+) -> list[_Family]:  # fmt: skip
+    """Families of parallel beams on one level, their neighbours and spacing."""
+    labels = plan_families(bm.angle[rows])
+    fams: list[_Family] = []
+    for f in range(int(labels.max()) + 1 if rows.size else 0):
+        members = rows[labels == f]
+        direction = family_direction(bm.angle[members])
+        td = np.array([math.cos(math.radians(direction)), math.sin(math.radians(direction))])
+        pd = np.array([-td[1], td[0]])
+        ua = bm.p0[members] @ td
+        ub = (bm.p0[members] + bm.t[members] * bm.plan_len[members, None]) @ td
+        mid = bm.p0[members] + 0.5 * bm.t[members] * bm.plan_len[members, None]
+        found = find_neighbours(np.minimum(ua, ub), np.maximum(ua, ub), mid @ pd)
+        nearest = np.minimum(found.gap_plus, found.gap_minus)
+        finite = np.isfinite(nearest)
+        spacing = float(np.median(nearest[finite])) if finite.any() else None
+        if spacing is not None:
+            for gap, nbr in ((found.gap_plus, found.plus), (found.gap_minus, found.minus)):
+                too_far = gap > FAR_NEIGHBOUR * spacing
+                gap[too_far] = np.inf
+                nbr[too_far] = -1
+        family_of[members] = len(fams)
+        fam_p[members] = pd
+        half[members, 0] = np.where(np.isfinite(found.gap_plus), found.gap_plus / 2, 0.0)
+        half[members, 1] = np.where(np.isfinite(found.gap_minus), found.gap_minus / 2, 0.0)
+        nb[members, 0] = np.where(found.plus >= 0, members[np.maximum(found.plus, 0)], -1)
+        nb[members, 1] = np.where(found.minus >= 0, members[np.maximum(found.minus, 0)], -1)
+        fams.append(_Family(direction, members, spacing, int(bm.infill[members].sum())))
+    return fams
+
+
+def _deck_span(level: str, fams: list[_Family], bm: _Beams, entry: StoreyLoads | None) -> DeckSpan:
+    """The deck direction of a level: from the settings, else from the infill beams."""
+    families = [(f.direction, int(f.members.size), f.spacing) for f in fams]
+    override = _override_angle(entry)
+    basis = ""
+    chosen: int | None
+    source: Literal["inferred", "settings", "none"]
+    if override is not None:
+        chosen = _nearest_family(fams, (override + 90.0) % 180.0)
+        span_angle, source = override, "settings"
+    else:
+        counts = [f.infill for f in fams]
+        best = max(counts, default=0)
+        chosen = counts.index(best) if best > 0 and counts.count(best) == 1 else None
+        basis = "infill beams" if chosen is not None else ""
+        if chosen is None and best == 0 and len(fams) == 1 and fams[0].spacing is not None:
+            chosen, basis = 0, "the only family of parallel beams"
+        span_angle = (fams[chosen].direction + 90.0) % 180.0 if chosen is not None else None
+        source = "inferred" if chosen is not None else "none"
+    return DeckSpan(
+        storey=level,
+        angle=span_angle,
+        source=source,
+        beam_angle=fams[chosen].direction if chosen is not None else None,
+        typical_spacing=fams[chosen].spacing if chosen is not None else None,
+        families=families,
+        evidence=(
+            (fams[chosen].infill or int(fams[chosen].members.size)) if chosen is not None else 0
+        ),
+        basis="settings" if override is not None else basis,
+    )
+
+
+def _bearing_slabs(bm: _Beams, slabs: Sequence[Slab], tolerance: float) -> dict[int, list[int]]:
+    """Per beam row, the slabs bearing on it: the underside at its top of steel (a
+    declared deck: every beam of its level), footprints meeting its span line."""
+    cand: dict[int, list[int]] = {}
+    if not slabs:
+        return cand
+    foot = np.array([s.footprint for s in slabs], dtype=object)
+    under = np.array([s.underside for s in slabs], dtype=float)
+    slab_top = np.array([s.top for s in slabs], dtype=float)
+    tol = np.array([bearing_tolerance(s, tolerance) for s in slabs], dtype=float)
+    a = bm.p0 + bm.t * (bm.span[:, 0] / bm.scale)[:, None]
+    b = bm.p0 + bm.t * (bm.span[:, 1] / bm.scale)[:, None]
+    lines = shapely.linestrings(np.stack([a, b], axis=1))
+    bi, si = STRtree(foot).query(lines, predicate="intersects")
+    level = np.array([level_of(m) for m in bm.members], dtype=object)
+    slab_level = np.array([s.level for s in slabs], dtype=object)
+    declared = np.array([s.declared for s in slabs], dtype=bool)
+    bearing = np.abs(under[si] - bm.top[bi]) <= tol[si]
+    bearing &= ~declared[si] | (slab_level[si] == level[bi])
+    for i, s in zip(bi[bearing].tolist(), si[bearing].tolist(), strict=True):
+        cand.setdefault(i, []).append(s)
+    # slabs stacked on a bearing slab (a topping on a deck) are carried too
+    for i, s in zip(bi[~bearing].tolist(), si[~bearing].tolist(), strict=True):
+        if i in cand and any(abs(under[s] - slab_top[c]) <= tolerance for c in cand[i]):
+            cand[i].append(s)
+    return cand
+
+
+def _deliver_leftovers(
+    result: TributaryResult, bm: _Beams, slabs: Sequence[Slab], cand: dict[int, list[int]],
+    taken: dict[int, list[BaseGeometry]],
+) -> None:  # fmt: skip
+    """Every bearing slab's floor that no strip took goes to its nearest beam."""
+    bearing_on: dict[int, list[int]] = {}
+    for i, ss in cand.items():
+        for s in ss:
+            bearing_on.setdefault(s, []).append(i)
+    leftovers = []
+    for si, beams in sorted(bearing_on.items()):
+        slab = slabs[si]
+        levels = {level_of(bm.members[i]) for i in beams}
+        computed = all(result.deck_spans[lv].angle is not None for lv in levels)
+        area = float(slab.footprint.area)
+        result.floors.append(FloorArea(slab.guid, slab.level or slab.storey, area,
+                                       computed=computed))  # fmt: skip
+        if not computed:
+            continue
+        strips = taken.get(si, [])
+        rest = shapely.difference(slab.footprint, shapely.union_all(strips)) if strips else (
+            slab.footprint
+        )  # fmt: skip
+        leftovers.append((si, rest))
+    pieces, lost = leftover_pieces(leftovers, bearing_on, bm.p0, bm.t, bm.span, bm.scale)
+    delivered: dict[int, float] = {}
+    for p in pieces:
+        slab = slabs[p.slab]
+        tr = result.beams[bm.members[p.beam].guid]
+        w = p.area / (p.end - p.start)
+        tr.pieces.append(WidthPiece(p.start, p.end, w, slab.guid, "floor"))
+        if _has_self_weight(slab):
+            tr.pieces.append(WidthPiece(p.start, p.end, w, slab.guid, "slab"))
+        delivered[p.slab] = delivered.get(p.slab, 0.0) + p.area
+    for si, area in lost.items():
+        result.warnings.append(
+            (slabs[si].guid, f"{area:.2f} m² of floor of slab {slabs[si].name or slabs[si].guid} "
+             "reaches no beam: its load is not carried")
+        )  # fmt: skip
+    strip_area: dict[str, float] = {}
+    for tr in result.beams.values():
+        for piece in tr.pieces:
+            if piece.kind == "floor" and piece.slab is not None:
+                strip_area[piece.slab] = strip_area.get(piece.slab, 0.0) + (
+                    (piece.end - piece.start) * piece.width
+                )
+    for fa in result.floors:
+        fa.delivered = strip_area.get(fa.slab, 0.0)
+
+
+def _has_self_weight(slab: Slab) -> bool:
+    return (slab.self_weight or 0.0) > 0.0 if slab.self_weight is not None else slab.thickness > 0
 
 
 def _set_widths(
@@ -586,63 +736,38 @@ def _beam_tributary(
     beams: Sequence[Member],
     slabs: Sequence[Slab],
     candidates: list[int],
-    storey_has_slab: bool,
     family: int,
-    plan_len: float,
-    length3d: float,
-    half: tuple[float, float],
+    extent: tuple[float, float],
     nbrs: tuple[int, int],
-    edge: float,
     flip: bool,
     deck_family: dict[str | None, int | None],
     to_clip: list[int],
 ) -> Tributary:
     """Role, nominal widths and notes of one beam; slabs to clip its strip to
-    go to ``to_clip``. ``deck_family`` gives the family the deck spans between
-    on each slab (key: slab GUID) and where no slab is modelled (key None)."""
-    scale = length3d / plan_len  # station per plan length (sloped beams)
-    plus_gap, minus_gap = half
+    go to ``to_clip``. ``extent`` is how far its strip reaches on each side (half
+    the gap to a neighbour, or out toward the slab edge); ``deck_family`` gives
+    the family the deck spans between on each slab (key: slab GUID) and on the
+    level (key None)."""
+    plus_gap, minus_gap = extent
     nb_plus, nb_minus = nbrs
-    tr = Tributary(guid=m.guid, storey=m.storey, role="other")
+    tr = Tributary(guid=m.guid, storey=level_of(m), role="other")
 
     def is_deck_beam(slab: Slab | None) -> bool:
         return deck_family[slab.guid if slab is not None else None] == family
 
-    def nominal(with_edges: bool) -> tuple[float, float]:
-        wp = plus_gap if nb_plus >= 0 else (edge if with_edges else 0.0)
-        wm = minus_gap if nb_minus >= 0 else (edge if with_edges else 0.0)
-        return wp, wm
-
-    def set_widths(wp: float, wm: float) -> None:
-        _set_widths(tr, wp, wm, flip, beams, nb_plus, nb_minus)
-
     if not candidates:
-        if not is_deck_beam(None):
-            tr.role = "girder"
-            return tr
-        if storey_has_slab:
-            tr.notes.append("no slab bears on this beam: no floor load")
-            return tr
-        tr.role = "deck"
-        wp, wm = nominal(False)
-        set_widths(wp, wm)
-        if wp + wm > 0:
-            tr.pieces.append(WidthPiece(0.0, length3d, (wp + wm) / scale, None, "floor"))
-        tr.notes.append("no slab modelled on this storey: tributary width from beam spacing")
+        tr.role = "deck" if is_deck_beam(None) else "girder"
         return tr
-
     deck_slabs = [s for s in candidates if is_deck_beam(slabs[s])]
     if not deck_slabs:
         tr.role = "girder"
         return tr
     tr.role = "deck"
-    wp, wm = nominal(True)
-    set_widths(wp, wm)
+    _set_widths(tr, plus_gap, minus_gap, flip, beams, nb_plus, nb_minus)
     for side, nb in (("+", nb_plus), ("-", nb_minus)):
         if nb < 0:
             where = "left" if (side == "+") != flip else "right"
             tr.notes.append(f"no parallel neighbour on the {where}: floor taken to the slab edge")
-
     to_clip.extend(deck_slabs)
     return tr
 
@@ -651,32 +776,37 @@ def _clip_jobs(
     to_clip: list[list[int]],
     rects: np.ndarray,
     slabs: Sequence[Slab],
-    foot: np.ndarray,
+    bm: _Beams,
     trs: list[Tributary],
-    length3d: np.ndarray,
-    plan_len: np.ndarray,
-) -> list[list[_Job]]:
+) -> tuple[list[list[_Job]], dict[int, list[BaseGeometry]]]:
     """Clip each deck beam's strip to its slabs (vectorised); a strip wholly on
-    one slab becomes a full-length piece at once, the others become jobs."""
+    one slab becomes a full-span piece at once, the others become jobs.
+    Also returns, per slab index, the floor geometry the strips took."""
     jobs: list[list[_Job]] = [[] for _ in to_clip]
+    taken: dict[int, list[BaseGeometry]] = {}
     pb = np.array([i for i, ss in enumerate(to_clip) for _ in ss], dtype=int)
     ps = np.array([s for ss in to_clip for s in ss], dtype=int)
     if pb.size == 0:
-        return jobs
+        return jobs, taken
+    foot = np.array([s.footprint for s in slabs], dtype=object)
     n_slabs = np.bincount(pb, minlength=len(to_clip))
     one = n_slabs[pb] == 1
     covered = np.zeros(pb.size, dtype=bool)
     covered[one] = shapely.covers(foot[ps[one]], rects[pb[one]])
     for i, si in zip(pb[covered].tolist(), ps[covered].tolist(), strict=True):
         tr, sl = trs[i], slabs[si]
-        w = float((tr.left + tr.right) * plan_len[i] / length3d[i])  # per station length
-        tr.pieces.append(WidthPiece(0.0, float(length3d[i]), w, sl.guid, "floor"))
-        if sl.thickness > 0:
-            tr.pieces.append(WidthPiece(0.0, float(length3d[i]), w, sl.guid, "slab"))
+        s0, s1 = float(bm.span[i, 0]), float(bm.span[i, 1])
+        w = float((tr.left + tr.right) / bm.scale[i])  # per station length
+        tr.pieces.append(WidthPiece(s0, s1, w, sl.guid, "floor"))
+        if _has_self_weight(sl):
+            tr.pieces.append(WidthPiece(s0, s1, w, sl.guid, "slab"))
+        taken.setdefault(si, []).append(rects[i])
     pb, ps = pb[~covered], ps[~covered]
     clips = shapely.intersection(rects[pb], foot[ps])
     keep = ~shapely.is_empty(clips)
     pb, ps, clips = pb[keep], ps[keep], clips[keep]
+    for si, clip in zip(ps.tolist(), clips, strict=True):
+        taken.setdefault(si, []).append(clip)
     # strips over several slabs: overlapping slabs need the floor area counted once
     by_beam: dict[int, list[int]] = {}
     for k, i in enumerate(pb.tolist()):
@@ -690,18 +820,18 @@ def _clip_jobs(
         overlapping = {int(pb[k]) for k in a_[ov]}
 
     def kinds(sl: Slab) -> tuple[Literal["floor", "slab"], ...]:
-        return ("floor", "slab") if sl.thickness > 0 else ("floor",)
+        return ("floor", "slab") if _has_self_weight(sl) else ("floor",)
 
     for i, ks in by_beam.items():
         if i not in overlapping:
             jobs[i] += [_Job(clips[k], slabs[ps[k]].guid, kinds(slabs[ps[k]])) for k in ks]
             continue
-        taken: BaseGeometry | None = None
+        union: BaseGeometry | None = None
         for k in ks:
             sl, clip = slabs[ps[k]], clips[k]
-            floor = clip if taken is None else shapely.difference(clip, taken)
+            floor = clip if union is None else shapely.difference(clip, union)
             jobs[i].append(_Job(floor, sl.guid, ("floor",)))
-            if sl.thickness > 0:
+            if _has_self_weight(sl):
                 jobs[i].append(_Job(clip, sl.guid, ("slab",)))
-            taken = clip if taken is None else shapely.union(taken, clip)
-    return jobs
+            union = clip if union is None else shapely.union(union, clip)
+    return jobs, taken

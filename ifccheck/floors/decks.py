@@ -1,0 +1,115 @@
+"""Declared decks: the floor or roof deck a model does not contain, from the settings.
+
+Steel-only exports rarely carry the slab. A deck declared for a level
+(``[decks."Roof"]``, or by elevation ``[decks."+36 ft"]``) becomes a slab of
+the model over the level's framed area: the union of the bays its beams
+enclose (their plan centre lines, noded and polygonised). It bears on every
+beam of the level, so it loads them like a modelled slab and braces their
+top flanges unless ``braces_top_flange = false``.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import shapely
+from shapely.geometry import MultiPolygon, Polygon
+from shapely.ops import polygonize, unary_union
+
+from ifccheck.config import DeckSettings, Settings
+from ifccheck.errors import QuantityError, SettingsError
+from ifccheck.floors.levels import is_level_framing
+from ifccheck.model import Level, Model, Slab
+from ifccheck.units import parse_quantity
+
+# Beam lines are extended by this at both ends before noding, so that framing
+# modelled a little short of its supports still closes its bays.
+CLOSE_GAP = 0.15  # m
+
+
+def match_levels(key: str, levels: list[Level], tolerance: float) -> list[Level]:
+    """The levels a settings key names: by name or storey, else by elevation ("+36 ft")."""
+    named = [lv for lv in levels if key in (lv.name, lv.storey)]
+    if named:
+        return named
+    try:
+        z = parse_quantity(key, "length")
+    except QuantityError:
+        return []
+    near = [lv for lv in levels if abs(lv.elevation - z) <= tolerance]
+    return [min(near, key=lambda lv: abs(lv.elevation - z))] if near else []
+
+
+def match_level(key: str, levels: list[Level], tolerance: float) -> Level | None:
+    """The first level a settings key names, or None."""
+    found = match_levels(key, levels, tolerance)
+    return found[0] if found else None
+
+
+def declared_decks(model: Model, settings: Settings) -> list[Slab]:
+    """A slab per declared deck, over its level's framed area; raises SettingsError for a
+    deck that names no level of the model."""
+    tol = settings.framing.level_tolerance
+    out: list[Slab] = []
+    for key, deck in settings.decks.items():
+        levels = match_levels(key, model.levels, tol)
+        if not levels:
+            names = ", ".join(repr(lv.name) for lv in model.levels) or "none"
+            raise SettingsError(
+                f"settings: decks.{key!r} names no level of the model (levels: {names})"
+            )
+        for level in levels:
+            area = framed_area(model, level.name, settings.framing.gap)
+            if area.is_empty:
+                model.warnings.append(
+                    ("", f"deck declared on {level.name}: its beams enclose no bay; no deck area")
+                )
+                continue
+            out.append(_deck_slab(key, deck, level, area, tol))
+    return out
+
+
+def _deck_slab(
+    key: str, deck: DeckSettings, level: Level, area: Polygon | MultiPolygon, tolerance: float
+) -> Slab:
+    thickness = deck.thickness or 0.0
+    weight = deck.weight if deck.weight is not None else None
+    if weight is None and deck.thickness is None:
+        weight = 0.0  # the area loads carry everything
+    return Slab(
+        guid=f"deck:{level.name}",
+        name=f"declared deck ({key})",
+        storey=level.storey,
+        footprint=area,
+        underside=level.elevation,
+        top=level.elevation + thickness,
+        ifc_class="declared deck",
+        notes=[f"declared in the settings as decks.{key}"],
+        level=level.name,
+        declared=True,
+        braces=deck.braces_top_flange,
+        self_weight=weight,
+        bearing_tolerance=tolerance,
+    )
+
+
+def framed_area(model: Model, level: str, gap: float) -> Polygon | MultiPolygon:
+    """The union of the bays the level's beams enclose, in plan."""
+    lines = []
+    extend = max(CLOSE_GAP, gap)
+    for m in model.members:
+        if m.level != level or not is_level_framing(m):
+            continue
+        a, b = np.asarray(m.start[:2], float), np.asarray(m.end[:2], float)
+        d = b - a
+        n = float(np.hypot(*d))
+        if n <= 1e-9:
+            continue
+        u = d / n
+        lines.append(shapely.LineString([a - extend * u, b + extend * u]))
+    if len(lines) < 3:
+        return Polygon()
+    bays = list(polygonize(unary_union(lines)))
+    if not bays:
+        return Polygon()
+    area = unary_union(bays)
+    return area if isinstance(area, Polygon | MultiPolygon) else Polygon()
