@@ -164,15 +164,27 @@ def inspect_document(
             {"guid": w.guid, "name": w.name, "storey": w.storey, "base": w.base, "top": w.top}
             for w in model.walls
         ],
+        "levels": [
+            {"name": lv.name, "elevation": lv.elevation, "storey": lv.storey, "beams": lv.beams}
+            for lv in model.levels
+        ],
         "deck_spans": [
             {
                 "storey": ds.storey,
+                "level": ds.storey,
                 "angle": ds.angle,
                 "source": ds.source,
+                "evidence": ds.evidence,
+                "basis": ds.basis,
                 "typical_spacing": ds.typical_spacing,
             }
             for ds in (demand.deck_spans.values() if demand else [])
         ],
+        "load_balance": [
+            {"level": r.level, "case": r.case, "applied": r.applied, "delivered": r.delivered}
+            for r in (demand.load_balance if demand else [])
+        ],
+        "excluded": dict(framing.excluded) if framing else {},
         "load_path_cycles": [list(c) for c in framing.cycles] if framing else [],
         "warnings": [{"guid": g, "message": msg} for g, msg in warnings],
         "caution": CAUTION,
@@ -250,13 +262,25 @@ def inspect_text(
     if demand is not None:
         for ds in demand.deck_spans.values():
             if ds.angle is not None:
-                lines.append(f"deck on {ds.storey} spans at {ds.angle:.0f}° from x ({ds.source})")
+                why = f", {ds.evidence} {ds.basis}" if ds.basis and ds.basis != "settings" else ""
+                lines.append(
+                    f"deck on {ds.storey} spans at {ds.angle:.0f}° from x ({ds.source}{why})"
+                )
+            else:
+                lines.append(f"deck on {ds.storey}: span direction unknown")
+        for r in demand.load_balance:
+            share = r.delivered / r.applied if r.applied else 1.0
+            lines.append(
+                f"load on {r.level}, {r.case}: {du.text(r.applied, 'force', 1)} applied, "
+                f"{du.text(r.delivered, 'force', 1)} delivered to the supports ({share:.1%})"
+            )
     warnings = list(model.warnings)
     for w in [*(framing.warnings if framing else []), *(demand.warnings if demand else [])]:
         if w not in warnings:
             warnings.append(w)
     for guid, message in warnings:
-        lines.append(f"warning: {names.get(guid, guid)}: {message}")
+        who = names.get(guid, guid)
+        lines.append(f"warning: {who}: {message}" if who else f"warning: {message}")
     sm = summary(model, seconds)
     rate = sm["members"] / seconds if seconds > 0 else float("inf")
     lines += [
