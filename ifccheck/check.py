@@ -71,11 +71,13 @@ def run_check(
     settings: Settings,
     demands_path: str | Path | None = None,
     progress: Progress | None = None,
+    strict_keys: bool = True,
 ) -> tuple[CheckResult, Model, Framing]:
-    """The whole job on one model file."""
+    """The whole job on one model file. A settings key naming nothing in the model is a
+    SettingsError unless ``strict_keys`` is False (``diff`` checks keys over both files)."""
     path = Path(model_path)
     model = read_model(path, default_grade=settings.steel.default_grade)
-    prepare_floors(model, settings)
+    prepare_floors(model, settings, strict_keys)
     framing = analyse_framing(model, settings.framing, settings.bracing)
     overrides = None
     warnings: list[tuple[str, str]] = list(model.warnings) + list(framing.warnings)

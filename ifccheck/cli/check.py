@@ -115,6 +115,24 @@ def _summary_line(result: CheckResult, units: UnitSystem) -> str:
     return line
 
 
+def _check_keys_over_revisions(settings, old_model, new_model) -> None:
+    """One settings file serves both revisions: a key must name something in at least
+    one of them (else exit 2), and one that names something in only one is a warning."""
+    from ifccheck.errors import SettingsError
+    from ifccheck.floors import unmatched_keys
+
+    old = dict(unmatched_keys(old_model, settings))
+    new = dict(unmatched_keys(new_model, settings))
+    both = [k for k in new if k in old]
+    if both:
+        raise SettingsError(
+            f"settings: {both[0]} names nothing in either revision; nearest {new[both[0]]}"
+        )
+    for key in sorted(set(old) ^ set(new)):
+        where = new_model.source if key in new else old_model.source
+        click.echo(f"warning: settings {key} names nothing in {where}", err=True)
+
+
 def _output_options(command):
     """--out, --units and --method, shared by check and diff."""
     for option in reversed(
@@ -200,8 +218,9 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     from ifccheck.report.wording import change_reasons, diff_names
 
     settings = _settings(config, method)
-    old, _, _ = run_check(old_path, settings)
-    new, model, _ = run_check(new_path, settings)
+    old, old_model, _ = run_check(old_path, settings, strict_keys=False)
+    new, model, _ = run_check(new_path, settings, strict_keys=False)
+    _check_keys_over_revisions(settings, old_model, model)
     chosen = _units(units, model.length_unit)
     result = diff_results(old, new)
     written = write_diff_all(result, Path(out_dir), chosen)

@@ -46,18 +46,12 @@ def match_level(key: str, levels: list[Level], tolerance: float) -> Level | None
 
 
 def declared_decks(model: Model, settings: Settings) -> list[Slab]:
-    """A slab per declared deck, over its level's framed area; raises SettingsError for a
-    deck that names no level of the model."""
+    """A slab per declared deck, over its level's framed area (a deck that names no
+    level is for ``check_keys`` to report)."""
     tol = settings.framing.level_tolerance
     out: list[Slab] = []
     for key, deck in settings.decks.items():
-        levels = match_levels(key, model.levels, tol)
-        if not levels:
-            names = ", ".join(repr(lv.name) for lv in model.levels) or "none"
-            raise SettingsError(
-                f"settings: decks.{key!r} names no level of the model (levels: {names})"
-            )
-        for level in levels:
+        for level in match_levels(key, model.levels, tol):
             area = framed_area(model, level.name, settings.framing.gap)
             if area.is_empty:
                 model.warnings.append(
@@ -113,3 +107,39 @@ def framed_area(model: Model, level: str, gap: float) -> Polygon | MultiPolygon:
         return Polygon()
     area = unary_union(bays)
     return area if isinstance(area, Polygon | MultiPolygon) else Polygon()
+
+
+def unmatched_keys(model: Model, settings: Settings) -> list[tuple[str, str]]:
+    """Settings keys that name something the model does not have: (key, what it could be).
+
+    Levels (``loads.storeys``, ``decks``) match by name, storey or elevation;
+    slabs (``loads.slabs``) by GUID. The second item lists the nearest names.
+    """
+    import difflib
+
+    tol = settings.framing.level_tolerance
+    names = list(dict.fromkeys([lv.name for lv in model.levels] + [lv.storey for lv in model.levels
+                                                                    if lv.storey]))  # fmt: skip
+    out: list[tuple[str, str]] = []
+    for table, keys in (("loads.storeys", settings.loads.storeys), ("decks", settings.decks)):
+        for key in keys:
+            if not match_levels(key, model.levels, tol):
+                near = difflib.get_close_matches(key, names, n=3, cutoff=0.4) or names[:5]
+                out.append((f"{table}.{key!r}", "levels: " + (", ".join(near) or "none")))
+    guids = [s.guid for s in model.slabs if not s.declared]
+    for key in settings.loads.slabs:
+        if key not in guids:
+            near = difflib.get_close_matches(key, guids, n=3, cutoff=0.4)
+            out.append((f"loads.slabs.{key!r}", "slabs: " + (", ".join(near) or "none near")))
+    return out
+
+
+def check_keys(model: Model, settings: Settings) -> None:
+    """A one-line SettingsError for the first settings key that names nothing in the model."""
+    missing = unmatched_keys(model, settings)
+    if missing:
+        key, near = missing[0]
+        more = f" (and {len(missing) - 1} more)" if len(missing) > 1 else ""
+        raise SettingsError(
+            f"settings: {key} names nothing in {model.source}; nearest {near}{more}"
+        )

@@ -1,0 +1,42 @@
+"""Settings keys that name something in the model must match it (a typo never drops a load)."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from click.testing import CliRunner
+
+from ifccheck.cli import main
+
+SAMPLES = Path(__file__).parents[1] / "sample_models"
+REV_A, REV_B = SAMPLES / "quillfeather-rev-a.ifc", SAMPLES / "quillfeather-rev-b.ifc"
+
+
+def _run(tmp_path: Path, toml: str, *args: str):
+    cfg = tmp_path / "s.toml"
+    cfg.write_text(toml)
+    return CliRunner().invoke(main, [*args, "--config", str(cfg), "--out", str(tmp_path / "o")])
+
+
+def test_a_storey_typo_is_exit_2_naming_the_key_and_the_nearest_level(tmp_path):
+    res = _run(tmp_path, '[loads.storeys."Levle 2"]\nlive = "250 psf"\n', "check", str(REV_B))
+    assert res.exit_code == 2
+    (line,) = [ln for ln in res.output.splitlines() if ln.strip()]
+    assert line.startswith("ifccheck: error: settings: loads.storeys.'Levle 2' names nothing")
+    assert "nearest levels: Level 2" in line
+
+
+def test_a_slab_guid_and_a_deck_that_match_nothing_are_refused(tmp_path):
+    res = _run(tmp_path, '[loads.slabs."0NoSuchSlabGuid0000000"]\nlive = "5 kPa"\n',
+               "check", str(REV_B))  # fmt: skip
+    assert res.exit_code == 2 and "loads.slabs.'0NoSuchSlabGuid0000000'" in res.output
+    res = _run(tmp_path, '[decks."Mezzanine"]\nweight = "2 psf"\n', "check", str(REV_B))
+    assert res.exit_code == 2 and "decks.'Mezzanine'" in res.output
+
+
+def test_levels_match_by_elevation_too(tmp_path):
+    # the roof of the demo is at 28 ft: its elevation names it as well as its storey does
+    res = _run(tmp_path, '[decks."+28 ft"]\nweight = "0 psf"\nbraces_top_flange = false\n',
+               "check", str(REV_A))  # fmt: skip
+    assert res.exit_code in (0, 1), res.output  # default loads: some beams fail
+    assert "0 not checked" in res.output  # the roof beams got their floor load
