@@ -8,7 +8,7 @@ directory, makes a token, then
    direct check of the same file. Prints throughput and latencies.
 2. restart: submits a job made slow with the runner's test-only fault switch,
    kills the server (SIGKILL) while it runs, restarts it on the same data and
-   times how soon it answers and when the interrupted job is done.
+   times how soon it answers and when the interrupted job is finished.
 
 Only 127.0.0.1 is contacted; the request loops are bounded.
 
@@ -62,12 +62,12 @@ def load(data: Path, uploads: int, workers: int) -> None:
     bad = [
         d["id"]
         for d, p in zip(docs, paths, strict=True)
-        if d["status"] != "done" or d["summary"] != expected[p.name]
+        if d["status"] != "finished" or d["summary"] != expected[p.name]
     ]
     print(f"load: {uploads} concurrent uploads, {workers} workers")
     print(f"  all done in {wall:.1f} s: {uploads / wall:.2f} checks/s")
     print(
-        f"  latency (upload to done): median {statistics.median(latencies):.1f} s, "
+        f"  latency (upload to finished): median {statistics.median(latencies):.1f} s, "
         f"max {max(latencies):.1f} s; upload answered in median "
         f"{statistics.median(uploads_s) * 1000:.0f} ms"
     )
@@ -84,7 +84,7 @@ def restart(data: Path) -> None:
         with ServiceClient(first.url, token) as c:
             job = c.check(MODELS[0], SETTINGS, model_key="slow")
             deadline = time.monotonic() + 120
-            while c.status(job)["status"] != "running" and time.monotonic() < deadline:
+            while c.status(job)["status"] != "checking" and time.monotonic() < deadline:
                 time.sleep(0.1)
     finally:
         first.kill()
@@ -99,7 +99,7 @@ def restart(data: Path) -> None:
         second.stop()
     print("restart: server killed (SIGKILL) during a running job, restarted on the same data")
     print(f"  answering {up:.1f} s after restart; interrupted job {doc['status']} at {done:.1f} s")
-    if doc["status"] != "done":
+    if doc["status"] != "finished":
         raise SystemExit(f"interrupted job ended {doc['status']}: {doc['error']}")
 
 

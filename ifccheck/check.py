@@ -151,7 +151,7 @@ def _assumptions(
     model: Model, beams: list[BeamResult], deck_spans: dict[str, DeckSpan]
 ) -> dict[str, int]:
     """What the check took as given rather than read from the model, counted."""
-    checked = [b for b in beams if b.status != "not_checked"]
+    checked = [b for b in beams if b.outcome != "not_checked"]
     return {
         "default_grade": sum(1 for b in checked if b.grade_source == "default"),
         "inferred_deck_direction": sum(1 for d in deck_spans.values() if d.source == "inferred"),
@@ -239,7 +239,7 @@ def check_beam(
     standard: DesignStandard,
     settings: Settings,
 ) -> BeamResult:
-    """The governing result of one beam (status not_checked with a reason when it cannot be)."""
+    """The governing result of one beam (outcome not_checked with a reason when it cannot be)."""
     return check_beams([(m, mf, bd)], standard, settings)[0]
 
 
@@ -296,7 +296,7 @@ def _prepare(
         out.notes += [n for n in bd.notes if n not in out.notes]
     reason = _not_checked_reason(m, mf, bd, standard)
     if reason is not None:
-        out.status, out.reason = "not_checked", reason
+        out.outcome, out.reason = "not_checked", reason
         return out
     assert mf is not None and bd is not None
     specs = beam_segments(m.length, mf, settings.bracing.slab)
@@ -353,29 +353,30 @@ def _finish(p: _Pending, flex, standard: DesignStandard, settings: Settings) -> 
                 moment_demand=dem,
                 moment_capacity=float(capacity[i]),
                 nominal_moment=float(mn[i]),
-                ratio=float(ratio[i]),
+                utilisation=float(ratio[i]),
                 limit_state=str(states[i]),
-                combination=name,
+                load_combination=name,
                 braced_by=list(spec.braced_by),
                 continuous=spec.continuous,
             )
         )
     if out.segments:
-        out.governing_segment = int(np.argmax([s.ratio for s in out.segments]))
-        out.flexure_ratio = out.segments[out.governing_segment].ratio
+        out.governing_segment = int(np.argmax([s.utilisation for s in out.segments]))
+        out.flexure_utilisation = out.segments[out.governing_segment].utilisation
     else:
-        out.flexure_ratio = 0.0
+        out.flexure_utilisation = 0.0
     method = settings.design.method
     _shear(out, m, bd, standard, method)
     _deflection(out, m, bd, settings)
     checks = {
-        "flexure": out.flexure_ratio or 0.0,
-        "shear": out.shear_ratio or 0.0,
-        "deflection": out.deflection_ratio or 0.0,
+        "flexure": out.flexure_utilisation or 0.0,
+        "shear": out.shear_utilisation or 0.0,
+        "deflection": out.deflection_utilisation or 0.0,
     }
-    out.governing_check = max(checks, key=lambda k: checks[k])
-    out.ratio = checks[out.governing_check]
-    out.status = "pass" if out.ratio <= 1.0 else "fail"
+    out.strength_utilisation = max(checks["flexure"], checks["shear"])
+    out.controlling_limit = max(checks, key=lambda k: checks[k])
+    out.utilisation = checks[out.controlling_limit]
+    out.outcome = "pass" if out.utilisation <= 1.0 else "fail"
     gov_name = bd.governing_moment or (p.diagrams[-1][0] if p.diagrams else "")
     gov = dict(p.diagrams).get(gov_name)
     if gov is not None:
@@ -458,7 +459,9 @@ def _shear(
         return
     out.shear_demand = float(bd.max_shear)
     out.shear_capacity = float(res.design_strength)
-    out.shear_ratio = out.shear_demand / out.shear_capacity if out.shear_capacity > 0 else None
+    out.shear_utilisation = (
+        out.shear_demand / out.shear_capacity if out.shear_capacity > 0 else None
+    )
 
 
 def _deflection(out: BeamResult, m: Member, bd: BeamDemand, settings: Settings) -> None:
@@ -485,7 +488,7 @@ def _deflection(out: BeamResult, m: Member, bd: BeamDemand, settings: Settings) 
         setattr(out, f"deflection_{attr}", worst[1])
         setattr(out, f"deflection_{attr}_limit", worst[2] or None)
         ratios.append(worst[0])
-    out.deflection_ratio = max(ratios) if ratios else None
+    out.deflection_utilisation = max(ratios) if ratios else None
 
 
 def _diagram_out(d: Diagram, offset: float = 0.0) -> SampledDiagram:

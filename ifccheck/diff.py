@@ -28,9 +28,9 @@ from ifccheck.results import (
 STATION_TOLERANCE = 0.15  # m
 # Beams whose ends lie this close (and share a profile) are the same beam.
 MATCH_TOLERANCE = 0.05  # m
-# Ratio increases below this are noise from load redistribution rounding.
-RATIO_TOLERANCE = 0.005
-STATUS_RANK = {"pass": 0, "fail": 1, "not_checked": 2}
+# Utilisation changes below this are noise from load redistribution rounding.
+UTILISATION_TOLERANCE = 0.005
+OUTCOME_RANK = {"pass": 0, "fail": 1, "not_checked": 2}
 
 
 def match_beams(
@@ -166,20 +166,20 @@ def compare_beam(
         lost_continuous_bracing=round(lost_cover, 4),
         lb_before=lb_before,
         lb_after=lb_after,
-        ratio_before=old.ratio,
-        ratio_after=new.ratio,
-        status_before=old.status,
-        status_after=new.status,
+        utilisation_before=old.utilisation,
+        utilisation_after=new.utilisation,
+        outcome_before=old.outcome,
+        outcome_after=new.outcome,
     )
     causes = _causes(change)
     if not causes:
         return None
     worse = [c for c in causes if c.worse]
-    change.severity = "regression" if worse else "improvement"
+    change.change = "weakened" if worse else "strengthened"
     change.causes = worse or causes
     lost_loaders = sorted((_loaders(old) - _loaders(new)) & unloading)
     if not worse and lost_loaders:
-        change.severity = "changed"
+        change.change = "changed"
         change.causes = [ChangeCause(CauseKind.DEMAND_FELL_LOST_LOAD, members=tuple(lost_loaders))]
     return change
 
@@ -207,21 +207,21 @@ def _causes(c: BeamChange) -> list[ChangeCause]:
         and c.lb_after > c.lb_before + STATION_TOLERANCE
     ):
         out.append(ChangeCause(CauseKind.LB_GREW, before=c.lb_before, after=c.lb_after))
-    rank_b, rank_a = STATUS_RANK[c.status_before], STATUS_RANK[c.status_after]
-    status = (c.status_before, c.status_after)
+    rank_b, rank_a = OUTCOME_RANK[c.outcome_before], OUTCOME_RANK[c.outcome_after]
+    outcome = (c.outcome_before, c.outcome_after)
     if rank_a > rank_b:
-        out.append(ChangeCause(CauseKind.STATUS_WORSE, before=status[0], after=status[1]))
-    ratios = (c.ratio_before, c.ratio_after)
-    if ratios[0] is not None and ratios[1] is not None and ratios[1] > ratios[0] + RATIO_TOLERANCE:
-        out.append(ChangeCause(CauseKind.RATIO_ROSE, before=ratios[0], after=ratios[1]))
+        out.append(ChangeCause(CauseKind.OUTCOME_WORSE, before=outcome[0], after=outcome[1]))
+    u = (c.utilisation_before, c.utilisation_after)
+    if u[0] is not None and u[1] is not None and u[1] > u[0] + UTILISATION_TOLERANCE:
+        out.append(ChangeCause(CauseKind.UTILISATION_ROSE, before=u[0], after=u[1]))
     if c.added_brace_points:
         out.append(ChangeCause(CauseKind.ADDED_BRACES, stations=tuple(c.added_brace_points)))
     if c.gained_supports:
         out.append(ChangeCause(CauseKind.GAINED_SUPPORTS, members=tuple(c.gained_supports)))
     if rank_a < rank_b:
-        out.append(ChangeCause(CauseKind.STATUS_BETTER, before=status[0], after=status[1]))
-    if ratios[0] is not None and ratios[1] is not None and ratios[1] < ratios[0] - RATIO_TOLERANCE:
-        out.append(ChangeCause(CauseKind.RATIO_FELL, before=ratios[0], after=ratios[1]))
+        out.append(ChangeCause(CauseKind.OUTCOME_BETTER, before=outcome[0], after=outcome[1]))
+    if u[0] is not None and u[1] is not None and u[1] < u[0] - UTILISATION_TOLERANCE:
+        out.append(ChangeCause(CauseKind.UTILISATION_FELL, before=u[0], after=u[1]))
     return out
 
 
@@ -230,10 +230,10 @@ def diff_results(old: CheckResult, new: CheckResult) -> DiffResult:
     pairs, added, removed = match_beams(old.beams, new.beams)
     unloading = frozenset(
         b.guid for b in new.beams
-        if b.status == "not_checked" and b.reason is not None and b.reason.code in UNLOADING
+        if b.outcome == "not_checked" and b.reason is not None and b.reason.code in UNLOADING
     )  # fmt: skip
     changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how, unloading)) is not None]
-    changes.sort(key=lambda c: (c.severity != "regression", c.storey, c.name))
+    changes.sort(key=lambda c: (c.change != "weakened", c.storey, c.name))
     return DiffResult(
         old=old,
         new=new,

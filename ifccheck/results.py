@@ -12,8 +12,8 @@ from typing import Any, Literal
 
 from ifccheck.reasons import Reason
 
-Status = Literal["pass", "fail", "not_checked"]
-STATUSES: tuple[Status, ...] = ("pass", "fail", "not_checked")
+Outcome = Literal["pass", "fail", "not_checked"]
+OUTCOMES: tuple[Outcome, ...] = ("pass", "fail", "not_checked")
 
 
 @dataclass
@@ -28,9 +28,9 @@ class SegmentResult:
     moment_demand: float  # N·m, max moment compressing that flange, governing combination
     moment_capacity: float  # N·m, design (LRFD) or allowable (ASD) strength
     nominal_moment: float  # N·m, Mn
-    ratio: float
+    utilisation: float  # moment demand / moment capacity
     limit_state: str  # yielding | inelastic_ltb | elastic_ltb | flange_local_buckling
-    combination: str
+    load_combination: str
     braced_by: list[str] = field(default_factory=list)  # GUIDs at the segment's ends
     continuous: bool = False
 
@@ -107,18 +107,19 @@ class BeamResult:
     free_ends: list[str] = field(default_factory=list)
     segments: list[SegmentResult] = field(default_factory=list)
     governing_segment: int | None = None
-    flexure_ratio: float | None = None
+    flexure_utilisation: float | None = None
     shear_demand: float | None = None
     shear_capacity: float | None = None
-    shear_ratio: float | None = None
+    shear_utilisation: float | None = None
     deflection_live: float | None = None  # m
     deflection_total: float | None = None  # m
     deflection_live_limit: float | None = None  # m
     deflection_total_limit: float | None = None  # m
-    deflection_ratio: float | None = None
-    ratio: float | None = None
-    governing_check: str = ""  # "flexure", "shear", "deflection"
-    status: Status = "not_checked"
+    deflection_utilisation: float | None = None
+    strength_utilisation: float | None = None  # the worse of flexure and shear
+    utilisation: float | None = None  # the worst of flexure, shear and deflection
+    controlling_limit: str = ""  # "flexure", "shear", "deflection"
+    outcome: Outcome = "not_checked"
     reason: Reason | None = None  # why it is not_checked
     notes: list[str] = field(default_factory=list)
     demand: DemandOut | None = None
@@ -199,19 +200,22 @@ class CheckResult:
         """Not-checked beams counted by reason code."""
         counts: dict[str, int] = {}
         for b in self.beams:
-            if b.status == "not_checked" and b.reason is not None:
+            if b.outcome == "not_checked" and b.reason is not None:
                 counts[b.reason.code.value] = counts.get(b.reason.code.value, 0) + 1
         return dict(sorted(counts.items()))
 
     def summary(self) -> dict[str, int]:
-        counts: dict[str, int] = {s: 0 for s in STATUSES}
+        counts: dict[str, int] = {s: 0 for s in OUTCOMES}
         for b in self.beams:
-            counts[b.status] += 1
+            counts[b.outcome] += 1
         counts["total"] = len(self.beams)
         return counts
 
 
-Severity = Literal["regression", "improvement", "changed"]
+# how a matched beam changed between revisions: weakened (a cause made it worse),
+# strengthened (only better causes) or changed (neither, e.g. its demand fell because
+# a member that loaded it lost its support)
+Change = Literal["weakened", "strengthened", "changed"]
 
 
 class CauseKind(StrEnum):
@@ -223,10 +227,10 @@ class CauseKind(StrEnum):
     GAINED_SUPPORTS = "gained_supports"  # members
     LOST_SLAB_BRACING = "lost_slab_bracing"  # after: length lost (m)
     LB_GREW = "lb_grew"  # before, after (m)
-    STATUS_WORSE = "status_worse"  # before, after (status)
-    STATUS_BETTER = "status_better"
-    RATIO_ROSE = "ratio_rose"  # before, after
-    RATIO_FELL = "ratio_fell"
+    OUTCOME_WORSE = "outcome_worse"  # before, after (outcome)
+    OUTCOME_BETTER = "outcome_better"
+    UTILISATION_ROSE = "utilisation_rose"  # before, after
+    UTILISATION_FELL = "utilisation_fell"
     DEMAND_FELL_LOST_LOAD = "demand_fell_lost_load"  # members: whose load no longer arrives
 
 
@@ -236,8 +240,8 @@ WORSE_CAUSES = frozenset(
         CauseKind.LOST_SUPPORTS,
         CauseKind.LOST_SLAB_BRACING,
         CauseKind.LB_GREW,
-        CauseKind.STATUS_WORSE,
-        CauseKind.RATIO_ROSE,
+        CauseKind.OUTCOME_WORSE,
+        CauseKind.UTILISATION_ROSE,
     }
 )
 
@@ -273,11 +277,11 @@ class BeamChange:
     lost_continuous_bracing: float = 0.0  # m of slab-braced length lost
     lb_before: float | None = None
     lb_after: float | None = None
-    ratio_before: float | None = None
-    ratio_after: float | None = None
-    status_before: str = ""
-    status_after: str = ""
-    severity: Severity = "changed"
+    utilisation_before: float | None = None
+    utilisation_after: float | None = None
+    outcome_before: str = ""
+    outcome_after: str = ""
+    change: Change = "changed"
     causes: list[ChangeCause] = field(default_factory=list)
 
 
@@ -291,5 +295,6 @@ class DiffResult:
     changes: list[BeamChange]
 
     @property
-    def regressions(self) -> list[BeamChange]:
-        return [c for c in self.changes if c.severity == "regression"]
+    def weakened(self) -> list[BeamChange]:
+        """The changes that made a beam worse."""
+        return [c for c in self.changes if c.change == "weakened"]

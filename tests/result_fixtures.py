@@ -203,8 +203,9 @@ def _segments(
         out.append(
             SegmentResult(
                 start=a, end=b, lb=lb, cb=cb, flange="top", moment_demand=demand,
-                moment_capacity=cap, nominal_moment=mn, ratio=demand / cap, limit_state=state,
-                combination=combo, braced_by=braced_by[i], continuous=i in continuous,
+                moment_capacity=cap, nominal_moment=mn, utilisation=demand / cap,
+                limit_state=state, load_combination=combo, braced_by=braced_by[i],
+                continuous=i in continuous,
             )
         )  # fmt: skip
     return out
@@ -239,16 +240,18 @@ def _beam(
     ]
     combo = "1.2D + 1.6L"
     segs = _segments(shape, w, length, cuts, continuous, combo, braced_by)
-    gov = max(range(len(segs)), key=lambda i: segs[i].ratio)
+    gov = max(range(len(segs)), key=lambda i: segs[i].utilisation)
     r = shape_row(shape)
     # shear: AISC 360-16 Eq. G2-1 with Cv1 = 1.0 and φv = 1.00 (G2.1(a), rolled I-shapes)
     vn = 0.6 * FY * r["d"] * IN * r["tw"] * IN
     vu = w * length / 2
     deflection = 5 * (w / 1.6 * 0.6) * length**4 / (384 * E_STEEL * r["Ix"] * IN**4)
     live_limit = length / 360  # common practice
-    ratios = {"flexure": segs[gov].ratio, "shear": vu / vn, "deflection": deflection / live_limit}
-    governing = max(ratios, key=lambda k: ratios[k])
-    ratio = ratios[governing]
+    parts = {
+        "flexure": segs[gov].utilisation, "shear": vu / vn, "deflection": deflection / live_limit
+    }  # fmt: skip
+    controlling = max(parts, key=lambda k: parts[k])
+    u = parts[controlling]
     return BeamResult(
         guid=g[key], name=NAMES[key], storey=storey, ifc_class="IfcBeam", profile=shape,
         grade="A992", fy=FY, start=start, end=end, length=length, span=length,
@@ -259,12 +262,13 @@ def _beam(
             for s, gid, counts, reason in braces
         ],
         continuous_bracing=[(a * FT, b * FT) for a, b in slab_ft],
-        segments=segs, governing_segment=gov, flexure_ratio=segs[gov].ratio,
-        shear_demand=vu, shear_capacity=vn, shear_ratio=vu / vn,
+        segments=segs, governing_segment=gov, flexure_utilisation=segs[gov].utilisation,
+        shear_demand=vu, shear_capacity=vn, shear_utilisation=vu / vn,
         deflection_live=deflection, deflection_total=deflection * 1.6,
         deflection_live_limit=live_limit, deflection_total_limit=length / 240,
-        deflection_ratio=ratios["deflection"], ratio=ratio, governing_check=governing,
-        status="fail" if ratio > 1.0 else "pass",
+        deflection_utilisation=parts["deflection"], utilisation=u, controlling_limit=controlling,
+        strength_utilisation=max(parts["flexure"], parts["shear"]),
+        outcome="fail" if u > 1.0 else "pass",
         notes=["floor framing counted as anchored by the slab diaphragm (common practice)"],
         demand=DemandOut(
             source="computed", tributary_left=5 * FT, tributary_right=5 * FT,
@@ -284,7 +288,7 @@ def _beam(
 
 
 def _target_load(shape: str, length: float, a: float, b: float, target: float) -> float:
-    """The uniform load (N/m) giving ``target`` ratio in the segment [a, b] (m)."""
+    """The uniform load (N/m) giving ``target`` utilisation in the segment [a, b] (m)."""
     cb = _cb(1.0, length, a, b)
     cap = PHI_B * f2_nominal(shape, b - a, cb)[0]
     m_unit = max(_uniform(1.0, length, a + (b - a) * k / 200) for k in range(201))
@@ -323,7 +327,7 @@ def check_result(
     b3 = BeamResult(
         guid=g["b3"], name="B-3", storey="Level 3", ifc_class="IfcBeam", profile="HSS-ODD 6X3",
         grade="A992", fy=FY, start=s3, end=e3, length=20 * FT, span=20 * FT,
-        status="not_checked",
+        outcome="not_checked",
         reason=Reason.of(NotChecked.PROFILE_NOT_IN_TABLE, name="HSS-ODD 6X3",
                          table="the shape table"),
         notes=["no slab or other diaphragm on Level 3 under this beam"],
@@ -361,16 +365,16 @@ def diff_result() -> DiffResult:
         BeamChange(
             guid=g["b2"], old_guid=g["b2"], name="B-2", storey="Level 2", matched_by="guid",
             lost_brace_points=[15 * FT], lb_before=ob2.governing.lb, lb_after=nb2.governing.lb,
-            ratio_before=ob2.ratio, ratio_after=nb2.ratio, status_before=ob2.status,
-            status_after=nb2.status, severity="regression",
+            utilisation_before=ob2.utilisation, utilisation_after=nb2.utilisation,
+            outcome_before=ob2.outcome, outcome_after=nb2.outcome, change="weakened",
             causes=[ChangeCause(CauseKind.LOST_BRACES, stations=(15 * FT,))],
         ),
         BeamChange(
             guid=g["b4"], old_guid=g["b4"], name="B-4", storey="Level 3", matched_by="geometry",
-            added_brace_points=[10 * FT], ratio_before=0.55, ratio_after=0.5,
-            status_before="pass", status_after="pass", severity="improvement",
+            added_brace_points=[10 * FT], utilisation_before=0.55, utilisation_after=0.5,
+            outcome_before="pass", outcome_after="pass", change="strengthened",
             causes=[ChangeCause(CauseKind.ADDED_BRACES, stations=(10 * FT,)),
-                    ChangeCause(CauseKind.RATIO_FELL, before=0.55, after=0.5)],
+                    ChangeCause(CauseKind.UTILISATION_FELL, before=0.55, after=0.5)],
         ),
     ]  # fmt: skip
     return DiffResult(

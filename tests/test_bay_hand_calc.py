@@ -116,7 +116,7 @@ def test_infill_beam_against_hand_calculation(bay):
     assert gov.lb == pytest.approx(30 * FT, rel=1e-6)
     assert gov.cb == pytest.approx(cb, rel=0.01)
     assert gov.limit_state == "elastic_ltb"
-    assert b.flexure_ratio == pytest.approx(ratio, rel=0.01)
+    assert b.flexure_utilisation == pytest.approx(ratio, rel=0.01)
 
 
 def test_girder_against_hand_calculation(bay):
@@ -141,4 +141,4 @@ def test_girder_against_hand_calculation(bay):
     assert gov.cb == pytest.approx(cb, rel=0.01)
     assert gov.moment_demand == pytest.approx(m_mid * 112.98482902, rel=0.01)
     assert m_third < m_mid
-    assert g.flexure_ratio == pytest.approx(ratio, rel=0.01)
+    assert g.flexure_utilisation == pytest.approx(ratio, rel=0.01)

@@ -47,7 +47,7 @@ def test_analysis_moment_checks_both_flanges(overridden):
     b = overridden["L2-B1-10"]
     flanges = {s.flange for s in b.segments}
     assert flanges == {"top", "bottom"}
-    bottom = max((s for s in b.segments if s.flange == "bottom"), key=lambda s: s.ratio)
+    bottom = max((s for s in b.segments if s.flange == "bottom"), key=lambda s: s.utilisation)
     assert bottom.moment_demand == pytest.approx(150 * KIP_FT, rel=1e-6)
     assert bottom.lb == pytest.approx(30 * 0.3048, rel=1e-6)
     assert b.governing.flange == "bottom"
@@ -58,7 +58,7 @@ def _beam(points, continuous=()) -> BeamResult:
         guid="b", name="B", storey="L", ifc_class="IfcBeam", profile="W21X44", grade="A992",
         fy=345e6, start=(0.0, 0.0, 0.0), end=(9.0, 0.0, 0.0), length=9.0, span=9.0,
         brace_points=[BracePointOut(s, "brace", "k", f, True) for s, f in points],
-        continuous_bracing=list(continuous), status="pass", ratio=0.5,
+        continuous_bracing=list(continuous), outcome="pass", utilisation=0.5,
     )  # fmt: skip
 
 
@@ -66,7 +66,7 @@ def test_lost_kicker_on_the_bottom_flange_is_found_at_a_station_still_braced_on_
     old = _beam([(0.0, "both"), (4.0, "top"), (4.0, "bottom"), (9.0, "both")])
     new = _beam([(0.0, "both"), (4.0, "top"), (9.0, "both")])
     change = compare_beam(old, new, "guid")
-    assert change is not None and change.severity == "regression"
+    assert change is not None and change.change == "weakened"
     assert change.lost_brace_points == [4.0]
 
 
@@ -74,5 +74,5 @@ def test_slab_bracing_that_moves_is_a_loss_where_it_left():
     old = _beam([(0.0, "both"), (9.0, "both")], continuous=[(0.0, 6.0)])
     new = replace(old, continuous_bracing=[(3.0, 9.0)])
     change = compare_beam(old, new, "guid")
-    assert change is not None and change.severity == "regression"
+    assert change is not None and change.change == "weakened"
     assert change.lost_continuous_bracing == pytest.approx(3.0)

@@ -120,8 +120,13 @@ def test_inspect_json_has_framing_and_demand():
     shaft = by_name["L2-B2-20"]  # duct shaft from 6 ft to 21 ft along it
     covered = [v / ft for ab in shaft["continuous_bracing"] for v in ab]
     assert covered == pytest.approx([0.0, 6.0, 21.0, 30.0], abs=0.05)
-    assert shaft["demand"]["governing_combination"] == "1.2D+1.6L"
+    assert shaft["demand"]["moment_combination"] == "1.2D+1.6L"
+    # loads are named as in results.json: intensity, force, source
+    assert all(set(x) == {"case", "intensity", "start", "end", "source"}
+               for x in shaft["demand"]["line_loads"])  # fmt: skip
     assert shaft["demand"]["line_loads"] and shaft["free_ends"] == []
+    delivered = by_name["L2-G30-30"]["demand"]["point_loads"]  # a girder carrying infill
+    assert delivered and all(set(p) == {"case", "force", "station", "source"} for p in delivered)
     pulled = by_name["L2-B1-50"]
     assert pulled["free_ends"] == ["end"]
     strut = by_name["R-S15"]

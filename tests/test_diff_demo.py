@@ -35,10 +35,10 @@ def test_revision_a_passes(revisions):
 def test_revision_b_findings(revisions):
     _, b = revisions
     by_name = {x.name: x for x in b.beams}
-    assert by_name["L2-B2-20"].status == "fail"  # duct shaft through the slab over it
-    assert by_name["R-G90-0"].status == "fail"  # roof infill deleted
+    assert by_name["L2-B2-20"].outcome == "fail"  # duct shaft through the slab over it
+    assert by_name["R-G90-0"].outcome == "fail"  # roof infill deleted
     pulled = by_name["L2-B1-50"]
-    assert pulled.status == "not_checked" and "support" in pulled.reason.text
+    assert pulled.outcome == "not_checked" and "support" in pulled.reason.text
 
 
 def test_diff_names_the_weakened_beams(revisions):
@@ -47,20 +47,20 @@ def test_diff_names_the_weakened_beams(revisions):
     names = {x.guid: x.name for x in b.beams}
     assert d.matched == 63
     assert len(d.removed) == 1 and not d.added
-    regressions = {c.name: c for c in d.regressions}
+    weakened = {c.name: c for c in d.weakened}
     # the two roof infill beams beside the deleted one take its load, and the two Level 2
-    # beams beside the one pulled short take its floor: their ratios rise
-    assert set(regressions) == {
+    # beams beside the one pulled short take its floor: their utilisation rises
+    assert set(weakened) == {
         "R-G90-0", "L2-B2-20", "L2-B1-50", "R-B3-7.5", "R-B3-22.5", "L2-B1-40", "L2-E1-60",
     }  # fmt: skip
 
-    roof = regressions["R-G90-0"]  # lost the brace at 15 ft: Lb 7.5 ft → 15 ft
+    roof = weakened["R-G90-0"]  # lost the brace at 15 ft: Lb 7.5 ft → 15 ft
     assert roof.lost_brace_points == pytest.approx([15 * FT], abs=1e-3)
     assert roof.lb_before == pytest.approx(7.5 * FT, abs=1e-3)
     assert roof.lb_after == pytest.approx(15 * FT, abs=1e-3)
-    assert roof.status_before == "pass" and roof.status_after == "fail"
+    assert roof.outcome_before == "pass" and roof.outcome_after == "fail"
 
-    shaft = regressions["L2-B2-20"]  # 15 ft of slab bracing cut away
+    shaft = weakened["L2-B2-20"]  # 15 ft of slab bracing cut away
     assert shaft.lost_continuous_bracing == pytest.approx(15 * FT, abs=0.02)
     assert shaft.lb_before == pytest.approx(0.0)
     assert shaft.lb_after == pytest.approx(15 * FT, abs=0.02)
@@ -70,14 +70,14 @@ def test_diff_names_the_weakened_beams(revisions):
     # and L2-G0-30's demand fell only because L2-B1-50 no longer reaches it: never better
     assert not any(c.name == "L2-G30-30" for c in d.changes)
     girder = next(c for c in d.changes if c.name == "L2-G0-30")
-    assert girder.severity == "changed" and not girder.lost_brace_points
+    assert girder.change == "changed" and not girder.lost_brace_points
     (cause,) = girder.causes
     assert cause.kind is CauseKind.DEMAND_FELL_LOST_LOAD
     assert [names[g] for g in cause.members] == ["L2-B1-50"]
-    assert regressions["R-B3-7.5"].ratio_after > regressions["R-B3-7.5"].ratio_before
+    assert weakened["R-B3-7.5"].utilisation_after > weakened["R-B3-7.5"].utilisation_before
 
-    pulled = regressions["L2-B1-50"]
-    assert pulled.lost_supports and pulled.status_after == "not_checked"
+    pulled = weakened["L2-B1-50"]
+    assert pulled.lost_supports and pulled.outcome_after == "not_checked"
 
 
 def test_geometry_matching_when_guids_are_regenerated(revisions):
@@ -87,4 +87,4 @@ def test_geometry_matching_when_guids_are_regenerated(revisions):
     d = diff_results(a, b)
     assert d.matched == 62  # the pulled-short beam no longer matches by geometry
     assert all(c.matched_by == "geometry" for c in d.changes)
-    assert {"R-G90-0", "L2-B2-20"} <= {c.name for c in d.regressions}
+    assert {"R-G90-0", "L2-B2-20"} <= {c.name for c in d.weakened}

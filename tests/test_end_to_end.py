@@ -52,24 +52,24 @@ def test_outputs_agree_with_each_other(rev_b):
     _, out = rev_b
     doc = json.loads((out / "quillfeather-rev-b.results.json").read_text())
     jsonschema.validate(doc, json.loads((SCHEMAS / "results.schema.json").read_text()))
-    statuses = {b["guid"]: b["status"] for b in doc["beams"]}
+    outcomes = {b["guid"]: b["outcome"] for b in doc["beams"]}
     by_name = {b["name"]: b for b in doc["beams"]}
-    assert by_name["L2-B2-20"]["status"] == "fail"
-    assert by_name["R-G90-0"]["status"] == "fail"
-    assert by_name["L2-B1-50"]["status"] == "not_checked"
-    assert by_name["L2-B1-40"]["status"] == "fail" and by_name["L2-E1-60"]["status"] == "fail"
+    assert by_name["L2-B2-20"]["outcome"] == "fail"
+    assert by_name["R-G90-0"]["outcome"] == "fail"
+    assert by_name["L2-B1-50"]["outcome"] == "not_checked"
+    assert by_name["L2-B1-40"]["outcome"] == "fail" and by_name["L2-E1-60"]["outcome"] == "fail"
 
     with (out / "quillfeather-rev-b.beams.csv").open(newline="") as fh:
         rows = list(csv.DictReader(fh))
-    assert {r["guid"]: r["status"] for r in rows} == statuses
+    assert {r["guid"]: r["outcome"] for r in rows} == outcomes
     assert "lb_ft" in rows[0] and "moment_demand_kip_ft" in rows[0]  # model in feet
 
     checked = ifcopenshell.open(str(out / "quillfeather-rev-b.checked.ifc"))
     original = ifcopenshell.open(str(SAMPLES / "quillfeather-rev-b.ifc"))
     assert len(checked.by_type("IfcRoot")) >= len(original.by_type("IfcRoot"))
-    for guid, status in statuses.items():
+    for guid, outcome in outcomes.items():
         psets = ifcopenshell.util.element.get_psets(checked.by_guid(guid))
-        assert psets[PSET_NAME]["Status"] == status
+        assert psets[PSET_NAME]["Outcome"] == outcome
 
     # BCF 2.1: one folder per topic; the viewpoint (.bcfv) selects the beam's GUID
     with zipfile.ZipFile(out / "quillfeather-rev-b.issues.bcf") as z:
@@ -77,7 +77,7 @@ def test_outputs_agree_with_each_other(rev_b):
         for n in z.namelist():
             if "/" in n:
                 topics[n.split("/")[0]] = topics.get(n.split("/")[0], "") + z.read(n).decode()
-    flagged = {g for g, s in statuses.items() if s != "pass"}
+    flagged = {g for g, s in outcomes.items() if s != "pass"}
     assert len(topics) == len(flagged)
     for guid in flagged:
         assert sum(guid in text for text in topics.values()) == 1
@@ -99,23 +99,23 @@ def test_diff_through_the_cli(tmp_path):
     result = run("diff", str(SAMPLES / "quillfeather-rev-a.ifc"),
                  str(SAMPLES / "quillfeather-rev-b.ifc"), "--config",
                  str(SAMPLES / "quillfeather.toml"), "--out", str(tmp_path))  # fmt: skip
-    assert result.exit_code == 1  # regressions found
-    assert "7 regression(s)" in result.output
+    assert result.exit_code == 1  # weakened beams found
+    assert "7 weakened" in result.output
     doc = json.loads((tmp_path / "diff.json").read_text())
     jsonschema.validate(doc, json.loads((SCHEMAS / "diff.schema.json").read_text()))
-    regressions = {b["name"]: b for b in doc["beams"].values() if b["severity"] == "regression"}
-    assert {"R-G90-0", "L2-B2-20", "L2-B1-50"} <= set(regressions)
-    assert regressions["R-G90-0"]["lost_brace_points"] == pytest.approx([15 * 0.3048], abs=1e-3)
+    weakened = {b["name"]: b for b in doc["beams"].values() if b["change"] == "weakened"}
+    assert {"R-G90-0", "L2-B2-20", "L2-B1-50"} <= set(weakened)
+    assert weakened["R-G90-0"]["lost_brace_points"] == pytest.approx([15 * 0.3048], abs=1e-3)
     for name in ("diff.csv", "diff.bcf", "diff.html"):
         assert (tmp_path / name).stat().st_size > 0
 
 
-def test_no_regression_between_identical_revisions(tmp_path):
+def test_nothing_weakened_between_identical_revisions(tmp_path):
     a = str(SAMPLES / "quillfeather-rev-a.ifc")
     result = run("diff", a, a, "--config", str(SAMPLES / "quillfeather.toml"),
                  "--out", str(tmp_path))  # fmt: skip
     assert result.exit_code == 0, result.output
-    assert "0 regression(s)" in result.output
+    assert "0 weakened" in result.output
 
 
 def test_bad_settings_file_is_one_line_exit_2(tmp_path):
@@ -134,7 +134,7 @@ def test_asd_method_switch(tmp_path):
                  "--method", "ASD", "--out", str(tmp_path))  # fmt: skip
     doc = json.loads((tmp_path / "quillfeather-rev-a.results.json").read_text())
     assert doc["method"] == "ASD"
-    combos = {s["combination"] for b in doc["beams"] for s in b["segments"]}
+    combos = {s["load_combination"] for b in doc["beams"] for s in b["segments"]}
     # ASCE 7-16 §2.4.1, with live load on parts of the balcony beam (§4.3.3)
     assert {c.split(" (")[0] for c in combos} <= {"D", "D+L"}
     assert "1.2D+1.6L" not in combos

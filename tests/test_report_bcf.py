@@ -1,4 +1,4 @@
-"""BCF issues: read back with bcf-client; statuses agree across every output."""
+"""BCF issues: read back with bcf-client; outcomes agree across every output."""
 
 from __future__ import annotations
 
@@ -35,7 +35,7 @@ def test_one_topic_per_failing_or_not_checked_beam(tmp_path):
     model_guids = {e.GlobalId for e in model.by_type("IfcRoot")}
     result = rf.check_result()
     topics = _topics(write_issues_bcf(result, tmp_path / "m.issues.bcf"))
-    expected = {b.guid for b in result.beams if b.status in ("fail", "not_checked")}
+    expected = {b.guid for b in result.beams if b.outcome in ("fail", "not_checked")}
     assert len(topics) == len(expected) == 2
     selected = set()
     for _, guids in topics:
@@ -56,7 +56,7 @@ def test_topic_words_say_where_why_and_what_to_do(tmp_path):
     text = fail.description
     assert "7.50 ft to 22.50 ft" in text  # the governing segment's stations
     assert "Lb = 15.00 ft" in text
-    assert "ratio 1.31" in text and "1.2D + 1.6L" in text
+    assert "utilisation 1.31" in text and "1.2D + 1.6L" in text
     assert "near station 15.00 ft" in text  # the middle of the 7.5–22.5 ft segment
     assert "heavier section" in text
     assert "fail" in fail.labels
@@ -106,13 +106,13 @@ def test_file_is_bcf_2_1(tmp_path):
         assert sum(n.endswith("markup.bcf") for n in z.namelist()) == 2
 
 
-def test_diff_bcf_topic_per_regression(tmp_path):
+def test_diff_bcf_topic_per_weakened_beam(tmp_path):
     diff = rf.diff_result()
     new_model = ifcopenshell.open(str(rf.write_model(tmp_path / "b.ifc")))
     topics = _topics(write_diff_bcf(diff, tmp_path / "diff.bcf", "imperial"))
-    assert len(topics) == len(diff.regressions) == 1
+    assert len(topics) == len(diff.weakened) == 1
     t, guids = topics[0]
-    assert guids == [diff.regressions[0].guid]
+    assert guids == [diff.weakened[0].guid]
     assert new_model.by_guid(guids[0]).is_a("IfcBeam")
     assert "lost 1 brace point" in t.topic.title
     assert "15.00 ft" in t.topic.description
@@ -122,7 +122,7 @@ def test_diff_bcf_topic_per_regression(tmp_path):
     assert lines[0].start_point.x == pytest.approx(b2.start[0] + 15 * FT)
 
 
-def test_statuses_agree_across_json_csv_psets_and_bcf(tmp_path):
+def test_outcomes_agree_across_json_csv_psets_and_bcf(tmp_path):
     import json
 
     source = rf.write_model(tmp_path / "scenario.ifc", "IFC4", "foot")
@@ -132,20 +132,20 @@ def test_statuses_agree_across_json_csv_psets_and_bcf(tmp_path):
         "scenario.results.json", "scenario.beams.csv", "scenario.checked.ifc",
         "scenario.issues.bcf", "scenario.report.html",
     }  # fmt: skip
-    from_json = {b["guid"]: b["status"] for b in json.loads(paths["json"].read_text())["beams"]}
+    from_json = {b["guid"]: b["outcome"] for b in json.loads(paths["json"].read_text())["beams"]}
     df = pd.read_csv(paths["csv"])
-    from_csv = dict(zip(df["guid"], df["status"], strict=True))
+    from_csv = dict(zip(df["guid"], df["outcome"], strict=True))
     copy = ifcopenshell.open(str(paths["ifc"]))
     from_psets = {
-        g: ifcopenshell.util.element.get_psets(copy.by_guid(g))[PSET_NAME]["Status"]
+        g: ifcopenshell.util.element.get_psets(copy.by_guid(g))[PSET_NAME]["Outcome"]
         for g in from_json
     }
     from_bcf = {}
     for t, guids in _topics(paths["bcf"]):
-        status = "fail" if "fail" in t.topic.labels else "not_checked"
-        assert ("not checked" in t.topic.labels) is (status == "not_checked")
-        from_bcf[guids[0]] = status
-    expected = {b.guid: b.status for b in result.beams}
+        outcome = "fail" if "fail" in t.topic.labels else "not_checked"
+        assert ("not checked" in t.topic.labels) is (outcome == "not_checked")
+        from_bcf[guids[0]] = outcome
+    expected = {b.guid: b.outcome for b in result.beams}
     assert from_json == from_csv == from_psets == expected
     assert from_bcf == {g: s for g, s in expected.items() if s != "pass"}
     diff_paths = write_diff_all(rf.diff_result(), tmp_path / "diff", "si")

@@ -1,4 +1,4 @@
-"""The beam and diff CSV tables: unit suffixes, unit conversion, statuses."""
+"""The beam and diff CSV tables: unit suffixes, unit conversion, outcomes."""
 
 from __future__ import annotations
 
@@ -53,15 +53,16 @@ def test_dimensional_columns_carry_unit_suffix(units, expected):
     named = {c for c in df.columns if re.search(suffix[units], c)}
     assert len(named) == len(dimensional)
     for plain in ("guid", "name", "storey", "profile", "grade", "cb", "limit_state",
-                  "combination", "flexure_ratio", "shear_ratio", "deflection_ratio", "ratio",
-                  "status", "reason", "notes"):  # fmt: skip
+                  "load_combination", "flexure_utilisation", "shear_utilisation",
+                  "deflection_utilisation", "strength_utilisation", "utilisation",
+                  "controlling_limit", "outcome", "reason", "notes"):  # fmt: skip
         assert plain in df.columns
 
 
 def test_si_and_imperial_agree():
     result = rf.check_result()
     si, imp = _frame(result, "si"), _frame(result, "imperial")
-    checked = si["status"] != "not_checked"
+    checked = si["outcome"] != "not_checked"
     pairs = [
         ("lb_m", "lb_ft", FT), ("span_m", "span_ft", FT),
         ("moment_demand_kN_m", "moment_demand_kip_ft", KIP_FT),
@@ -73,8 +74,8 @@ def test_si_and_imperial_agree():
         a = si.loc[checked, si_col].astype(float).to_numpy()
         b = imp.loc[checked, imp_col].astype(float).to_numpy() * factor
         assert a == pytest.approx(b, rel=2e-5), si_col  # 6 significant digits written
-    # ratios and Cb carry no unit and are the same in both
-    pd.testing.assert_series_equal(si["ratio"], imp["ratio"])
+    # utilisations and Cb carry no unit and are the same in both
+    pd.testing.assert_series_equal(si["utilisation"], imp["utilisation"])
     pd.testing.assert_series_equal(si["cb"], imp["cb"])
 
 
@@ -89,13 +90,13 @@ def test_values_in_display_units():
     assert df.loc["B-4", "lb_ft"] == 0.0  # slab braces it throughout
 
 
-def test_statuses_match_json_and_not_checked_is_blank():
+def test_outcomes_match_json_and_not_checked_is_blank():
     result = rf.check_result()
     df = _frame(result, "si")
-    json_status = {b["guid"]: b["status"] for b in results_document(result)["beams"]}
-    assert dict(zip(df["guid"], df["status"], strict=True)) == json_status
-    row = df[df["status"] == "not_checked"].iloc[0]
-    assert pd.isna(row["ratio"]) and pd.isna(row["lb_m"])
+    json_outcome = {b["guid"]: b["outcome"] for b in results_document(result)["beams"]}
+    assert dict(zip(df["guid"], df["outcome"], strict=True)) == json_outcome
+    row = df[df["outcome"] == "not_checked"].iloc[0]
+    assert pd.isna(row["utilisation"]) and pd.isna(row["lb_m"])
     assert "shape table" in row["reason"]
     assert row["reason_code"] == "profile_not_in_table"
 
@@ -105,7 +106,7 @@ def test_write_files(tmp_path):
     assert p.read_text(encoding="utf-8").startswith("guid,name,storey")
     d = write_diff_csv(rf.diff_result(), tmp_path / "diff.csv", "imperial")
     df = pd.read_csv(d, keep_default_na=False, na_values=[""])
-    assert df["severity"].tolist()[0] == "regression"
+    assert df["change"].tolist()[0] == "weakened"
     assert df.loc[0, "lost_brace_points_ft"] == pytest.approx(15.0)
     assert (df.loc[0, "lb_before_ft"], df.loc[0, "lb_after_ft"]) == pytest.approx((7.5, 15.0))
     names = [n for n, k, _ in DIFF_COLUMNS if k]

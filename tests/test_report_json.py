@@ -22,12 +22,13 @@ from ifccheck.report.json_out import (
 
 BRIEF_BEAM_KEYS = {
     "guid", "name", "storey", "profile", "grade", "fy", "span", "supports", "brace_points",
-    "continuous_bracing", "segments", "governing_segment", "flexure_ratio", "shear_ratio",
-    "deflection_ratio", "ratio", "status", "notes", "reason", "demand",
+    "continuous_bracing", "segments", "governing_segment", "flexure_utilisation",
+    "shear_utilisation", "deflection_utilisation", "strength_utilisation", "utilisation",
+    "controlling_limit", "outcome", "notes", "reason", "demand",
 }  # fmt: skip
 SEGMENT_KEYS = {
-    "start", "end", "lb", "cb", "moment_demand", "moment_capacity", "ratio", "limit_state",
-    "combination",
+    "start", "end", "lb", "cb", "moment_demand", "moment_capacity", "utilisation", "limit_state",
+    "load_combination",
 }  # fmt: skip
 
 
@@ -61,7 +62,7 @@ def test_schema_is_strict_so_undocumented_keys_fail():
     v = _validator(RESULTS_SCHEMA)
     assert not v.is_valid(doc)
     doc = results_document(rf.check_result())
-    doc["beams"][1]["status"] = "ok"  # not one of the three statuses
+    doc["beams"][1]["outcome"] = "ok"  # not one of the three outcomes
     assert not v.is_valid(doc)
 
 
@@ -79,10 +80,13 @@ def test_results_carry_the_contract_keys_and_summary():
             assert SEGMENT_KEYS <= set(s)
         if b["governing_segment"] is not None:
             gov = b["segments"][b["governing_segment"]]
-            assert gov["ratio"] == max(s["ratio"] for s in b["segments"])
-            assert b["flexure_ratio"] == gov["ratio"]
-    not_checked = next(b for b in doc["beams"] if b["status"] == "not_checked")
-    assert not_checked["reason"] and not_checked["ratio"] is None
+            assert gov["utilisation"] == max(s["utilisation"] for s in b["segments"])
+            assert b["flexure_utilisation"] == gov["utilisation"]
+            parts = (b["flexure_utilisation"], b["shear_utilisation"])
+            assert b["strength_utilisation"] == max(parts)
+            assert b["utilisation"] == max(*parts, b["deflection_utilisation"])
+    not_checked = next(b for b in doc["beams"] if b["outcome"] == "not_checked")
+    assert not_checked["reason"] and not_checked["utilisation"] is None
     assert not_checked["segments"] == [] and not_checked["governing_segment"] is None
 
 
@@ -103,12 +107,12 @@ def test_values_are_si_base_units():
 
 def test_nan_and_infinity_become_null(tmp_path):
     result = rf.check_result()
-    result.beams[0].shear_ratio = float("nan")
+    result.beams[0].shear_utilisation = float("nan")
     result.beams[0].segments[0].cb = float("inf")
     path = write_results_json(result, tmp_path / "r.json")
     doc = _strict_load(path)
     assert doc["settings"]["odd"] is None  # the fixture's settings carry a NaN
-    assert doc["beams"][0]["shear_ratio"] is None
+    assert doc["beams"][0]["shear_utilisation"] is None
     assert doc["beams"][0]["segments"][0]["cb"] is None
     assert _validator(RESULTS_SCHEMA).is_valid(doc)
 
@@ -120,26 +124,26 @@ def test_one_beam_per_line(tmp_path):
     assert len(beam_lines) == len(result.beams) + len(result.slabs)
 
 
-def test_diff_json_validates_and_orders_regressions_first(tmp_path):
+def test_diff_json_validates_and_orders_weakened_first(tmp_path):
     diff = rf.diff_result()
     path = write_diff_json(diff, tmp_path / "diff.json")
     doc = _strict_load(path)
     assert list(_validator(DIFF_SCHEMA).iter_errors(doc)) == []
     changes = list(doc["beams"].values())
-    assert changes[0]["severity"] == "regression"
+    assert changes[0]["change"] == "weakened"
     assert set(doc["beams"]) == {c.guid for c in diff.changes}
     assert all(doc["beams"][g]["guid"] == g for g in doc["beams"])
     reg = changes[0]
     assert reg["lost_brace_points"] == [pytest.approx(15 * 0.3048)]
     assert reg["lb_before"] == pytest.approx(7.5 * 0.3048)
     assert reg["lb_after"] == pytest.approx(15 * 0.3048)
-    assert (reg["status_before"], reg["status_after"]) == ("pass", "fail")
+    assert (reg["outcome_before"], reg["outcome_after"]) == ("pass", "fail")
     s = doc["summary"]
-    assert (s["regressions"], s["improvements"], s["added"], s["removed"]) == (1, 1, 1, 1)
+    assert (s["weakened"], s["strengthened"], s["added"], s["removed"]) == (1, 1, 1, 1)
     assert s["new_failures"] == 1 and doc["matched"] == 3
     assert doc["added"] == diff.added and doc["removed"] == diff.removed
     bad = diff_document(diff)
-    next(iter(bad["beams"].values()))["severity"] = "worse"
+    next(iter(bad["beams"].values()))["change"] = "worse"
     assert not _validator(DIFF_SCHEMA).is_valid(bad)
 
 

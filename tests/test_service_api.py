@@ -102,12 +102,13 @@ def bob(server):
 
 @pytest.fixture(scope="module")
 def reference():
-    """Per-beam (status, ratio) of each revision from a direct check."""
+    """Per-beam (outcome, utilisation) of each revision from a direct check."""
     settings = load_settings(SETTINGS)
     out = {}
     for path in (REV_A, REV_B):
         result, _, _ = run_check(path, settings)
-        out[path.name] = ({b.guid: (b.status, b.ratio) for b in result.beams}, result.summary())
+        beams = {b.guid: (b.outcome, b.utilisation) for b in result.beams}
+        out[path.name] = (beams, result.summary())
     return out
 
 
@@ -122,10 +123,10 @@ def revisions(alice):
 def _same_results(document: dict, reference: tuple) -> None:
     beams, summary = reference
     assert document["summary"] == summary
-    served = {b["guid"]: (b["status"], b["ratio"]) for b in document["beams"]}
+    served = {b["guid"]: (b["outcome"], b["utilisation"]) for b in document["beams"]}
     assert served.keys() == beams.keys()
-    for guid, (status, ratio) in beams.items():
-        assert served[guid][0] == status
+    for guid, (outcome, ratio) in beams.items():
+        assert served[guid][0] == outcome
         assert (served[guid][1] is None) == (ratio is None)
         if ratio is not None:
             assert served[guid][1] == pytest.approx(ratio, rel=1e-9)
@@ -138,7 +139,7 @@ def test_health_needs_no_token(server):
 
 def test_revision_b_diff_names_the_beams_that_lost_bracing(revisions, alice):
     a, b = revisions
-    assert a["status"] == "done" and b["status"] == "done", (a, b)
+    assert a["status"] == "finished" and b["status"] == "finished", (a, b)
     assert a["compared_with"] is None and "diff.json" not in a["files"]
     assert b["compared_with"] == a["id"]
     assert set(b["files"]) == {
@@ -153,12 +154,12 @@ def test_revision_b_diff_names_the_beams_that_lost_bracing(revisions, alice):
         "diff.html",
     }
     diff = json.loads(alice.file(b["id"], "diff.json"))
-    regressions = {c["name"] for c in diff["beams"].values() if c["severity"] == "regression"}
+    weakened = {c["name"] for c in diff["beams"].values() if c["change"] == "weakened"}
     # scenario: R-G90-0 loses its roof infill brace, L2-B2-20 its slab bracing at the shaft
-    assert {"R-G90-0", "L2-B2-20"} <= regressions
-    assert b["diff"]["regressions"] == len(regressions)
+    assert {"R-G90-0", "L2-B2-20"} <= weakened
+    assert b["diff"]["weakened"] == len(weakened)
     roof = next(c for c in diff["beams"].values() if c["name"] == "R-G90-0")
-    assert roof["status_before"] == "pass" and roof["status_after"] == "fail"
+    assert roof["outcome_before"] == "pass" and roof["outcome_after"] == "fail"
     assert roof["lost_brace_points"]
     # the demo is in feet: the reasons are worded in feet, as the CLI words them
     # (they once came out in metres from the service)
@@ -186,18 +187,21 @@ def test_served_files_are_the_check_of_the_uploaded_model(revisions, alice, refe
 
 def test_listing_by_model_key_newest_first(revisions, alice, bob):
     a, b = revisions
-    listed = alice.http.get(f"{API}/checks", params={"model_key": "quillfeather"}).json()
-    assert [c["id"] for c in listed["checks"]][:2] == [b["id"], a["id"]]
+    listed = alice.http.get(f"{API}/submissions", params={"model_key": "quillfeather"}).json()
+    assert [c["id"] for c in listed["submissions"]][:2] == [b["id"], a["id"]]
     assert (
-        bob.http.get(f"{API}/checks", params={"model_key": "quillfeather"}).json()["checks"] == []
+        bob.http.get(f"{API}/submissions", params={"model_key": "quillfeather"}).json()[
+            "submissions"
+        ]
+        == []
     )
 
 
 def test_tokens_are_required_and_scoped(server, revisions, bob):
     a, _ = revisions
-    job = f"{server.url}{API}/checks/{a['id']}"
+    job = f"{server.url}{API}/submissions/{a['id']}"
     assert httpx.get(job).status_code == 401
-    assert httpx.get(f"{server.url}{API}/checks").status_code == 401
+    assert httpx.get(f"{server.url}{API}/submissions").status_code == 401
     r = httpx.get(job, headers={"Authorization": "Bearer ifck_0123456789ab_" + "x" * 43})
     assert r.status_code == 401 and r.headers["www-authenticate"] == "Bearer"
     wrong = server.tokens["alice"][:-3] + "zzz"
@@ -207,19 +211,19 @@ def test_tokens_are_required_and_scoped(server, revisions, bob):
     assert bob.http.get(job).status_code == 404
     assert bob.http.get(f"{job}/files/results.json").status_code == 404
     assert bob.http.post(f"{job}/files/results.json/link").status_code == 404
-    r = httpx.post(f"{server.url}{API}/checks", files={"model": ("a.ifc", REV_A.read_bytes())})
+    r = httpx.post(f"{server.url}{API}/submissions", files={"model": ("a.ifc", REV_A.read_bytes())})
     assert r.status_code == 401
 
 
 def test_revoked_token_is_refused(server):
     with ServiceClient(server.url, server.tokens["carol"]) as carol:
-        assert carol.http.get(f"{API}/checks").status_code == 200
+        assert carol.http.get(f"{API}/submissions").status_code == 200
         revoke = ["token", "revoke", "carol", "--data", str(server.data_dir)]
         out = subprocess.run(
             [sys.executable, "-m", cli_module(), *revoke], capture_output=True, text=True
         )  # the CLI as a user runs it
         assert out.returncode == 0 and "revoked" in out.stdout
-        assert carol.http.get(f"{API}/checks").status_code == 401
+        assert carol.http.get(f"{API}/submissions").status_code == 401
 
 
 def _raw_get(server, path: str, token: str) -> tuple[int, bytes]:
@@ -252,14 +256,16 @@ def _raw_get(server, path: str, token: str) -> tuple[int, bytes]:
 )
 def test_path_traversal_is_not_found(server, revisions, name):
     a, _ = revisions
-    status, body = _raw_get(server, f"{API}/checks/{a['id']}/files/{name}", server.tokens["alice"])
+    status, body = _raw_get(
+        server, f"{API}/submissions/{a['id']}/files/{name}", server.tokens["alice"]
+    )
     assert status == 404
     assert b"SQLite" not in body and b"ISO-10303" not in body
 
 
 def test_signed_links_open_one_file_without_a_header(server, revisions, alice):
     a, _ = revisions
-    link = alice.http.post(f"{API}/checks/{a['id']}/files/report.html/link").json()
+    link = alice.http.post(f"{API}/submissions/{a['id']}/files/report.html/link").json()
     assert httpx.get(server.url + link["url"]).status_code == 200
     other = link["url"].replace("report.html", "results.json")
     assert httpx.get(server.url + other).status_code == 401
@@ -267,16 +273,16 @@ def test_signed_links_open_one_file_without_a_header(server, revisions, alice):
 
 
 def _job_count(client: ServiceClient) -> int:
-    return len(client.http.get(f"{API}/checks", params={"limit": 1000}).json()["checks"])
+    return len(client.http.get(f"{API}/submissions", params={"limit": 1000}).json()["submissions"])
 
 
 def test_non_ifc_upload_is_refused_before_a_job_is_made(alice, tmp_path):
     before = _job_count(alice)
     for content in (b"PK\x03\x04 zipped", b"<html>not a model</html>", b"", b"   \n  "):
-        r = alice.http.post(f"{API}/checks", files={"model": ("x.ifc", content)})
+        r = alice.http.post(f"{API}/submissions", files={"model": ("x.ifc", content)})
         assert r.status_code == 422, r.text
         assert "ISO-10303-21" in r.json()["detail"]
-    r = alice.http.post(f"{API}/checks", data={"model_key": "no-model"})
+    r = alice.http.post(f"{API}/submissions", data={"model_key": "no-model"})
     assert r.status_code == 422
     assert _job_count(alice) == before
 
@@ -287,19 +293,19 @@ def test_bad_settings_are_refused_naming_the_key(alice):
         "model": ("a.ifc", REV_A.read_bytes()),
         "settings": ("s.toml", b"[loads]\nlive = 'x'\n"),
     }
-    r = alice.http.post(f"{API}/checks", files=files)
+    r = alice.http.post(f"{API}/submissions", files=files)
     assert r.status_code == 422 and "loads.live" in r.json()["detail"]
     files["settings"] = ("s.toml", b"[loads]\nlvie = '50 psf'\n")
-    r = alice.http.post(f"{API}/checks", files=files)
+    r = alice.http.post(f"{API}/submissions", files=files)
     assert r.status_code == 422 and "loads.lvie" in r.json()["detail"]
     assert "/uploads/" not in r.json()["detail"]  # no server paths in messages
     files["settings"] = ("s.toml", b"not = = toml")
-    assert alice.http.post(f"{API}/checks", files=files).status_code == 422
+    assert alice.http.post(f"{API}/submissions", files=files).status_code == 422
     del files["settings"]
     files["demands"] = ("d.csv", b"no,such,columns\n1,2,3\n")
-    r = alice.http.post(f"{API}/checks", files=files)
+    r = alice.http.post(f"{API}/submissions", files=files)
     assert r.status_code == 422 and r.json()["detail"].startswith("demands:")
-    r = alice.http.post(f"{API}/checks", files=files | {"extra": ("e", b"1")})
+    r = alice.http.post(f"{API}/submissions", files=files | {"extra": ("e", b"1")})
     assert r.status_code == 422
     assert _job_count(alice) == before
 
@@ -312,7 +318,7 @@ def test_oversize_upload_is_refused_while_streaming(server, alice):
     before = _tree_size(server.data_dir)
     jobs = _job_count(alice)
     big = b"ISO-10303-21;\n" + b"x" * (3 * MAX_UPLOAD)
-    r = alice.http.post(f"{API}/checks", files={"model": ("big.ifc", big)})
+    r = alice.http.post(f"{API}/submissions", files={"model": ("big.ifc", big)})
     assert r.status_code == 413  # told by Content-Length
 
     sent = 0
@@ -329,7 +335,7 @@ def test_oversize_upload_is_refused_while_streaming(server, alice):
 
     try:
         r = alice.http.post(
-            f"{API}/checks",
+            f"{API}/submissions",
             content=chunked(),
             headers={"Content-Type": "multipart/form-data; boundary=cap"},
         )
@@ -350,7 +356,7 @@ def test_webhook_is_posted_with_retries_to_allowed_hosts_only(alice, hooks):
         time.sleep(0.1)
     calls = [body for path, body in hooks.calls if path == "/done/1"]
     assert len(calls) == 2  # the first attempt got 503 and was retried
-    assert calls[-1]["id"] == job and calls[-1]["status"] == "done"
+    assert calls[-1]["id"] == job and calls[-1]["status"] == "finished"
     assert calls[-1]["summary"] == doc["summary"]
     for bad in (f"http://127.0.0.1:{hooks.port + 1}/x", "http://localhost.example/x", "ftp://a/b"):
         r = alice.submit(REV_A, callback_url=bad)
@@ -372,7 +378,7 @@ def test_twenty_concurrent_uploads_with_two_workers(server, reference, capsys):
     elapsed = time.perf_counter() - t0
     with ServiceClient(server.url, server.tokens["bob"]) as c:
         for (job, doc), path in zip(done, paths, strict=True):
-            assert doc["status"] == "done", doc
+            assert doc["status"] == "finished", doc
             _same_results(json.loads(c.file(job, "results.json")), reference[path.name])
     with capsys.disabled():
         print(f"\n[load] 20 checks, 2 workers: {elapsed:.1f} s, {20 / elapsed:.2f} checks/s")

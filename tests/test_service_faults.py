@@ -42,8 +42,8 @@ def test_killed_server_resumes_the_running_job(tmp_path, capsys):
     try:
         with ServiceClient(first.url, token) as c:
             job = c.check(REV_A, SETTINGS, model_key="slow")
-            queued = c.check(REV_A, SETTINGS, model_key="after")
-            _wait_for(lambda: c.status(job)["status"] == "running", 30, "the job to start")
+            received = c.check(REV_A, SETTINGS, model_key="after")
+            _wait_for(lambda: c.status(job)["status"] == "checking", 30, "the job to start")
             workers = first.descendants()
             assert len(workers) >= 2  # at least the fork server and the busy worker
     finally:
@@ -58,8 +58,8 @@ def test_killed_server_resumes_the_running_job(tmp_path, capsys):
         with ServiceClient(second.url, token) as c:
             doc = c.wait(job, timeout=120)
             resumed = time.perf_counter() - t0
-            assert doc["status"] == "done", doc
-            assert c.wait(queued, timeout=120)["status"] == "done"
+            assert doc["status"] == "finished", doc
+            assert c.wait(received, timeout=120)["status"] == "finished"
             assert set(doc["files"]) == {
                 "results.json",
                 "beams.csv",
@@ -106,7 +106,7 @@ def test_failing_checks_fail_only_their_own_job(faulty, tmp_path):
         "fine": c.check(REV_A, SETTINGS, model_key="fine"),
     }
     docs = {k: c.wait(j, timeout=120) for k, j in jobs.items()}
-    assert docs["fine"]["status"] == "done" and docs["fine"]["summary"]["total"] > 0
+    assert docs["fine"]["status"] == "finished" and docs["fine"]["summary"]["total"] > 0
     expected = {
         "hang": "exceeded its time limit of 5 s",
         "boom": "stopped unexpectedly (exit code 70)",
@@ -115,9 +115,9 @@ def test_failing_checks_fail_only_their_own_job(faulty, tmp_path):
     }
     for key, fragment in expected.items():
         doc = docs[key]
-        assert doc["status"] == "failed", doc
+        assert doc["status"] == "errored", doc
         assert fragment in doc["error"], doc["error"]
         assert "\n" not in doc["error"] and str(server.data_dir) not in doc["error"]
         assert doc["files"] == {} and doc["summary"] is None
     # the service goes on: a new job after the failures runs normally
-    assert c.wait(c.check(REV_A, SETTINGS), timeout=120)["status"] == "done"
+    assert c.wait(c.check(REV_A, SETTINGS), timeout=120)["status"] == "finished"

@@ -46,7 +46,7 @@ def _upload(page, model: Path, key: str) -> None:
     page.set_input_files("#f-settings", str(SAMPLES / "quillfeather.toml"))
     page.fill("#f-key", key)
     page.click("#upload-button")
-    page.wait_for_selector("#upload-message:has-text('Queued as check')")
+    page.wait_for_selector("#upload-message:has-text('Received as submission')")
 
 
 def test_sign_in_upload_and_open_the_reports(server, browser, tmp_path):
@@ -68,14 +68,14 @@ def test_sign_in_upload_and_open_the_reports(server, browser, tmp_path):
     assert page.evaluate("localStorage.length") == 0 and context.cookies() == []
 
     _upload(page, SAMPLES / "quillfeather-rev-a.ifc", "quillfeather")
-    page.wait_for_selector("tr[data-status=done]", timeout=120_000)
+    page.wait_for_selector("tr[data-status=finished]", timeout=120_000)
     _upload(page, SAMPLES / "quillfeather-rev-b.ifc", "quillfeather")
     # (the page's CSP forbids eval, so wait on elements rather than on a script)
-    page.locator("tr[data-status=done]").nth(1).wait_for(timeout=120_000)
-    rows = page.locator("#checks tbody tr")
+    page.locator("tr[data-status=finished]").nth(1).wait_for(timeout=120_000)
+    rows = page.locator("#submissions tbody tr")
     newest, oldest = rows.nth(0), rows.nth(1)
     assert "64 beams: 64 pass" in oldest.inner_text()
-    assert "regressions since the previous revision" in newest.inner_text()
+    assert "weakened since the previous revision" in newest.inner_text()
     page.screenshot(path=str(tmp_path / "page.png"), full_page=True)
 
     with page.expect_popup() as popup_info:

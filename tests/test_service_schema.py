@@ -74,10 +74,10 @@ def test_schema_documents_the_api():
     paths = SCHEMA["paths"]
     assert {
         "/api/v1/health",
-        "/api/v1/checks",
-        "/api/v1/checks/{id}",
-        "/api/v1/checks/{id}/files/{name}",
+        "/api/v1/submissions",
+        "/api/v1/submissions/{id}",
+        "/api/v1/submissions/{id}/files/{name}",
     } <= set(paths)
-    upload = paths["/api/v1/checks"]["post"]["requestBody"]["content"]["multipart/form-data"]
+    upload = paths["/api/v1/submissions"]["post"]["requestBody"]["content"]["multipart/form-data"]
     assert upload["schema"]["required"] == ["model"]
     assert "bearer" in str(SCHEMA["components"]["securitySchemes"]).lower()

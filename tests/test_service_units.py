@@ -124,13 +124,13 @@ def test_revisions_of_one_model_run_in_order(tmp_path):
     _add(store, "c1", "t", None)
     _add(store, "o1", "other", "tower")  # another token's model of the same name
     assert [j.id for j in store.eligible(10)] == ["a1", "b1", "c1", "o1"]
-    store.mark_running("a1")
+    store.mark_checking("a1")
     assert [j.id for j in store.eligible(10)] == ["b1", "c1", "o1"]
-    store.mark_done("a1", {"summary": {}, "files": []})
+    store.mark_finished("a1", {"summary": {}, "files": []})
     assert [j.id for j in store.eligible(10)] == ["a2", "b1", "c1", "o1"]
     a2 = store.job("a2")
-    assert store.previous_done(a2).id == "a1"
-    assert store.previous_done(store.job("o1")) is None
+    assert store.previous_finished(a2).id == "a1"
+    assert store.previous_finished(store.job("o1")) is None
     assert store.job("a2", "other") is None  # another token's job is not found
     assert [j.id for j in store.jobs("t", "tower")] == ["a2", "a1"]
     assert [j.id for j in store.jobs("t")] == ["c1", "b1", "a2", "a1"]
@@ -167,7 +167,7 @@ def _wait_until(predicate, timeout: float = 10.0) -> bool:
 
 
 def test_restart_takes_up_interrupted_jobs(tmp_path):
-    """Running jobs: complete files → done without a re-run; otherwise queued and run again."""
+    """Checking jobs: complete files → finished without a re-run; otherwise received again."""
     from ifccheck.service.core import Service
     from ifccheck.service.settings import ServiceConfig
 
@@ -175,8 +175,8 @@ def test_restart_takes_up_interrupted_jobs(tmp_path):
     for job_id in ("finished", "cut-off", "waiting"):
         _add(store, job_id, "t", None)
         (tmp_path / "jobs" / job_id / "input").mkdir(parents=True)
-    store.mark_running("finished")
-    store.mark_running("cut-off")
+    store.mark_checking("finished")
+    store.mark_checking("cut-off")
     out = tmp_path / "jobs" / "finished" / "out"
     out.mkdir()
     (out / "outcome.json").write_text('{"summary": {"pass": 1}, "files": ["results.json"]}')
@@ -191,7 +191,8 @@ def test_restart_takes_up_interrupted_jobs(tmp_path):
         assert _wait_until(lambda: len(runner.specs) == 2)
         assert sorted(s.job_id for s in runner.specs) == ["cut-off", "waiting"]
         done = service.store.job("finished")
-        assert done.status == "done" and service.status(done)["summary"] == {"pass": 1}
+        assert done.status == "finished" and service.status(done)["summary"] == {"pass": 1}
+        assert service.store.job("waiting").status == "checking"  # handed to the runner
         assert service.store.job("cut-off").attempts == 2
         assert not (tmp_path / "jobs" / "cut-off" / "tmp-0123").exists()
         spec = next(s for s in runner.specs if s.job_id == "cut-off")
@@ -219,3 +220,26 @@ def test_token_commands(tmp_path):
     assert gone.exit_code == 2 and "no active token" in gone.output
     bad = runner.invoke(main, ["serve", "--max-upload", "lots", "--data", data])
     assert bad.exit_code == 2 and "not a size" in bad.output
+
+
+def test_a_database_of_schema_1_takes_the_new_state_names(tmp_path):
+    """States queued/running/done/failed of schema version 1 become received/checking/..."""
+    import sqlite3
+
+    store = Store(tmp_path)
+    for job_id in ("q", "r", "d", "f"):
+        _add(store, job_id, "t", None)
+    store.close()
+    db = sqlite3.connect(tmp_path / "ifccheck.sqlite3")
+    for job_id, old in (("q", "queued"), ("r", "running"), ("d", "done"), ("f", "failed")):
+        db.execute("UPDATE jobs SET status = ? WHERE id = ?", (old, job_id))
+    db.execute("PRAGMA user_version=1")
+    db.commit()
+    db.close()
+    store = Store(tmp_path)
+    try:
+        states = {j: store.job(j).status for j in ("q", "r", "d", "f")}
+        assert states == {"q": "received", "r": "checking", "d": "finished", "f": "errored"}
+        assert store.counts() == {"received": 1, "checking": 1, "finished": 1, "errored": 1}
+    finally:
+        store.close()

@@ -81,11 +81,11 @@ def test_writeback_valid_complete_and_in_file_units(tmp_path, schema, unit):
     scale = ifcopenshell.util.unit.calculate_unit_scale(copy)  # metres per file unit
     g = rf.guids()
     b2 = _props(copy, g["b2"])
-    assert b2["Status"].NominalValue.wrappedValue == "fail"
-    assert b2["Status"].NominalValue.is_a("IfcLabel")
+    assert b2["Outcome"].NominalValue.wrappedValue == "fail"
+    assert b2["Outcome"].NominalValue.is_a("IfcLabel")
     assert b2["LimitState"].NominalValue.wrappedValue == "elastic_ltb"
-    assert b2["Ratio"].NominalValue.is_a("IfcRatioMeasure")
-    assert b2["Ratio"].NominalValue.wrappedValue == pytest.approx(result.beams[1].ratio)
+    assert b2["Utilisation"].NominalValue.is_a("IfcRatioMeasure")
+    assert b2["Utilisation"].NominalValue.wrappedValue == pytest.approx(result.beams[1].utilisation)
     assert b2["Cb"].NominalValue.is_a("IfcReal")
     lb = b2["UnbracedLength"].NominalValue
     assert lb.is_a("IfcLengthMeasure")
@@ -106,9 +106,9 @@ def test_writeback_valid_complete_and_in_file_units(tmp_path, schema, unit):
     for key in ("Standard", "Method", "ToolVersion"):
         assert b2[key].NominalValue.is_a("IfcLabel")
     b3 = _props(copy, g["b3"])
-    assert b3["Status"].NominalValue.wrappedValue == "not_checked"
+    assert b3["Outcome"].NominalValue.wrappedValue == "not_checked"
     assert "shape table" in b3["Reason"].NominalValue.wrappedValue
-    assert "Ratio" not in b3
+    assert "Utilisation" not in b3
     names = {p.Name for p in copy.by_type("IfcPropertySet")}
     assert not any(n.startswith("Pset_") for n in names - {"Pset_MaterialSteel"})
     # a beam of the model that is not in the result gets nothing
@@ -149,7 +149,41 @@ def test_writing_into_a_checked_copy_replaces_the_old_set(tmp_path):
     f = ifcopenshell.open(str(again))
     assert _validation_statements(f) == []
     props = _props(f, rf.guids()["b2"])  # asserts exactly one set of ours
-    assert props["Status"].NominalValue.wrappedValue == "fail"
+    assert props["Outcome"].NominalValue.wrappedValue == "fail"
+
+
+def test_a_set_of_the_earlier_name_is_replaced_not_doubled(tmp_path):
+    source = rf.write_model(tmp_path / "m.ifc")
+    first = ifcopenshell.open(str(write_checked_ifc(source, rf.check_result(), tmp_path / "a.ifc")))
+    for pset in first.by_type("IfcPropertySet"):
+        if pset.Name == PSET_NAME:
+            pset.Name = "ifccheck_BeamCheck"  # as results format 1 named it
+    first.write(str(tmp_path / "old.ifc"))
+    f = ifcopenshell.open(str(write_checked_ifc(tmp_path / "old.ifc", rf.check_result(),
+                                                tmp_path / "b.ifc")))  # fmt: skip
+    names = [p.Name for p in f.by_type("IfcPropertySet")]
+    assert "ifccheck_BeamCheck" not in names and names.count(PSET_NAME) == 4
+    assert _props(f, rf.guids()["b2"])["Outcome"].NominalValue.wrappedValue == "fail"
+
+
+def test_property_names_follow_the_json_names(tmp_path):
+    from ifccheck.report.json_out import beam_dict, segment_dict
+
+    source = rf.write_model(tmp_path / "m.ifc")
+    result = rf.check_result()
+    copy = ifcopenshell.open(str(write_checked_ifc(source, result, tmp_path / "c.ifc")))
+    b2 = result.beams[1]
+    props = _props(copy, b2.guid)
+    doc = {**segment_dict(b2.governing), **beam_dict(b2)}
+    for key in ("outcome", "utilisation", "controlling_limit", "load_combination",
+                "strength_utilisation", "flexure_utilisation", "shear_utilisation",
+                "deflection_utilisation", "reason_code", "limit_state"):  # fmt: skip
+        ifc_name = "".join(w.capitalize() for w in key.split("_"))
+        if doc[key] in (None, ""):
+            continue
+        value = props[ifc_name].NominalValue.wrappedValue
+        assert value == (pytest.approx(doc[key]) if isinstance(doc[key], float) else doc[key])
+    assert PSET_NAME == "ifccheck_SteelBeamAdequacy" and not PSET_NAME.startswith("Pset_")
 
 
 def test_refuses_to_overwrite_the_input(tmp_path):
@@ -168,7 +202,7 @@ def test_demo_models(tmp_path, sample):
     copy = _check_copy(source, tmp_path / "demo.checked.ifc", result)
     for b in result.beams:
         psets = ifcopenshell.util.element.get_psets(copy.by_guid(b.guid))
-        assert psets[PSET_NAME]["Status"] == b.status
+        assert psets[PSET_NAME]["Outcome"] == b.outcome
 
 
 def test_fast_copy_keeps_the_original_lines_and_matches_the_general_path(tmp_path):

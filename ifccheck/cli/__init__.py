@@ -1,7 +1,7 @@
 """Command-line interface: ``ifccheck check | diff | inspect | strength | serve | token``.
 
 Exit codes: 0 every checked beam passes, 1 a beam fails or cannot be checked
-(a regression for ``diff``), 2 bad input or usage, 3 internal error. Every
+(a weakened beam for ``diff``), 2 bad input or usage, 3 internal error. Every
 message is one line on stderr (``ifccheck: error: …``); set IFCCHECK_DEBUG=1
 to see the traceback of an internal error. Errors are mapped to exit codes
 here, by class, and nowhere else.

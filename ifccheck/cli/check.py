@@ -11,7 +11,7 @@ from typing import TYPE_CHECKING
 import click
 
 from ifccheck import CAUTION
-from ifccheck.report.display import DisplayUnits
+from ifccheck.report.display import DisplayUnits, utilisation_text
 from ifccheck.units import UnitSystem
 
 if TYPE_CHECKING:
@@ -99,18 +99,21 @@ def _summary_line(result: CheckResult, units: UnitSystem) -> str:
         f"{result.method}: {s['pass']} pass, {s['fail']} fail, {s['not_checked']} not checked"
     )
     worst = max(
-        (b for b in result.beams if b.ratio is not None), key=lambda b: b.ratio or 0.0, default=None
+        (b for b in result.beams if b.utilisation is not None),
+        key=lambda b: b.utilisation or 0.0,
+        default=None,
     )
     if worst is not None:
-        line += f"; highest ratio {worst.ratio:.2f} at {worst.name or worst.guid} ({worst.profile}"
+        u = utilisation_text(worst.utilisation)
+        line += f"; highest utilisation {u} at {worst.name or worst.guid} ({worst.profile}"
         gov = worst.governing
-        if worst.governing_check == "flexure" and gov is not None:
+        if worst.controlling_limit == "flexure" and gov is not None:
             line += (
                 f", {gov.limit_state.replace('_', ' ')} over Lb = {format_length(gov.lb, units)}, "
                 f"Mu = {format_moment(gov.moment_demand, units)}"
             )
-        elif worst.governing_check:
-            line += f", {worst.governing_check}"
+        elif worst.controlling_limit:
+            line += f", {worst.controlling_limit}"
         line += ")"
     return line
 
@@ -210,7 +213,7 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
 def diff(old_path, new_path, config, out_dir, units, method) -> None:
     """Compare two revisions: which beams lost bracing or support, or got worse.
 
-    Exit code 1 when any beam regressed, 0 when none did.
+    Exit code 1 when any beam was weakened, 0 when none was.
     """
     from ifccheck.check import run_check
     from ifccheck.diff import diff_results
@@ -224,20 +227,20 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     chosen = _units(units, model.length_unit)
     result = diff_results(old, new)
     written = write_diff_all(result, Path(out_dir), chosen)
-    regressions = result.regressions
+    weakened = result.weakened
     click.echo(
         f"{old.model.file} → {new.model.file}: {result.matched} beams matched, "
         f"{len(result.added)} added, {len(result.removed)} removed; "
-        f"{len(regressions)} regression(s)"
+        f"{len(weakened)} weakened"
     )
     du, names = DisplayUnits(chosen), diff_names(result)
-    for c in regressions:
+    for c in weakened:
         click.echo(f"  {c.name or c.guid} ({c.storey}): " + "; ".join(change_reasons(c, du, names)))
     for c in result.changes:
-        if c.severity == "changed":
+        if c.change == "changed":
             click.echo(f"warning: {c.name or c.guid}: " + "; ".join(change_reasons(c, du, names)),
                        err=True)  # fmt: skip
     files = ", ".join(p.name for p in written.values())
     click.echo(f"diff written to {Path(out_dir)}: {files}")
     click.echo(CAUTION)
-    sys.exit(1 if regressions else 0)
+    sys.exit(1 if weakened else 0)

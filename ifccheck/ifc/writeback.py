@@ -39,7 +39,10 @@ import ifcopenshell.util.unit
 from ifccheck.atomic import atomic_path
 from ifccheck.results import BeamResult, CheckResult
 
-PSET_NAME = "ifccheck_BeamCheck"
+PSET_NAME = "ifccheck_SteelBeamAdequacy"
+# the set's name before results format 2; a checked copy made then has it replaced, not doubled
+EARLIER_PSET_NAMES = frozenset({"ifccheck_BeamCheck"})
+_OWN_NAMES = EARLIER_PSET_NAMES | {PSET_NAME}
 
 # quantity kind → (IFC unit type, measure type, SI unit name for the explicit unit)
 _KINDS = {
@@ -90,7 +93,7 @@ class _Sink:
     def attributes(self, entity: str) -> tuple[list[str], tuple[bool, ...]]:
         """The entity's attribute names in schema order, and which are derived."""
         if entity not in self._attrs:
-            decl = self.schema.declaration_by_name(entity)
+            decl: Any = self.schema.declaration_by_name(entity)  # an entity declaration
             names = [a.name() for a in decl.all_attributes()]
             self._attrs[entity] = (names, tuple(decl.derived()))
         return self._attrs[entity]
@@ -210,7 +213,7 @@ class _TextSink(_Sink):
 
     def _is_real(self, type_name: str) -> bool:
         if type_name not in self._real_types:
-            decl = self.schema.declaration_by_name(type_name)
+            decl: Any = self.schema.declaration_by_name(type_name)  # a type declaration
             self._real_types[type_name] = "<real>" in str(decl.declared_type())
         return self._real_types[type_name]
 
@@ -278,6 +281,7 @@ class _Units:
                 )
             else:
                 unit_type, _, si_name = _KINDS[kind]
+                assert si_name is not None  # only the moment has no SI unit of its own
                 self._explicit[kind] = add(
                     "IfcSIUnit", UnitType=Enum(unit_type), Name=Enum(si_name)
                 )
@@ -309,33 +313,34 @@ class _PsetWriter:
         return self.sink.prop(name, description, Typed(measure, value), unit)
 
     def _quantity(self, name: str, kind: str, si: float | None, description=None):
-        if not _finite(si):
+        if si is None or not math.isfinite(si):
             return None
-        value = float(si) * self.units.scale[kind]
+        value = si * self.units.scale[kind]
         return self._prop(name, _KINDS[kind][1], value, self.units.explicit(kind), description)
 
     def properties(self, b: BeamResult) -> list[Any]:
         r = self.result
         label, text, ratio = "IfcLabel", "IfcText", "IfcRatioMeasure"
-        props: list[Any] = [self._prop("Status", label, b.status)]
+        props: list[Any] = [self._prop("Outcome", label, b.outcome)]
         if b.reason is not None:
             props.append(self._prop("Reason", text, b.reason.text))
             props.append(self._prop("ReasonCode", label, b.reason.code.value))
         for name, v in (
-            ("Ratio", b.ratio),
-            ("FlexureRatio", b.flexure_ratio),
-            ("ShearRatio", b.shear_ratio),
-            ("DeflectionRatio", b.deflection_ratio),
+            ("Utilisation", b.utilisation),
+            ("StrengthUtilisation", b.strength_utilisation),
+            ("FlexureUtilisation", b.flexure_utilisation),
+            ("ShearUtilisation", b.shear_utilisation),
+            ("DeflectionUtilisation", b.deflection_utilisation),
         ):
-            if _finite(v):
+            if v is not None and math.isfinite(v):
                 props.append(self._prop(name, ratio, float(v)))
-        if b.governing_check:
-            props.append(self._prop("GoverningCheck", label, b.governing_check))
+        if b.controlling_limit:
+            props.append(self._prop("ControllingLimit", label, b.controlling_limit))
         seg = b.governing
         if seg is not None:
             props.append(self._prop("LimitState", label, seg.limit_state))
-            if seg.combination:
-                props.append(self._prop("Combination", label, seg.combination))
+            if seg.load_combination:
+                props.append(self._prop("LoadCombination", label, seg.load_combination))
             props.append(self._prop("CompressionFlange", label, seg.flange))
             props.append(
                 self._quantity(
@@ -355,7 +360,7 @@ class _PsetWriter:
             props.append(self._quantity("Span", "length", b.span))
         scale = self.units.scale["length"]
         stations = sorted(p.station for p in b.brace_points if p.counts)
-        if b.status != "not_checked" or stations:
+        if b.outcome != "not_checked" or stations:
             props.append(
                 self._prop(
                     "BraceStations", text, " ".join(f"{s * scale:.6g}" for s in stations),
@@ -381,6 +386,7 @@ class _PsetWriter:
             pset, rel = existing
             if len(rel.RelatedObjects) == 1:
                 old = list(pset.HasProperties or [])
+                pset.Name = PSET_NAME
                 pset.HasProperties = props
                 for p in old:
                     self.f.remove(p)
@@ -391,7 +397,7 @@ class _PsetWriter:
             GlobalId=_stable_guid("pset", b.guid, self.result.checked_at),
             OwnerHistory=self.owner,
             Name=PSET_NAME,
-            Description="Beam check results written by ifccheck",
+            Description="Steel beam adequacy to the design standard, written by ifccheck",
             HasProperties=props,
         )
         self.sink.add(
@@ -409,7 +415,7 @@ def _own_pset(element: ifcopenshell.entity_instance):
         if not rel.is_a("IfcRelDefinesByProperties"):
             continue
         definition = rel.RelatingPropertyDefinition
-        if definition.is_a("IfcPropertySet") and definition.Name == PSET_NAME:
+        if definition.is_a("IfcPropertySet") and definition.Name in _OWN_NAMES:
             return definition, rel
     return None
 
@@ -498,7 +504,7 @@ def _data_end(raw: bytes) -> int | None:
 
 
 def _has_own_psets(f: ifcopenshell.file) -> bool:
-    return any(p.Name == PSET_NAME for p in f.by_type("IfcPropertySet"))
+    return any(p.Name in _OWN_NAMES for p in f.by_type("IfcPropertySet"))
 
 
 def _copy_with_lines(raw: bytes, at: int, lines: Sequence[str], path: Path) -> None:

@@ -1,7 +1,7 @@
 """BCF 2.1 issues for the modelling team: ``<stem>.issues.bcf`` and ``diff.bcf``.
 
 Written with the ``bcf-client`` package (import name ``bcf``). One topic per
-failing or not-checked beam (per regression in a diff), with the beam
+failing or not-checked beam (per weakened beam in a diff), with the beam
 selected in its viewpoint and a perspective camera looking down at the
 beam's midpoint at an angle. BCF coordinates are metres in the model's
 coordinate system, which is what the results carry. Topic and viewpoint
@@ -172,8 +172,10 @@ def _units(result: CheckResult, units: str | None) -> DisplayUnits:
 
 def issue_beams(result: CheckResult) -> list[BeamResult]:
     """The beams that get a topic: failing ones (worst first), then not-checked ones."""
-    fails = sorted((b for b in result.beams if b.status == "fail"), key=lambda b: -(b.ratio or 0.0))
-    return fails + [b for b in result.beams if b.status == "not_checked"]
+    fails = sorted(
+        (b for b in result.beams if b.outcome == "fail"), key=lambda b: -(b.utilisation or 0.0)
+    )
+    return fails + [b for b in result.beams if b.outcome == "not_checked"]
 
 
 def write_issues_bcf(result: CheckResult, path: Path, units: str | None = None) -> Path:
@@ -185,40 +187,40 @@ def write_issues_bcf(result: CheckResult, path: Path, units: str | None = None) 
     du = _units(result, units)
     bcf_file = _new_bcf(result.model.file)
     for b in issue_beams(result):
-        key = f"{result.model.sha256}|{b.guid}|{b.status}"
-        labels = [AUTHOR, b.status.replace("_", " ")]
+        key = f"{result.model.sha256}|{b.guid}|{b.outcome}"
+        labels = [AUTHOR, b.outcome.replace("_", " ")]
         seg = b.governing
         lines: list[tuple[Vec, Vec]] = []
-        if b.status == "fail":
-            if seg is not None and b.governing_check == "flexure":
+        if b.outcome == "fail":
+            if seg is not None and b.controlling_limit == "flexure":
                 labels.append(limit_state_words(seg.limit_state))
                 lines.append((_at(b, seg.start), _at(b, seg.end)))
                 mid = _at(b, segment_midpoint(seg))
                 lines.append((mid, (mid[0], mid[1], mid[2] + 1.0)))
-            elif b.governing_check:
-                labels.append(b.governing_check)
+            elif b.controlling_limit:
+                labels.append(b.controlling_limit)
         handler = _topic(
             bcf_file, key, beam_issue_title(b), beam_issue_description(b, du),
             result.checked_at,
-            "Error" if b.status == "fail" else "Request",
-            labels, "High" if b.status == "fail" else "Normal", result.model.file,
+            "Error" if b.outcome == "fail" else "Request",
+            labels, "High" if b.outcome == "fail" else "Normal", result.model.file,
         )  # fmt: skip
         handler.add_visinfo_handler(_viewpoint(b, key, bcf_file._xml_handler, lines))
     return _save(bcf_file, path)
 
 
 def write_diff_bcf(diff: DiffResult, path: Path, units: str | None = None) -> Path:
-    """Write ``diff.bcf``: a topic per regression, aimed at the beam in the new revision."""
+    """Write ``diff.bcf``: a topic per weakened beam, aimed at the beam in the new revision."""
     du = _units(diff.new, units)
     names = diff_names(diff)
     new_beams = {b.guid: b for b in diff.new.beams}
     bcf_file = _new_bcf(diff.new.model.file)
-    regressions: list[BeamChange] = sorted(
-        diff.regressions, key=lambda c: -((c.ratio_after or 0.0) - (c.ratio_before or 0.0))
+    weakened: list[BeamChange] = sorted(
+        diff.weakened, key=lambda c: -((c.utilisation_after or 0.0) - (c.utilisation_before or 0.0))
     )
-    for c in regressions:
+    for c in weakened:
         key = f"{diff.old.model.sha256}|{diff.new.model.sha256}|{c.guid}"
-        labels = [AUTHOR, "regression"]
+        labels = [AUTHOR, "weakened"]
         if c.lost_brace_points:
             labels.append("lost brace point")
         if c.lost_supports:

@@ -1,24 +1,30 @@
 """Colours for the report, chosen to stay readable for colour-blind readers.
 
-Utilisation uses a perceptually uniform sequential scale (dark blue-violet →
-green → yellow; stops of the published 'viridis' map, van der Walt & Smith,
-matplotlib 2.0, 2015), so order is carried by lightness, not by hue alone.
-Failure is shown by a dark casing around the line as well as by colour, not
-checked by a grey dashed line. Revision changes use the Okabe-Ito palette
-(Okabe & Ito, 'Color Universal Design', 2008).
+Utilisation is shown on a stepped scale of the project's own: four passing
+bands, light cyan to dark blue, ordered by lightness (CIELAB L* 84, 68, 52, 36)
+so that order survives any colour-vision deficiency, then a vermilion red for
+fail and a neutral grey for not checked. The hex values were set in CIELAB
+and are checked by ``tests/test_report_colours.py``: under simulated
+protanopia, deuteranopia and tritanopia (Machado, Oliveira & Fernandes 2009)
+adjacent bands stay at least ΔE00 10 apart and fail and not checked at least
+ΔE00 13 from every band. Failure is also shown by a dark casing and a label,
+not checked by a dashed line, so no reader depends on colour alone. Revision
+changes use the Okabe-Ito palette (Okabe & Ito, 'Color Universal Design', 2008).
 """
 
 from __future__ import annotations
 
-import functools
+import math
 
-# viridis at 0, 0.1, …, 1.0
-VIRIDIS = (
-    "#440154", "#482475", "#414487", "#355f8d", "#2a788e", "#21918c",
-    "#22a884", "#44bf70", "#7ad151", "#bddf26", "#fde725",
-)  # fmt: skip
-
-NOT_CHECKED = "#8c8c8c"
+# (upper utilisation of the band, colour, label): a beam at exactly the upper value is in the band
+UTILISATION_BANDS: tuple[tuple[float, str, str], ...] = (
+    (0.50, "#94dee0", "up to 0.50"),
+    (0.75, "#2cb5c9", "0.50 to 0.75"),
+    (0.90, "#0088b7", "0.75 to 0.90"),
+    (1.00, "#005798", "0.90 to 1.00"),
+)
+FAIL = "#ed492c"  # above 1.00
+NOT_CHECKED = "#969696"
 FAIL_CASING = "#1a1a1a"
 NEUTRAL = "#a0a0a0"
 
@@ -29,7 +35,7 @@ BLUISH_GREEN = "#009E73"
 REDDISH_PURPLE = "#CC79A7"
 ORANGE = "#E69F00"
 
-SEVERITY_COLOURS = {"regression": VERMILLION, "improvement": BLUE, "changed": REDDISH_PURPLE}
+CHANGE_COLOURS = {"weakened": VERMILLION, "strengthened": BLUE, "changed": REDDISH_PURPLE}
 
 
 def _rgb(hex_colour: str) -> tuple[int, int, int]:
@@ -37,22 +43,24 @@ def _rgb(hex_colour: str) -> tuple[int, int, int]:
     return int(h[0:2], 16), int(h[2:4], 16), int(h[4:6], 16)
 
 
-def ratio_colour(ratio: float | None) -> str:
-    """The scale colour of a utilisation ratio; 0 and below → first stop, 1 and above → last."""
-    if ratio is None or ratio != ratio:
+def utilisation_band(utilisation: float | None) -> int | None:
+    """Index of the band (0..3), 4 for fail, None for no value (not checked)."""
+    if utilisation is None or math.isnan(utilisation):
+        return None
+    for i, (upper, _colour, _label) in enumerate(UTILISATION_BANDS):
+        if utilisation <= upper:
+            return i
+    return len(UTILISATION_BANDS)
+
+
+def utilisation_colour(utilisation: float | None) -> str:
+    """The scale colour of a utilisation; fail above 1.00, grey for none."""
+    band = utilisation_band(utilisation)
+    if band is None:
         return NOT_CHECKED
-    # 1/1000 steps are finer than the eye can tell apart; the cache keeps big plans fast
-    return _scale_colour(round(min(max(ratio, 0.0), 1.0), 3))
-
-
-@functools.lru_cache(maxsize=1024)
-def _scale_colour(ratio: float) -> str:
-    t = ratio * (len(VIRIDIS) - 1)
-    i = min(int(t), len(VIRIDIS) - 2)
-    f = t - i
-    a, b = _rgb(VIRIDIS[i]), _rgb(VIRIDIS[i + 1])
-    r, g, bl = (round(x + (y - x) * f) for x, y in zip(a, b, strict=True))
-    return f"#{r:02x}{g:02x}{bl:02x}"
+    if band >= len(UTILISATION_BANDS):
+        return FAIL
+    return UTILISATION_BANDS[band][1]
 
 
 def text_colour_on(background: str) -> str:

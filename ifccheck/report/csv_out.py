@@ -2,8 +2,8 @@
 
 Dimensional columns carry their unit in the name (``lb_ft`` / ``lb_m``,
 ``moment_demand_kip_ft`` / ``moment_demand_kN_m``), values in the chosen
-unit system; ratios and Cb are plain numbers. Empty cells are values that do
-not exist (a not-checked beam has no ratio).
+unit system; utilisations and Cb are plain numbers. Empty cells are values that
+do not exist (a not-checked beam has no utilisation).
 """
 
 from __future__ import annotations
@@ -42,6 +42,13 @@ BEAM_COLUMNS: tuple[Column, ...] = (
     ("guid", None, lambda b: b.guid),
     ("name", None, lambda b: b.name),
     ("storey", None, lambda b: b.storey),
+    ("outcome", None, lambda b: b.outcome),
+    ("controlling_limit", None, lambda b: b.controlling_limit),
+    ("utilisation", None, lambda b: b.utilisation),
+    ("strength_utilisation", None, lambda b: b.strength_utilisation),
+    ("flexure_utilisation", None, lambda b: b.flexure_utilisation),
+    ("shear_utilisation", None, lambda b: b.shear_utilisation),
+    ("deflection_utilisation", None, lambda b: b.deflection_utilisation),
     ("ifc_class", None, lambda b: b.ifc_class),
     ("profile", None, lambda b: b.profile),
     ("grade", None, lambda b: b.grade),
@@ -53,20 +60,14 @@ BEAM_COLUMNS: tuple[Column, ...] = (
     ("lb", "length", _gov("lb")),
     ("cb", None, _gov("cb")),
     ("compression_flange", None, _gov("flange")),
+    ("limit_state", None, _gov("limit_state")),
     ("moment_demand", "moment", _gov("moment_demand")),
     ("moment_capacity", "moment", _gov("moment_capacity")),
-    ("limit_state", None, _gov("limit_state")),
-    ("combination", None, _gov("combination")),
+    ("load_combination", None, _gov("load_combination")),
     ("shear_demand", "force", lambda b: b.shear_demand),
     ("shear_capacity", "force", lambda b: b.shear_capacity),
     ("deflection_live", "deflection", lambda b: b.deflection_live),
     ("deflection_total", "deflection", lambda b: b.deflection_total),
-    ("flexure_ratio", None, lambda b: b.flexure_ratio),
-    ("shear_ratio", None, lambda b: b.shear_ratio),
-    ("deflection_ratio", None, lambda b: b.deflection_ratio),
-    ("ratio", None, lambda b: b.ratio),
-    ("governing_check", None, lambda b: b.governing_check),
-    ("status", None, lambda b: b.status),
     ("brace_stations", "length", _brace_stations),
     ("reason", None, lambda b: reason_text(b.reason)),
     ("reason_code", None, lambda b: reason_code(b.reason) or ""),
@@ -79,11 +80,11 @@ DIFF_COLUMNS: tuple[Column, ...] = (
     ("name", None, lambda c: c.name),
     ("storey", None, lambda c: c.storey),
     ("matched_by", None, lambda c: c.matched_by),
-    ("severity", None, lambda c: c.severity),
-    ("status_before", None, lambda c: c.status_before),
-    ("status_after", None, lambda c: c.status_after),
-    ("ratio_before", None, lambda c: c.ratio_before),
-    ("ratio_after", None, lambda c: c.ratio_after),
+    ("change", None, lambda c: c.change),
+    ("outcome_before", None, lambda c: c.outcome_before),
+    ("outcome_after", None, lambda c: c.outcome_after),
+    ("utilisation_before", None, lambda c: c.utilisation_before),
+    ("utilisation_after", None, lambda c: c.utilisation_after),
     ("lb_before", "length", lambda c: c.lb_before),
     ("lb_after", "length", lambda c: c.lb_after),
     ("lost_brace_points", "length", lambda c: c.lost_brace_points),
@@ -137,11 +138,9 @@ def beams_csv(result: CheckResult, units: str) -> str:
 
 
 def diff_csv(diff: DiffResult, units: str) -> str:
-    """The changed-beam table as CSV text, regressions first."""
-    order = {"regression": 0, "changed": 1, "improvement": 2}
-    changes: list[BeamChange] = sorted(
-        diff.changes, key=lambda c: (order.get(c.severity, 3), c.guid)
-    )
+    """The changed-beam table as CSV text, weakened beams first."""
+    order = {"weakened": 0, "changed": 1, "strengthened": 2}
+    changes: list[BeamChange] = sorted(diff.changes, key=lambda c: (order.get(c.change, 3), c.guid))
     du, names = DisplayUnits(check_system(units)), diff_names(diff)
     reasons: Column = ("reasons", None, lambda c: change_reasons(c, du, names))
     return _table(changes, (*DIFF_COLUMNS, reasons), units)

@@ -62,4 +62,18 @@ class DisplayUnits:
         return "–" if v is None else f"{v:.{digits}f}"
 
 
-__all__ = ["SYSTEMS", "DisplayUnits", "check_system", "system_for"]
+def utilisation_text(u: float | None, digits: int = 2) -> str:
+    """A utilisation for people, never rounded down across 1.00.
+
+    Rounded up to ``digits`` decimals, with one more decimal between 0.99 and
+    1.01, so that 1.001 reads "1.001" (a fail), not "1.00".
+    """
+    if u is None or not math.isfinite(u):
+        return "–"
+    if 0.99 < u <= 1.01:
+        digits += 1
+    scale = 10**digits
+    return f"{math.ceil(u * scale - 1e-9) / scale:.{digits}f}"
+
+
+__all__ = ["SYSTEMS", "DisplayUnits", "check_system", "system_for", "utilisation_text"]

@@ -3,7 +3,7 @@
 One self-contained page each: inline CSS and SVG, no scripts, no fonts or
 images from elsewhere, so it opens offline and can be mailed or archived as
 is. Per-beam detail sections are capped (every failing beam up to a limit,
-plus the highest-ratio others) and the page says how many are shown.
+plus the most highly utilised others) and the page says how many are shown.
 """
 
 from __future__ import annotations
@@ -17,8 +17,13 @@ from ifccheck import CAUTION
 from ifccheck.atomic import write_text
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import reason_text
-from ifccheck.report.colours import NOT_CHECKED, SEVERITY_COLOURS, ratio_colour, text_colour_on
-from ifccheck.report.display import DisplayUnits, check_system
+from ifccheck.report.colours import (
+    CHANGE_COLOURS,
+    NOT_CHECKED,
+    text_colour_on,
+    utilisation_colour,
+)
+from ifccheck.report.display import DisplayUnits, check_system, utilisation_text
 from ifccheck.report.json_out import diff_summary
 from ifccheck.report.svg import (
     attr,
@@ -38,7 +43,7 @@ from ifccheck.report.wording import (
 )
 from ifccheck.results import BeamResult, CheckResult, DiffResult, SlabOutline
 
-DETAIL_OTHERS = 200  # highest-ratio non-failing beams given a detail section
+DETAIL_OTHERS = 200  # most highly utilised non-failing beams given a detail section
 DETAIL_FAILS = 500  # failing beams given a detail section, at most (worst first)
 NO_STOREY = "(no storey)"
 
@@ -55,10 +60,10 @@ th,td{border:1px solid #d5d5d5;padding:3px 7px;text-align:left;vertical-align:to
 th{background:#f0f0f0}
 td.num{text-align:right;font-variant-numeric:tabular-nums}
 .caution{border-left:5px solid #444;background:#fff;padding:8px 12px;margin:1em 0}
-.status{display:inline-block;padding:0 6px;border-radius:3px;font-size:.9em}
-.status-fail{background:#1a1a1a;color:#fff}
-.status-pass{background:#e6e6e6}
-.status-not_checked{border:1px dashed #777}
+.outcome{display:inline-block;padding:0 6px;border-radius:3px;font-size:.9em}
+.outcome-fail{background:#1a1a1a;color:#fff}
+.outcome-pass{background:#e6e6e6}
+.outcome-not_checked{border:1px dashed #777}
 figure{margin:1em 0;background:#fff;border:1px solid #ddd;padding:8px;overflow-x:auto}
 figcaption{font-size:.9em;color:#444;margin-top:4px}
 svg{display:block;max-width:100%;height:auto}
@@ -69,7 +74,7 @@ tr.governing td{font-weight:600}
 .note{color:#555;font-size:.92em}
 .swatch{display:inline-block;width:.9em;height:.9em;margin-right:.35em;vertical-align:-.1em;
 border:1px solid #0003}
-td.ratio{white-space:nowrap}
+td.utilisation{white-space:nowrap}
 """
 
 
@@ -111,16 +116,17 @@ def _qty(du: DisplayUnits, v: float | None, kind: str, digits: int = 2) -> str:
     return f'<td class="num">{du.number(v, kind, digits)}</td>'
 
 
-def _status(status: str) -> str:
-    return f'<span class="status status-{attr(status)}">{escape(status.replace("_", " "))}</span>'
+def _outcome(outcome: str) -> str:
+    text = escape(outcome.replace("_", " "))
+    return f'<span class="outcome outcome-{attr(outcome)}">{text}</span>'
 
 
-def _ratio_cell(ratio: float | None) -> str:
-    if ratio is None:
+def _utilisation_cell(u: float | None) -> str:
+    if u is None:
         return '<td class="num">–</td>'
     return (
-        f'<td class="num ratio"><span class="swatch" style="background:{ratio_colour(ratio)}">'
-        f"</span>{ratio:.2f}</td>"
+        f'<td class="num utilisation"><span class="swatch" '
+        f'style="background:{utilisation_colour(u)}"></span>{utilisation_text(u)}</td>'
     )
 
 
@@ -142,19 +148,23 @@ def _strength_label(method: str) -> str:
     return "φMn" if method.upper() == "LRFD" else "Mn/Ω"
 
 
+def _most_utilised(b: BeamResult) -> float:
+    return -(b.utilisation or 0.0)
+
+
 def detail_beams(result: CheckResult) -> tuple[list[BeamResult], str]:
     """The beams given a detail section, and a sentence saying which they are."""
-    checked = [b for b in result.beams if b.status != "not_checked"]
-    fails = sorted((b for b in checked if b.status == "fail"), key=lambda b: -(b.ratio or 0))
-    others = sorted((b for b in checked if b.status != "fail"), key=lambda b: -(b.ratio or 0))
+    checked = [b for b in result.beams if b.outcome != "not_checked"]
+    fails = sorted((b for b in checked if b.outcome == "fail"), key=_most_utilised)
+    others = sorted((b for b in checked if b.outcome != "fail"), key=_most_utilised)
     shown_fails = fails[:DETAIL_FAILS]
     shown_others = others[:DETAIL_OTHERS]
     if len(shown_fails) == len(fails) and len(shown_others) == len(others):
-        note = f"Details of all {len(checked)} checked beams, highest ratio first."
+        note = f"Details of all {len(checked)} checked beams, most highly utilised first."
     else:
         note = (
             f"Details of {len(shown_fails)} of {len(fails)} failing beams and the "
-            f"{len(shown_others)} highest-ratio of the other {len(others)} checked beams; "
+            f"{len(shown_others)} most highly utilised of the other {len(others)} checked beams; "
             "the table above and the CSV and JSON results list every beam."
         )
     return shown_fails + shown_others, note
@@ -174,11 +184,11 @@ def _summary_section(result: CheckResult) -> str:
         ("Tool", escape(f"{result.tool} {result.version}")),
     ]
     counts = _table(
-        ["Status", "Beams"],
+        ["Outcome", "Beams"],
         [
-            [_status("pass"), _num(s["pass"], 0)],
-            [_status("fail"), _num(s["fail"], 0)],
-            [_status("not_checked"), _num(s["not_checked"], 0)],
+            [_outcome("pass"), _num(s["pass"], 0)],
+            [_outcome("fail"), _num(s["fail"], 0)],
+            [_outcome("not_checked"), _num(s["not_checked"], 0)],
             ["total", _num(s["total"], 0)],
         ],
         "counts",
@@ -220,7 +230,7 @@ def _plans_section(
 
 def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
     order = {"fail": 0, "pass": 1, "not_checked": 2}
-    beams = sorted(result.beams, key=lambda b: (order[b.status], -(b.ratio or 0.0), b.name))
+    beams = sorted(result.beams, key=lambda b: (order[b.outcome], -(b.utilisation or 0.0), b.name))
     strength = _strength_label(result.method)
     rows = []
     for b in beams:
@@ -229,20 +239,20 @@ def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
         if b.guid in linked:
             name = f'<a href="#beam-{attr(b.guid)}">{name}</a>'
         rows.append([
-            name, escape(b.storey), escape(b.profile), _status(b.status), _ratio_cell(b.ratio),
-            escape(b.governing_check),
+            name, escape(b.storey), escape(b.profile), _outcome(b.outcome),
+            _utilisation_cell(b.utilisation), escape(b.controlling_limit),
             _qty(du, seg.lb if seg else None, "length"), _num(seg.cb if seg else None),
             escape(limit_state_words(seg.limit_state)) if seg else "",
             _qty(du, seg.moment_demand if seg else None, "moment", 1),
             _qty(du, seg.moment_capacity if seg else None, "moment", 1),
         ])  # fmt: skip
     head = [
-        "Beam", "Storey", "Profile", "Status", "Ratio", "Governs",
+        "Beam", "Storey", "Profile", "Outcome", "Utilisation", "Controlling limit",
         f"Lb ({du.label('length')})", "Cb", "Limit state",
         f"Moment ({du.label('moment')})", f"{strength} ({du.label('moment')})",
     ]  # fmt: skip
     return (
-        '<section id="beams"><h2>Beams</h2><p>Every beam, failing first, then by ratio. '
+        '<section id="beams"><h2>Beams</h2><p>Every beam, failing first, then by utilisation. '
         "Lb, Cb and moments are those of the governing unbraced segment.</p>"
         + _table(head, rows, "beams")
         + "</section>"
@@ -250,7 +260,7 @@ def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
 
 
 def _not_checked_section(result: CheckResult) -> str:
-    beams = [b for b in result.beams if b.status == "not_checked"]
+    beams = [b for b in result.beams if b.outcome == "not_checked"]
     if not beams:
         return ""
     rows = [
@@ -301,19 +311,20 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str) -> str:
     strength = _strength_label(method)
     out = [f'<article class="beam" id="beam-{attr(b.guid)}">']
     out.append(
-        f"<h3>{escape(b.name or b.guid)} {_status(b.status)}</h3>"
+        f"<h3>{escape(b.name or b.guid)} {_outcome(b.outcome)}</h3>"
         f'<p class="note">{escape(b.profile)} · {escape(b.grade)} · {escape(b.storey)} · '
         f"<code>{escape(b.guid)}</code></p>"
     )
     facts = _table(
-        [f"Span ({du.label('length')})", f"Fy ({du.label('stress')})", "Ratio",
-         "Flexure ratio", "Shear ratio", "Deflection ratio", "Governs"],
-        [[_qty(du, b.span, "length"), _qty(du, b.fy, "stress", 1), _ratio_cell(b.ratio),
-          _num(b.flexure_ratio), _num(b.shear_ratio), _num(b.deflection_ratio),
-          escape(b.governing_check)]],
+        [f"Span ({du.label('length')})", f"Fy ({du.label('stress')})", "Utilisation",
+         "Strength", "Flexure", "Shear", "Deflection", "Controlling limit"],
+        [[_qty(du, b.span, "length"), _qty(du, b.fy, "stress", 1),
+          _utilisation_cell(b.utilisation), _utilisation_cell(b.strength_utilisation),
+          _utilisation_cell(b.flexure_utilisation), _utilisation_cell(b.shear_utilisation),
+          _utilisation_cell(b.deflection_utilisation), escape(b.controlling_limit)]],
     )  # fmt: skip
     out.append(facts)
-    if b.status == "fail":
+    if b.outcome == "fail":
         out.append(f'<p class="fix">{escape(fix_words(b, du))}</p>')
     rows = []
     for i, s in enumerate(b.segments):
@@ -322,15 +333,16 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str) -> str:
             _qty(du, s.lb, "length"), _num(s.cb),
             escape(s.flange + (" (slab)" if s.continuous else "")),
             _qty(du, s.moment_demand, "moment", 1), _qty(du, s.moment_capacity, "moment", 1),
-            _ratio_cell(s.ratio), escape(limit_state_words(s.limit_state)), escape(s.combination),
+            _utilisation_cell(s.utilisation), escape(limit_state_words(s.limit_state)),
+            escape(s.load_combination),
         ]  # fmt: skip
         rows.append(cells)
     if rows:
         head = [
             "#", f"From ({du.label('length')})", f"To ({du.label('length')})",
             f"Lb ({du.label('length')})", "Cb", "Compression flange",
-            f"Moment ({du.label('moment')})", f"{strength} ({du.label('moment')})", "Ratio",
-            "Limit state", "Combination",
+            f"Moment ({du.label('moment')})", f"{strength} ({du.label('moment')})", "Utilisation",
+            "Limit state", "Load combination",
         ]  # fmt: skip
         table = _table(head, rows, "segments", marked=b.governing_segment)
         out.append("<h4>Unbraced segments</h4>" + table)
@@ -382,9 +394,10 @@ def report_html(result: CheckResult, units: str) -> str:
         return check_plan_svg(beams, slabs, du, linked, f"Plan of {name}")
 
     intro = (
-        "Beams coloured by their ratio (demand over strength); failing beams have a dark "
-        "casing and a label, beams not checked are grey and dashed. Dots are brace points, "
-        "hollow where a brace does not count; blue bands mark lengths braced by a slab. "
+        "Beams coloured by their utilisation (demand over strength) in steps; failing beams "
+        "are red with a dark casing and a label, beams not checked are grey and dashed. "
+        "Dots are brace points, hollow where a brace does not count; blue bands mark "
+        "lengths braced by a slab. "
         "Select a beam for its details."
     )
     sections = [
@@ -421,10 +434,10 @@ def _diff_summary_section(diff: DiffResult) -> str:
     ]
     counts = [
         ["Beams matched", _num(s["matched"], 0)],
-        ["Worse (regressions)", _num(s["regressions"], 0)],
+        ["Weakened", _num(s["weakened"], 0)],
         ["New failures", _num(s["new_failures"], 0)],
-        ["Better", _num(s["improvements"], 0)],
-        ["Otherwise changed", _num(s["other_changes"], 0)],
+        ["Strengthened", _num(s["strengthened"], 0)],
+        ["Changed otherwise", _num(s["otherwise_changed"], 0)],
         ["Added beams", _num(s["added"], 0)],
         ["Removed beams", _num(s["removed"], 0)],
     ]
@@ -438,23 +451,23 @@ def _diff_summary_section(diff: DiffResult) -> str:
     )
 
 
-def _severity(sev: str) -> str:
-    colour = SEVERITY_COLOURS.get(sev, NOT_CHECKED)
+def _change(change: str) -> str:
+    colour = CHANGE_COLOURS.get(change, NOT_CHECKED)
     return (
-        f'<span class="status" style="background:{colour};color:{text_colour_on(colour)}">'
-        f"{escape(sev)}</span>"
+        f'<span class="outcome" style="background:{colour};color:{text_colour_on(colour)}">'
+        f"{escape(change)}</span>"
     )
 
 
 def _changes_section(diff: DiffResult, du: DisplayUnits) -> str:
-    order = {"regression": 0, "changed": 1, "improvement": 2}
-    changes = sorted(diff.changes, key=lambda c: (order.get(c.severity, 3), c.storey, c.name))
+    order = {"weakened": 0, "changed": 1, "strengthened": 2}
+    changes = sorted(diff.changes, key=lambda c: (order.get(c.change, 3), c.storey, c.name))
     names = diff_names(diff)
     stations = lambda xs: escape(", ".join(du.number(s, "length") for s in xs))  # noqa: E731
     rows = [
-        [escape(c.name or c.guid), escape(c.storey), _severity(c.severity),
-         escape(f"{c.status_before or '–'} → {c.status_after or '–'}"),
-         _num(c.ratio_before), _num(c.ratio_after),
+        [escape(c.name or c.guid), escape(c.storey), _change(c.change),
+         escape(f"{c.outcome_before or '–'} → {c.outcome_after or '–'}"),
+         _utilisation_cell(c.utilisation_before), _utilisation_cell(c.utilisation_after),
          _qty(du, c.lb_before, "length"), _qty(du, c.lb_after, "length"),
          stations(c.lost_brace_points), stations(c.added_brace_points),
          escape("; ".join(change_reasons(c, du, names)))]
@@ -462,7 +475,8 @@ def _changes_section(diff: DiffResult, du: DisplayUnits) -> str:
     ]  # fmt: skip
     lu = du.label("length")
     head = [
-        "Beam", "Storey", "Change", "Status", "Ratio before", "Ratio after", f"Lb before ({lu})",
+        "Beam", "Storey", "Change", "Outcome", "Utilisation before", "Utilisation after",
+        f"Lb before ({lu})",
         f"Lb after ({lu})", f"Lost brace points ({lu})", f"Added brace points ({lu})", "Why",
     ]  # fmt: skip
     return (
@@ -482,11 +496,11 @@ def _added_removed_section(diff: DiffResult) -> str:
             b = beams.get(g)
             out.append([
                 escape(b.name if b else ""), escape(b.storey if b else ""),
-                _status(b.status) if b else "", f"<code>{escape(g)}</code>",
+                _outcome(b.outcome) if b else "", f"<code>{escape(g)}</code>",
             ])  # fmt: skip
         return out
 
-    head = ["Beam", "Storey", "Status", "GUID"]
+    head = ["Beam", "Storey", "Outcome", "GUID"]
     return (
         '<section id="added-removed"><h2>Added and removed beams</h2>'
         f"<h3>Added ({len(diff.added)})</h3>"
@@ -518,8 +532,8 @@ def diff_html(diff: DiffResult, units: str) -> str:
         )  # fmt: skip
 
     intro = (
-        "The new revision's framing. Worse beams are drawn thick with a dark casing and "
-        "labelled with their new ratio; a cross marks each brace point lost, at its station. "
+        "The new revision's framing. Weakened beams are drawn thick with a dark casing and "
+        "labelled with their new utilisation; a cross marks each brace point lost, at its station. "
         "Removed beams are dotted where they were."
     )
     storeys = list({n: z for n, z in [*diff.old.storeys, *diff.new.storeys]}.items())

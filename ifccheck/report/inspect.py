@@ -95,15 +95,15 @@ def demand_dict(bd: BeamDemand) -> dict[str, Any]:
         "tributary_left": bd.tributary_left,
         "tributary_right": bd.tributary_right,
         "line_loads": [
-            {"case": x.case, "w": x.w, "start": x.start, "end": x.end, "source": x.source}
+            {"case": x.case, "intensity": x.w, "start": x.start, "end": x.end, "source": x.source}
             for x in bd.line_loads
         ],
         "point_loads": [
-            {"case": x.case, "P": x.P, "station": x.station, "from": x.source}
+            {"case": x.case, "force": x.P, "station": x.station, "source": x.source}
             for x in bd.point_loads
         ],
-        "governing_combination": bd.governing_moment or None,
-        "governing_shear_combination": bd.governing_shear or None,
+        "moment_combination": bd.governing_moment or None,
+        "shear_combination": bd.governing_shear or None,
         "max_moment": bd.max_moment,
         "max_shear": bd.max_shear,
         "reason": bd.reason.text if bd.reason else None,

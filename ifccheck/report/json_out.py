@@ -34,7 +34,7 @@ from ifccheck.results import (
 
 RESULTS_FORMAT = "ifccheck.results"
 DIFF_FORMAT = "ifccheck.diff"
-FORMAT_VERSION = 1
+FORMAT_VERSION = 2
 
 UNITS = {
     "length": "m",
@@ -42,7 +42,7 @@ UNITS = {
     "moment": "N·m",
     "stress": "Pa",
     "line_load": "N/m",
-    "ratio": "1",
+    "utilisation": "1",
 }
 
 SCHEMA_DIR = Path(__file__).resolve().parent.parent / "schemas"
@@ -96,9 +96,9 @@ def segment_dict(s: SegmentResult) -> dict[str, Any]:
         "moment_demand": num(s.moment_demand),
         "moment_capacity": num(s.moment_capacity),
         "nominal_moment": num(s.nominal_moment),
-        "ratio": num(s.ratio),
+        "utilisation": num(s.utilisation),
         "limit_state": s.limit_state,
-        "combination": s.combination,
+        "load_combination": s.load_combination,
         "braced_by": list(s.braced_by),
     }
 
@@ -168,18 +168,19 @@ def beam_dict(b: BeamResult, detail: bool = False) -> dict[str, Any]:
         "continuous_bracing": [{"start": num(s), "end": num(e)} for s, e in b.continuous_bracing],
         "segments": [segment_dict(s) for s in b.segments],
         "governing_segment": b.governing_segment,
-        "governing_check": b.governing_check,
-        "flexure_ratio": num(b.flexure_ratio),
+        "outcome": b.outcome,
+        "utilisation": num(b.utilisation),
+        "controlling_limit": b.controlling_limit,
+        "strength_utilisation": num(b.strength_utilisation),
+        "flexure_utilisation": num(b.flexure_utilisation),
         "shear_demand": num(b.shear_demand),
         "shear_capacity": num(b.shear_capacity),
-        "shear_ratio": num(b.shear_ratio),
+        "shear_utilisation": num(b.shear_utilisation),
         "deflection_live": num(b.deflection_live),
         "deflection_total": num(b.deflection_total),
         "deflection_live_limit": num(b.deflection_live_limit),
         "deflection_total_limit": num(b.deflection_total_limit),
-        "deflection_ratio": num(b.deflection_ratio),
-        "ratio": num(b.ratio),
-        "status": b.status,
+        "deflection_utilisation": num(b.deflection_utilisation),
         "reason": reason_text(b.reason),
         "reason_code": reason_code(b.reason),
         "notes": list(b.notes),
@@ -249,11 +250,11 @@ def change_dict(
         "name": c.name,
         "storey": c.storey,
         "matched_by": c.matched_by,
-        "severity": c.severity,
-        "status_before": c.status_before,
-        "status_after": c.status_after,
-        "ratio_before": num(c.ratio_before),
-        "ratio_after": num(c.ratio_after),
+        "change": c.change,
+        "outcome_before": c.outcome_before,
+        "outcome_after": c.outcome_after,
+        "utilisation_before": num(c.utilisation_before),
+        "utilisation_after": num(c.utilisation_after),
         "lb_before": num(c.lb_before),
         "lb_after": num(c.lb_after),
         "lost_brace_points": [num(s) for s in c.lost_brace_points],
@@ -294,22 +295,22 @@ def _revision(r: CheckResult) -> dict[str, Any]:
 
 
 def diff_summary(diff: DiffResult) -> dict[str, int]:
-    sev = Counter(c.severity for c in diff.changes)
+    kinds = Counter(c.change for c in diff.changes)
     return {
         "matched": diff.matched,
         "changed": len(diff.changes),
-        "regressions": sev["regression"],
-        "improvements": sev["improvement"],
-        "other_changes": sev["changed"],
+        "weakened": kinds["weakened"],
+        "strengthened": kinds["strengthened"],
+        "otherwise_changed": kinds["changed"],
         "added": len(diff.added),
         "removed": len(diff.removed),
         "new_failures": sum(
-            1 for c in diff.changes if c.status_after == "fail" and c.status_before != "fail"
+            1 for c in diff.changes if c.outcome_after == "fail" and c.outcome_before != "fail"
         ),
     }
 
 
-_SEVERITY_ORDER = {"regression": 0, "changed": 1, "improvement": 2}
+_CHANGE_ORDER = {"weakened": 0, "changed": 1, "strengthened": 2}
 
 
 def diff_document(diff: DiffResult, units: str | None = None) -> dict[str, Any]:
@@ -320,7 +321,7 @@ def diff_document(diff: DiffResult, units: str | None = None) -> dict[str, Any]:
     """
     du = DisplayUnits.for_model(diff.new.model.length_unit, units)
     names = diff_names(diff)
-    changes = sorted(diff.changes, key=lambda c: (_SEVERITY_ORDER.get(c.severity, 3), c.guid))
+    changes = sorted(diff.changes, key=lambda c: (_CHANGE_ORDER.get(c.change, 3), c.guid))
     return {
         "format": DIFF_FORMAT,
         "format_version": FORMAT_VERSION,

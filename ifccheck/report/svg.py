@@ -16,14 +16,15 @@ from html import escape
 from ifccheck.report.colours import (
     BLUE,
     BLUISH_GREEN,
+    CHANGE_COLOURS,
+    FAIL,
     FAIL_CASING,
     NEUTRAL,
     NOT_CHECKED,
-    SEVERITY_COLOURS,
-    VIRIDIS,
-    ratio_colour,
+    UTILISATION_BANDS,
+    utilisation_colour,
 )
-from ifccheck.report.display import DisplayUnits
+from ifccheck.report.display import DisplayUnits, utilisation_text
 from ifccheck.results import BeamChange, BeamResult, SlabOutline
 
 Point2 = tuple[float, float]
@@ -88,7 +89,7 @@ def _slabs_svg(frame: Frame, slabs: Sequence[SlabOutline]) -> list[str]:
     for s in slabs:
         d = " ".join(_ring_path(frame, r) for r in [s.exterior, *s.holes])
         out.append(
-            f'<path class="slab" data-slab="{attr(s.guid)}" d="{d}" fill="#ececec" '
+            f'<path class="slab" data-slab="{attr(s.guid)}" d="{d}" fill="#f4f4f4" '
             f'fill-rule="evenodd" stroke="#b5b5b5" stroke-width="1"/>'
         )
     return out
@@ -122,9 +123,9 @@ def _brace_marks(frame: Frame, b: BeamResult) -> list[str]:
 
 
 def beam_tooltip(b: BeamResult, du: DisplayUnits) -> str:
-    parts = [b.name or b.guid, b.profile, b.status.replace("_", " ")]
-    if b.ratio is not None:
-        parts.append(f"ratio {b.ratio:.2f}")
+    parts = [b.name or b.guid, b.profile, b.outcome.replace("_", " ")]
+    if b.utilisation is not None:
+        parts.append(f"utilisation {utilisation_text(b.utilisation)}")
     seg = b.governing
     if seg is not None:
         parts.append(f"Lb {du.text(seg.lb, 'length')}")
@@ -137,7 +138,7 @@ def check_plan_svg(
     beams: Sequence[BeamResult], slabs: Sequence[SlabOutline], du: DisplayUnits,
     linked: set[str], title: str,
 ) -> str:  # fmt: skip
-    """One storey: slabs, slab-braced bands, beams coloured by ratio, brace points, labels."""
+    """One storey: slabs, slab-braced bands, beams coloured by utilisation, brace points, labels."""
     pts: list[Point2] = [(b.start[0], b.start[1]) for b in beams]
     pts += [(b.end[0], b.end[1]) for b in beams]
     pts += [(p[0], p[1]) for s in slabs for p in s.exterior]
@@ -154,21 +155,27 @@ def check_plan_svg(
                     'stroke-width="11" stroke-linecap="butt"',
                 )
             )  # fmt: skip
-        if b.status == "fail":
+        if b.outcome == "fail":
             casings.append(
                 _line(frame, a, e, f'class="fail-casing" stroke="{FAIL_CASING}" '
                       'stroke-width="8" stroke-linecap="round"')
             )  # fmt: skip
-            labels.append(_label(frame, b, f"{b.name or b.guid} {b.ratio or 0:.2f}"))
-        if b.status == "not_checked":
+            labels.append(_label(frame, b, f"{b.name or b.guid} {utilisation_text(b.utilisation)}"))
+        elif b.outcome != "not_checked":
+            casings.append(
+                _line(frame, a, e, 'class="outline" stroke="#4d4d4d" stroke-width="5" '
+                      'stroke-linecap="round"')
+            )  # fmt: skip
+        if b.outcome == "not_checked":
             style = f'stroke="{NOT_CHECKED}" stroke-width="2.5" stroke-dasharray="6 4"'
         else:
-            style = f'stroke="{ratio_colour(b.ratio)}" stroke-width="3.5" stroke-linecap="round"'
-        ratio = "" if b.ratio is None else f' data-ratio="{b.ratio:.3f}"'
+            colour = utilisation_colour(b.utilisation)
+            style = f'stroke="{colour}" stroke-width="3.5" stroke-linecap="round"'
+        u = "" if b.utilisation is None else f' data-utilisation="{b.utilisation:.3f}"'
         shape = _line(
             frame, a, e,
-            f'class="beam st-{b.status}" data-guid="{attr(b.guid)}" '
-            f'data-status="{b.status}"{ratio} {style}',
+            f'class="beam oc-{b.outcome}" data-guid="{attr(b.guid)}" '
+            f'data-outcome="{b.outcome}"{u} {style}',
         )  # fmt: skip
         shape = shape[:-2] + f"><title>{escape(beam_tooltip(b, du))}</title></line>"
         if b.guid in linked:
@@ -188,30 +195,30 @@ def _svg(width: float, height: float, title: str, body: Sequence[str], cls: str)
 
 
 def check_legend_svg() -> str:
-    """Legend: ratio scale, failing, not checked, brace points, slab bracing."""
+    """Legend: the utilisation bands, fail, not checked, brace points, slab bracing."""
     body = []
-    n = 50
-    x0, w = 10.0, 260.0
-    for i in range(n):
+    x0, w = 10.0, 56.0
+    for i, (_upper, colour, label) in enumerate(UTILISATION_BANDS):
+        x = x0 + i * w
         body.append(
-            f'<rect x="{_f(x0 + w * i / n)}" y="8" width="{_f(w / n + 0.6)}" height="12" '
-            f'fill="{ratio_colour(i / (n - 1))}"/>'
+            f'<rect x="{_f(x)}" y="8" width="{_f(w - 2)}" height="12" fill="{colour}" '
+            'stroke="#4d4d4d" stroke-width="0.8"/>'
+            f'<text x="{_f(x + (w - 2) / 2)}" y="34" font-size="10" '
+            f'text-anchor="middle">{escape(label)}</text>'
         )
-    for t in (0.0, 0.25, 0.5, 0.75, 1.0):
-        x = x0 + w * t
-        body.append(f'<line x1="{_f(x)}" y1="20" x2="{_f(x)}" y2="25" stroke="#333"/>')
-        body.append(f'<text x="{_f(x)}" y="36" font-size="11" text-anchor="middle">{t:g}</text>')
-    body.append('<text x="10" y="52" font-size="11">ratio (demand / strength)</text>')
-    x = 300.0
+    x = x0 + len(UTILISATION_BANDS) * w
     body.append(
-        f'<line x1="{x}" y1="14" x2="{x + 40}" y2="14" stroke="{FAIL_CASING}" stroke-width="8" '
-        f'stroke-linecap="round"/><line x1="{x}" y1="14" x2="{x + 40}" y2="14" '
-        f'stroke="{VIRIDIS[-1]}" stroke-width="3.5" stroke-linecap="round"/>'
-        f'<text x="{x + 50}" y="18" font-size="11">fails (ratio above 1), labelled</text>'
+        f'<rect x="{_f(x)}" y="8" width="{_f(w - 2)}" height="12" fill="{FAIL}" '
+        f'stroke="{FAIL_CASING}" stroke-width="2"/>'
+        f'<text x="{_f(x + (w - 2) / 2)}" y="34" font-size="10" text-anchor="middle">'
+        "above 1.00</text>"
     )
+    body.append('<text x="10" y="52" font-size="11">utilisation (demand / strength); '
+                "failing beams have a dark casing and a label</text>")  # fmt: skip
+    x = 320.0
     body.append(
-        f'<line x1="{x}" y1="38" x2="{x + 40}" y2="38" stroke="{NOT_CHECKED}" stroke-width="2.5" '
-        f'stroke-dasharray="6 4"/><text x="{x + 50}" y="42" font-size="11">not checked</text>'
+        f'<line x1="{x}" y1="14" x2="{x + 40}" y2="14" stroke="{NOT_CHECKED}" stroke-width="2.5" '
+        f'stroke-dasharray="6 4"/><text x="{x + 50}" y="18" font-size="11">not checked</text>'
     )
     x = 540.0
     body.append(
@@ -224,7 +231,7 @@ def check_legend_svg() -> str:
     body.append(
         f'<line x1="{x}" y1="14" x2="{x + 36}" y2="14" stroke="#6a9fc0" stroke-opacity="0.45" '
         f'stroke-width="11"/><text x="{x + 44}" y="18" font-size="11">slab-braced length</text>'
-        f'<rect x="{x}" y="31" width="36" height="14" fill="#ececec" stroke="#b5b5b5"/>'
+        f'<rect x="{x}" y="31" width="36" height="14" fill="#f4f4f4" stroke="#b5b5b5"/>'
         f'<text x="{x + 44}" y="42" font-size="11">slab</text>'
     )
     return _svg(960, 60, "Legend", body, "legend")
@@ -263,17 +270,18 @@ def diff_plan_svg(
         a, e = (b.start[0], b.start[1]), (b.end[0], b.end[1])
         c = changes.get(b.guid)
         if c is not None:
-            colour = SEVERITY_COLOURS.get(c.severity, SEVERITY_COLOURS["changed"])
-            if c.severity == "regression":
+            colour = CHANGE_COLOURS.get(c.change, CHANGE_COLOURS["changed"])
+            if c.change == "weakened":
                 casings.append(
-                    _line(frame, a, e, f'class="regression-casing" stroke="{FAIL_CASING}" '
+                    _line(frame, a, e, f'class="weakened-casing" stroke="{FAIL_CASING}" '
                           'stroke-width="9" stroke-linecap="round"')
                 )  # fmt: skip
-                ratio = "" if c.ratio_after is None else f" {c.ratio_after:.2f}"
-                labels.append(_label(frame, b, f"{b.name or b.guid}{ratio}"))
+                after = c.utilisation_after
+                u = "" if after is None else f" {utilisation_text(after)}"
+                labels.append(_label(frame, b, f"{b.name or b.guid}{u}"))
             style = f'stroke="{colour}" stroke-width="4" stroke-linecap="round"'
-            state: str = c.severity
-            tip = f"{b.name or b.guid}: {c.severity}"
+            state: str = c.change
+            tip = f"{b.name or b.guid}: {c.change}"
             for s in c.lost_brace_points:
                 marks.append(_cross(*frame.px(*_along(b, s))))
             for s in c.added_brace_points:
@@ -300,9 +308,9 @@ def diff_plan_svg(
 def diff_legend_svg() -> str:
     body = []
     items = [
-        (f'stroke="{SEVERITY_COLOURS["regression"]}" stroke-width="4"', "worse (regression)", True),
-        (f'stroke="{SEVERITY_COLOURS["improvement"]}" stroke-width="4"', "better", False),
-        (f'stroke="{SEVERITY_COLOURS["changed"]}" stroke-width="4"', "changed", False),
+        (f'stroke="{CHANGE_COLOURS["weakened"]}" stroke-width="4"', "weakened", True),
+        (f'stroke="{CHANGE_COLOURS["strengthened"]}" stroke-width="4"', "strengthened", False),
+        (f'stroke="{CHANGE_COLOURS["changed"]}" stroke-width="4"', "changed otherwise", False),
         (f'stroke="{BLUISH_GREEN}" stroke-width="3" stroke-dasharray="8 3"', "added", False),
         (f'stroke="{NEUTRAL}" stroke-width="2" stroke-dasharray="2 4"', "removed", False),
         (f'stroke="{NEUTRAL}" stroke-width="2"', "unchanged", False),
@@ -439,7 +447,8 @@ def moment_diagram_svg(b: BeamResult, du: DisplayUnits) -> str | None:
         + " ".join(f"L{_f(x)} {_f(y)}" for x, y in pts)
         + f" L{_f(pts[-1][0])} {_f(y_zero)} Z"
     )
-    body.append(f'<path d="{area}" fill="{ratio_colour(0.35)}" fill-opacity="0.18" stroke="none"/>')
+    body.append(f'<path d="{area}" fill="{UTILISATION_BANDS[2][1]}" fill-opacity="0.18" '
+                'stroke="none"/>')  # fmt: skip
     body.append(
         '<polyline class="moment" fill="none" stroke="#2b2b2b" stroke-width="1.8" points="'
         + " ".join(f"{_f(x)},{_f(y)}" for x, y in pts)
@@ -496,7 +505,7 @@ def strength_curve_svg(b: BeamResult, du: DisplayUnits, method: str) -> str | No
             f'<line x1="{_f(x)}" y1="{_f(yb)}" x2="{_f(x)}" y2="{_f(y)}" stroke="#555" '
             'stroke-dasharray="4 3"/>'
         )
-        if gov.ratio > 1.0:
+        if gov.utilisation > 1.0:
             body.append(_cross(x, y, 6, "segment-mark"))
         else:
             body.append(
@@ -504,6 +513,7 @@ def strength_curve_svg(b: BeamResult, du: DisplayUnits, method: str) -> str | No
             )
         body.append(
             f'<text x="{_f(x + 8)}" y="{_f(y - 8)}" font-size="11" stroke="#fff" '
-            f'stroke-width="3" paint-order="stroke">governing segment: ratio {gov.ratio:.2f}</text>'
+            f'stroke-width="3" paint-order="stroke">governing segment: utilisation '
+            f"{utilisation_text(gov.utilisation)}</text>"
         )
     return _svg(ax.width, ax.height, f"Strength against Lb for {b.name or b.guid}", body, "chart")

@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Mapping
 
 from ifccheck.reasons import NotChecked, Reason
-from ifccheck.report.display import DisplayUnits
+from ifccheck.report.display import DisplayUnits, utilisation_text
 from ifccheck.results import (
     BeamChange,
     BeamResult,
@@ -26,8 +26,8 @@ LTB_STATES = ("inelastic_ltb", "elastic_ltb")
 
 CHECK_WORDS = {"flexure": "bending", "shear": "shear", "deflection": "deflection"}
 
-STATUS_WORDS = {"pass": "passes", "fail": "fails", "not_checked": "was not checked"}
-STATUS_STATE_WORDS = {"pass": "pass", "fail": "fail", "not_checked": "not checked"}
+OUTCOME_WORDS = {"pass": "passes", "fail": "fails", "not_checked": "was not checked"}
+OUTCOME_STATE_WORDS = {"pass": "pass", "fail": "fail", "not_checked": "not checked"}
 
 _PROFILE_ADVICE = (
     "give the beam a profile the tool can read: a parametric profile with dimensions "
@@ -103,17 +103,18 @@ def segment_words(b: BeamResult, seg: SegmentResult, du: DisplayUnits) -> str:
         f"The governing length is {where}: {bracing}. "
         f"{limit_state_words(seg.limit_state).capitalize()} governs: a moment of "
         f"{du.text(seg.moment_demand, 'moment', 1)} against a strength of "
-        f"{du.text(seg.moment_capacity, 'moment', 1)} (ratio {seg.ratio:.2f}) "
-        f"under {seg.combination or 'the governing combination'}."
+        f"{du.text(seg.moment_capacity, 'moment', 1)} "
+        f"(utilisation {utilisation_text(seg.utilisation)}) "
+        f"under {seg.load_combination or 'the governing combination'}."
     )
 
 
 def fix_words(b: BeamResult, du: DisplayUnits) -> str:
     """What would make a failing beam pass."""
     seg = b.governing
-    if b.governing_check == "shear":
+    if b.controlling_limit == "shear":
         return "Shear governs: use a section with a deeper or thicker web."
-    if b.governing_check == "deflection":
+    if b.controlling_limit == "deflection":
         return "Deflection governs: use a stiffer (deeper) section or shorten the span."
     if seg is not None and seg.limit_state in LTB_STATES and seg.lb > 0.0:
         x = segment_midpoint(seg)
@@ -133,34 +134,34 @@ def advice(reason: Reason | None) -> str:
 
 
 def beam_issue_title(b: BeamResult) -> str:
-    if b.status == "not_checked":
+    if b.outcome == "not_checked":
         return f"{beam_label(b)}: not checked"
-    ratio = f" ratio {b.ratio:.2f}" if b.ratio is not None else ""
-    what = CHECK_WORDS.get(b.governing_check, b.governing_check or "check")
+    u = f" utilisation {utilisation_text(b.utilisation)}" if b.utilisation is not None else ""
+    what = CHECK_WORDS.get(b.controlling_limit, b.controlling_limit or "check")
     seg = b.governing
-    if b.governing_check == "flexure" and seg is not None:
+    if b.controlling_limit == "flexure" and seg is not None:
         what = limit_state_words(seg.limit_state)
-    return f"{beam_label(b)} fails in {what},{ratio}"
+    return f"{beam_label(b)} fails in {what},{u}"
 
 
 def beam_issue_description(b: BeamResult, du: DisplayUnits) -> str:
     """Why the beam is an issue and what would fix it, in plain sentences."""
-    if b.status == "not_checked":
+    if b.outcome == "not_checked":
         reason = b.reason.text if b.reason else "no reason was recorded"
         return f"This beam was not checked: {reason}. {advice(b.reason)}".rstrip()
     lines: list[str] = []
-    ratio = f" (ratio {b.ratio:.2f})" if b.ratio is not None else ""
-    what = CHECK_WORDS.get(b.governing_check, b.governing_check or "the check")
-    lines.append(f"This beam {STATUS_WORDS.get(b.status, b.status)} in {what}{ratio}.")
+    u = f" (utilisation {utilisation_text(b.utilisation)})" if b.utilisation is not None else ""
+    what = CHECK_WORDS.get(b.controlling_limit, b.controlling_limit or "the check")
+    lines.append(f"This beam {OUTCOME_WORDS.get(b.outcome, b.outcome)} in {what}{u}.")
     seg = b.governing
-    if seg is not None and b.governing_check in ("flexure", ""):
+    if seg is not None and b.controlling_limit in ("flexure", ""):
         lines.append(segment_words(b, seg, du))
-    elif b.governing_check == "shear" and b.shear_demand is not None:
+    elif b.controlling_limit == "shear" and b.shear_demand is not None:
         lines.append(
             f"Shear {du.text(b.shear_demand, 'force', 1)} against a strength of "
             f"{du.text(b.shear_capacity, 'force', 1)}."
         )
-    elif b.governing_check == "deflection":
+    elif b.controlling_limit == "deflection":
         lines.append(
             f"Live-load deflection {du.text(b.deflection_live, 'deflection', 1)} "
             f"(limit {du.text(b.deflection_live_limit, 'deflection', 1)}), total "
@@ -182,11 +183,12 @@ def change_title(c: BeamChange) -> str:
         parts.append("lost a support")
     if c.lost_continuous_bracing > 0:
         parts.append("lost slab bracing")
-    if c.ratio_before is not None and c.ratio_after is not None:
-        parts.append(f"ratio {c.ratio_before:.2f} → {c.ratio_after:.2f}")
-    if c.status_before and c.status_after and c.status_before != c.status_after:
-        parts.append(f"{c.status_before.replace('_', ' ')} → {c.status_after.replace('_', ' ')}")
-    return f"{name}{where}: " + (", ".join(parts) if parts else c.severity)
+    if c.utilisation_before is not None and c.utilisation_after is not None:
+        before, after = c.utilisation_before, c.utilisation_after
+        parts.append(f"utilisation {utilisation_text(before)} → {utilisation_text(after)}")
+    if c.outcome_before and c.outcome_after and c.outcome_before != c.outcome_after:
+        parts.append(f"{c.outcome_before.replace('_', ' ')} → {c.outcome_after.replace('_', ' ')}")
+    return f"{name}{where}: " + (", ".join(parts) if parts else c.change)
 
 
 def cause_words(cause: ChangeCause, du: DisplayUnits, names: Mapping[str, str]) -> str:
@@ -196,10 +198,10 @@ def cause_words(cause: ChangeCause, du: DisplayUnits, names: Mapping[str, str]) 
         return du.text(float(v), "length") if isinstance(v, int | float) else "–"
 
     def ratio(v: float | str | None) -> str:
-        return f"{v:.3f}" if isinstance(v, int | float) else "–"
+        return utilisation_text(float(v)) if isinstance(v, int | float) else "–"
 
     def status(v: float | str | None) -> str:
-        return STATUS_STATE_WORDS.get(str(v), str(v))
+        return OUTCOME_STATE_WORDS.get(str(v), str(v))
 
     who = ", ".join(names.get(g, g) for g in cause.members)
     at = ", ".join(du.text(s, "length") for s in cause.stations)
@@ -217,12 +219,12 @@ def cause_words(cause: ChangeCause, du: DisplayUnits, names: Mapping[str, str]) 
         return f"slab-braced length fell by {length(cause.after)}"
     if k is CauseKind.LB_GREW:
         return f"governing Lb grew from {length(cause.before)} to {length(cause.after)}"
-    if k in (CauseKind.STATUS_WORSE, CauseKind.STATUS_BETTER):
+    if k in (CauseKind.OUTCOME_WORSE, CauseKind.OUTCOME_BETTER):
         return f"went from {status(cause.before)} to {status(cause.after)}"
-    if k is CauseKind.RATIO_ROSE:
-        return f"ratio rose from {ratio(cause.before)} to {ratio(cause.after)}"
-    if k is CauseKind.RATIO_FELL:
-        return f"ratio fell from {ratio(cause.before)} to {ratio(cause.after)}"
+    if k is CauseKind.UTILISATION_ROSE:
+        return f"utilisation rose from {ratio(cause.before)} to {ratio(cause.after)}"
+    if k is CauseKind.UTILISATION_FELL:
+        return f"utilisation fell from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.DEMAND_FELL_LOST_LOAD:
         return f"demand fell because {who} no longer delivers its load here"
     raise ValueError(f"no words for change cause {k!r}")
@@ -247,7 +249,7 @@ def change_description(
     c: BeamChange, du: DisplayUnits, names: Mapping[str, str] | None = None
 ) -> str:
     names = names or {}
-    lines = [f"Between the two revisions this beam got {_severity_words(c.severity)}."]
+    lines = [f"Between the two revisions this beam {_change_words(c.change)}."]
     if c.lost_brace_points:
         at = ", ".join(du.text(s, "length") for s in c.lost_brace_points)
         lines.append(f"Brace points lost at station {at}.")
@@ -264,19 +266,18 @@ def change_description(
         lines.append(
             f"Governing Lb {du.text(c.lb_before, 'length')} → {du.text(c.lb_after, 'length')}."
         )
-    if c.ratio_before is not None or c.ratio_after is not None:
-        rb = "–" if c.ratio_before is None else f"{c.ratio_before:.2f}"
-        ra = "–" if c.ratio_after is None else f"{c.ratio_after:.2f}"
-        lines.append(f"Ratio {rb} → {ra}.")
-    if c.status_before or c.status_after:
-        lines.append(f"Status {c.status_before or '–'} → {c.status_after or '–'}.")
+    if c.utilisation_before is not None or c.utilisation_after is not None:
+        rb, ra = utilisation_text(c.utilisation_before), utilisation_text(c.utilisation_after)
+        lines.append(f"Utilisation {rb} → {ra}.")
+    if c.outcome_before or c.outcome_after:
+        lines.append(f"Outcome {c.outcome_before or '–'} → {c.outcome_after or '–'}.")
     lines.extend(sentence(cause_words(x, du, names)) for x in c.causes)
-    if c.lost_brace_points and c.severity == "regression":
+    if c.lost_brace_points and c.change == "weakened":
         lines.append(
             "Restore the lost brace, or check that the longer unbraced length is intended."
         )
     return " ".join(lines)
 
 
-def _severity_words(severity: str) -> str:
-    return {"regression": "worse", "improvement": "better"}.get(severity, "different")
+def _change_words(change: str) -> str:
+    return {"weakened": "was weakened", "strengthened": "was strengthened"}.get(change, "changed")

@@ -1,7 +1,7 @@
 """The HTTP API (FastAPI) and the web page.
 
 Every route but the health check needs ``Authorization: Bearer <token>``; a
-token sees only the jobs made with it (another token's job is "not found").
+token sees only the submissions made with it (another token's is "not found").
 """
 
 import shutil
@@ -48,35 +48,35 @@ class ErrorBody(BaseModel):
     detail: str | list[Any] = Field(description="What was wrong, in one line")
 
 
-class CheckCreated(BaseModel):
+class SubmissionReceived(BaseModel):
     id: str
-    status: Literal["queued"]
+    status: Literal["received"]
 
 
-class CheckStatus(BaseModel):
+class SubmissionStatus(BaseModel):
     id: str
-    status: Literal["queued", "running", "done", "failed"]
+    status: Literal["received", "checking", "finished", "errored"]
     progress: float = Field(ge=0.0, le=1.0)
     model_key: str | None = Field(description="The model this job is a revision of")
     model_file: str = Field(description="The uploaded model's file name as stored")
     summary: dict[str, int] | None = Field(
-        description="Beams by status (pass, fail, not_checked, total), once done"
+        description="Beams by outcome (pass, fail, not_checked, total), once finished"
     )
     diff: dict[str, int] | None = Field(
-        description="Against the previous revision: matched, added, removed, regressions"
+        description="Against the previous revision: matched, added, removed, weakened"
     )
-    error: str | None = Field(description="Why the job failed, one line")
-    files: dict[str, str] = Field(description="File name → URL path, once done")
-    compared_with: str | None = Field(description="The previous revision's job id")
+    error: str | None = Field(description="Why the check could not finish, one line")
+    files: dict[str, str] = Field(description="File name → URL path, once finished")
+    compared_with: str | None = Field(description="The previous revision's submission id")
     units: str | None
     created_at: str
     started_at: str | None
     finished_at: str | None
 
 
-class CheckList(BaseModel):
+class SubmissionList(BaseModel):
     model_key: str | None
-    checks: list[CheckStatus]
+    submissions: list[SubmissionStatus]
 
 
 class Health(BaseModel):
@@ -92,7 +92,7 @@ class Link(BaseModel):
 def _errors(*codes: int) -> dict[int | str, dict[str, Any]]:
     text = {
         401: "Missing, unknown or revoked token",
-        404: "No such check or file for this token",
+        404: "No such submission or file for this token",
         413: "Upload larger than the service's limit",
         422: "Invalid upload or parameters",
     }
@@ -137,7 +137,7 @@ _UPLOAD_BODY = {
                     "callback_url": {
                         "type": "string",
                         "maxLength": TEXT_FIELDS["callback_url"],
-                        "description": "URL to POST the status document to when the job "
+                        "description": "URL to POST the status document to when the check "
                         "ends (its host must be allowed by the service)",
                     },
                 },
@@ -195,13 +195,13 @@ def create_app(config: ServiceConfig, runner: Runner | None = None) -> FastAPI:
         return token_of(creds)
 
     Token = Annotated[str, Depends(require_token)]
-    JobId = Annotated[str, PathParam(description="A check's id", max_length=64)]
+    JobId = Annotated[str, PathParam(description="A submission's id", max_length=64)]
 
     def own_job(token_id: str, id: str):
         assert service.store is not None
         job = service.store.job(id, token_id) if len(id) == 16 else None
         if job is None:
-            raise HTTPException(404, "no such check")
+            raise HTTPException(404, "no such submission")
         return job
 
     @app.middleware("http")
@@ -210,7 +210,7 @@ def create_app(config: ServiceConfig, runner: Runner | None = None) -> FastAPI:
         response.headers.setdefault("X-Content-Type-Options", "nosniff")
         response.headers.setdefault("Referrer-Policy", "no-referrer")
         response.headers.setdefault("X-Frame-Options", "DENY")
-        if request.url.path.startswith("/api/v1/checks"):
+        if request.url.path.startswith(f"{API}/submissions"):
             response.headers.setdefault("Cache-Control", "no-store")
         return response
 
@@ -220,15 +220,15 @@ def create_app(config: ServiceConfig, runner: Runner | None = None) -> FastAPI:
         return {"status": "ok", "version": __version__}
 
     @app.post(
-        f"{API}/checks",
+        f"{API}/submissions",
         status_code=202,
-        response_model=CheckCreated,
+        response_model=SubmissionReceived,
         responses=_errors(401, 413, 422),
         openapi_extra={"requestBody": _UPLOAD_BODY},
-        tags=["checks"],
+        tags=["submissions"],
     )
-    async def create_check(request: Request, token_id: Token) -> Any:
-        """Upload a model to check; the job is queued and runs in the background."""
+    async def create_submission(request: Request, token_id: Token) -> Any:
+        """Upload a model to check; it is received and checked in the background."""
         staging = service.new_staging()
         try:
             upload = await receive(request, staging, config.max_upload)
@@ -254,42 +254,42 @@ def create_app(config: ServiceConfig, runner: Runner | None = None) -> FastAPI:
         except BaseException:
             shutil.rmtree(staging, ignore_errors=True)
             raise
-        return JSONResponse({"id": job_id, "status": "queued"}, 202)
+        return JSONResponse({"id": job_id, "status": "received"}, 202)
 
     @app.get(
-        f"{API}/checks",
-        response_model=CheckList,
+        f"{API}/submissions",
+        response_model=SubmissionList,
         responses=_errors(401, 422),
-        tags=["checks"],
+        tags=["submissions"],
     )
-    def list_checks(
+    def list_submissions(
         token_id: Token,
         model_key: Annotated[
             str | None, Query(max_length=TEXT_FIELDS["model_key"], description="Only this model")
         ] = None,
         limit: Annotated[int, Query(ge=1, le=1000)] = 100,
     ) -> dict[str, Any]:
-        """The token's checks, newest first (the revisions of one model with model_key)."""
+        """The token's submissions, newest first (the revisions of one model with model_key)."""
         assert service.store is not None
         key = model_key.strip() if model_key and model_key.strip() else None
         jobs = service.store.jobs(token_id, key, limit)
-        return {"model_key": key, "checks": [service.status(j) for j in jobs]}
+        return {"model_key": key, "submissions": [service.status(j) for j in jobs]}
 
     @app.get(
-        f"{API}/checks/{{id}}",
-        response_model=CheckStatus,
+        f"{API}/submissions/{{id}}",
+        response_model=SubmissionStatus,
         responses=_errors(401, 404),
-        tags=["checks"],
+        tags=["submissions"],
     )
-    def get_check(id: JobId, token_id: Token) -> dict[str, Any]:
-        """A check's status, summary and files."""
+    def get_submission(id: JobId, token_id: Token) -> dict[str, Any]:
+        """A submission's status, summary and files."""
         return service.status(own_job(token_id, id))
 
     @app.post(
-        f"{API}/checks/{{id}}/files/{{name}}/link",
+        f"{API}/submissions/{{id}}/files/{{name}}/link",
         response_model=Link,
         responses=_errors(401, 404),
-        tags=["checks"],
+        tags=["submissions"],
     )
     def file_link(id: JobId, name: str, token_id: Token) -> dict[str, Any]:
         """A short-lived link to one file, for opening it in a browser tab."""
@@ -299,17 +299,17 @@ def create_app(config: ServiceConfig, runner: Runner | None = None) -> FastAPI:
         assert service.links is not None
         expires, signature = service.links.sign(token_id, id, name)
         query = f"token={token_id}&expires={expires}&signature={signature}"
-        url = f"{API}/checks/{id}/files/{name}?{query}"
+        url = f"{API}/submissions/{id}/files/{name}?{query}"
         return {"url": url, "expires_at": expires}
 
     @app.get(
-        f"{API}/checks/{{id}}/files/{{name}}",
+        f"{API}/submissions/{{id}}/files/{{name}}",
         responses={
             200: {"description": "The file", "content": {"application/octet-stream": {}}},
             **_errors(401, 404),
         },
         response_class=Response,
-        tags=["checks"],
+        tags=["submissions"],
     )
     def get_file(
         id: JobId,
@@ -319,7 +319,7 @@ def create_app(config: ServiceConfig, runner: Runner | None = None) -> FastAPI:
         expires: Annotated[int | None, Query(description="Signed link")] = None,
         signature: Annotated[str | None, Query(max_length=128, description="Signed link")] = None,
     ) -> Response:
-        """One output file of a finished check (a bearer token, or a signed link)."""
+        """One output file of a finished submission (a bearer token, or a signed link)."""
         if creds is None and token and expires is not None and signature:
             assert service.links is not None and service.store is not None
             if not (
@@ -370,7 +370,7 @@ def create_app(config: ServiceConfig, runner: Runner | None = None) -> FastAPI:
 
 
 def _validate(upload: Upload, staging: Path, config: ServiceConfig) -> dict[str, str | None]:
-    """Check the form's fields and small files before a job is made; raises UploadError."""
+    """Check the form's fields and small files before a submission is made; raises UploadError."""
     from ifccheck.config import load_settings
     from ifccheck.errors import DemandFileError, SettingsError
     from ifccheck.loads.demand import load_demand_csv

@@ -1,7 +1,7 @@
 """A small client of the service's API and a launcher of a server process.
 
 For scripts, the benchmark and the tests: :class:`ServiceClient` uploads
-models and waits for their checks; :class:`ServerProcess` runs
+models and waits for their checks to finish; :class:`ServerProcess` runs
 ``ifccheck serve`` (``python -m ifccheck.cli serve``) on a free loopback port.
 """
 
@@ -19,7 +19,7 @@ from typing import Any
 import httpx
 
 API = "/api/v1"
-FINAL = ("done", "failed")
+FINAL = ("finished", "errored")
 
 
 class ServiceClient:
@@ -50,7 +50,7 @@ class ServiceClient:
         model_key: str | None = None,
         **fields: str,
     ) -> httpx.Response:
-        """POST a model; the raw response (202 with the job id when accepted)."""
+        """POST a model; the raw response (202 with the submission id when received)."""
         with contextlib.ExitStack() as stack:
             files: dict[str, Any] = {}
             for name, path in (("model", model), ("settings", settings), ("demands", demands)):
@@ -60,22 +60,22 @@ class ServiceClient:
             data = dict(fields)
             if model_key is not None:
                 data["model_key"] = model_key
-            return self.http.post(f"{API}/checks", files=files, data=data)
+            return self.http.post(f"{API}/submissions", files=files, data=data)
 
     def check(self, model: Path, settings: Path | None = None, **kw: Any) -> str:
-        """Submit and return the job id; raises on refusal."""
+        """Submit and return the submission id; raises on refusal."""
         r = self.submit(model, settings, **kw)
         if r.status_code != 202:
             raise RuntimeError(f"upload refused: {r.status_code} {r.text}")
         return r.json()["id"]
 
     def status(self, job_id: str) -> dict[str, Any]:
-        r = self.http.get(f"{API}/checks/{job_id}")
+        r = self.http.get(f"{API}/submissions/{job_id}")
         r.raise_for_status()
         return r.json()
 
     def wait(self, job_id: str, timeout: float = 120.0, poll: float = 0.2) -> dict[str, Any]:
-        """Poll until the job is done or failed; its status document."""
+        """Poll until the submission is finished or errored; its status document."""
         deadline = time.monotonic() + timeout
         while True:
             doc = self.status(job_id)
@@ -86,7 +86,7 @@ class ServiceClient:
             time.sleep(poll)
 
     def file(self, job_id: str, name: str) -> bytes:
-        r = self.http.get(f"{API}/checks/{job_id}/files/{name}")
+        r = self.http.get(f"{API}/submissions/{job_id}/files/{name}")
         r.raise_for_status()
         return r.content
 

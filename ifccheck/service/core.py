@@ -1,10 +1,10 @@
 """The service without HTTP: accepting jobs, dispatching them, recording their end.
 
-A dispatcher thread starts queued jobs on the runner as capacity allows,
-oldest first, one revision of a model at a time (so that each revision is
-compared with the latest finished one). At start, jobs left queued or
-running by an earlier process are taken up again: a job whose files were
-completed before the stop is recorded as done, the others run again.
+A dispatcher thread starts received submissions on the runner as capacity
+allows, oldest first, one revision of a model at a time (so that each revision
+is compared with the latest finished one). At start, submissions left received
+or checking by an earlier process are taken up again: one whose files were
+completed before the stop is recorded as finished, the others run again.
 """
 
 from __future__ import annotations
@@ -86,17 +86,17 @@ class Service:
             self.store.close()
 
     def _recover(self) -> None:
-        """Take up the jobs an earlier process left queued or running."""
+        """Take up the submissions an earlier process left received or checking."""
         assert self.store is not None
-        for job in self.store.jobs_with_status("running"):
+        for job in self.store.jobs_with_status("checking"):
             outcome = read_outcome(self.job_dir(job.id))
             if outcome is not None:
-                self.store.mark_done(job.id, outcome)
-                log.info("job %s had finished before the stop; recorded as done", job.id)
+                self.store.mark_finished(job.id, outcome)
+                log.info("job %s had finished before the stop; recorded as finished", job.id)
                 continue
             clean_job_dir(self.job_dir(job.id))
             self.store.requeue(job.id)
-            log.info("job %s was interrupted; queued again", job.id)
+            log.info("job %s was interrupted; received again", job.id)
 
     # -- jobs -----------------------------------------------------------------------
 
@@ -117,7 +117,7 @@ class Service:
         units: str | None,
         callback_url: str | None,
     ) -> str:
-        """Make a queued job from a received upload (its files in ``staging``)."""
+        """Make a received submission from an upload (its files in ``staging``)."""
         assert self.store is not None
         job_id = secrets.token_hex(8)
         job_dir = self.job_dir(job_id)
@@ -167,13 +167,13 @@ class Service:
     def _start(self, job: JobRow) -> None:
         assert self.store is not None
         if job.attempts >= self.config.max_attempts:
-            self.store.mark_failed(
+            self.store.mark_errored(
                 job.id,
                 f"the job was interrupted {job.attempts} times by service restarts; not retried",
             )
             self._callback_by_id(job.id)
             return
-        previous = self.store.previous_done(job)
+        previous = self.store.previous_finished(job)
         job_dir = self.job_dir(job.id)
         spec = JobSpec(
             job_id=job.id,
@@ -189,7 +189,7 @@ class Service:
         clean_job_dir(job_dir)
         with self._flight_lock:
             self._in_flight.add(job.id)
-        self.store.mark_running(job.id)
+        self.store.mark_checking(job.id)
         self.runner.submit(spec, self._finished)
 
     def _finished(self, spec: JobSpec, outcome: dict[str, Any] | None, error: str | None) -> None:
@@ -198,9 +198,9 @@ class Service:
             return
         try:
             if outcome is not None:
-                self.store.mark_done(spec.job_id, outcome)
+                self.store.mark_finished(spec.job_id, outcome)
             else:
-                self.store.mark_failed(spec.job_id, error or "the check failed")
+                self.store.mark_errored(spec.job_id, error or "the check failed")
             clean_job_dir(self.job_dir(spec.job_id))
         finally:
             with self._flight_lock:
@@ -235,12 +235,13 @@ class Service:
         """The status document of a job, as the API serves it."""
         outcome = job.outcome or {}
         files: dict[str, str] = {}
-        if job.status == "done":
-            base = f"{API}/checks/{job.id}/files"
+        finished = job.status == "finished"
+        if finished:
+            base = f"{API}/submissions/{job.id}/files"
             files = {name: f"{base}/{name}" for name in outcome.get("files", [])}
-        if job.status == "done":
+        if finished:
             progress = 1.0
-        elif job.status == "running":
+        elif job.status == "checking":
             progress = read_progress(self.job_dir(job.id))
         else:
             progress = 0.0
@@ -250,11 +251,11 @@ class Service:
             "progress": progress,
             "model_key": job.model_key,
             "model_file": job.model_file,
-            "summary": outcome.get("summary") if job.status == "done" else None,
-            "diff": outcome.get("diff") if job.status == "done" else None,
-            "error": job.error if job.status == "failed" else None,
+            "summary": outcome.get("summary") if finished else None,
+            "diff": _diff_counts(outcome.get("diff")) if finished else None,
+            "error": job.error if job.status == "errored" else None,
             "files": files,
-            "compared_with": job.compared_with if job.status == "done" else None,
+            "compared_with": job.compared_with if finished else None,
             "units": outcome.get("units", job.units),
             "created_at": job.created_at,
             "started_at": job.started_at,
@@ -263,7 +264,16 @@ class Service:
 
     def file_path(self, job: JobRow, name: str) -> Path | None:
         """The path of a served file of a finished job, or None."""
-        if job.status != "done" or name not in (job.outcome or {}).get("files", []):
+        if job.status != "finished" or name not in (job.outcome or {}).get("files", []):
             return None
         path = self.job_dir(job.id) / OUT_DIR / name
         return path if path.is_file() else None
+
+
+def _diff_counts(counts: dict[str, int] | None) -> dict[str, int] | None:
+    """Diff counts as served; a submission finished before format 2 said "regressions"."""
+    if counts is None or "regressions" not in counts:
+        return counts
+    out = {k: v for k, v in counts.items() if k != "regressions"}
+    out["weakened"] = counts["regressions"]
+    return out

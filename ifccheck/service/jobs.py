@@ -6,7 +6,7 @@ to ``out`` only when complete, so readers never see a partial set. A job
 directory looks like::
 
     jobs/<id>/input/<model>.ifc [settings.toml] [demands.csv]
-    jobs/<id>/progress          0..1 while running
+    jobs/<id>/progress          0..1 while checking
     jobs/<id>/out/              results.json beams.csv checked.ifc issues.bcf report.html
                                 [diff.json diff.csv diff.bcf diff.html]
                                 result.pickle outcome.json
@@ -228,6 +228,11 @@ def _diff(spec: JobSpec, result, tmp: Path, units: str) -> dict[str, int]:
         raise JobError(
             f"the results of the previous revision ({spec.previous_id}) cannot be read: {exc}"
         ) from None
+    if any("outcome" not in getattr(b, "__dict__", {}) for b in getattr(old, "beams", [None])):
+        raise JobError(
+            f"the previous revision ({spec.previous_id}) was checked by an earlier version "
+            "of ifccheck whose results cannot be compared; submit it again"
+        )
     diff = diff_results(old, result)
     for key, path in write_diff_all(diff, tmp, units).items():
         os.replace(path, tmp / DIFF_FILES[key])
@@ -235,7 +240,7 @@ def _diff(spec: JobSpec, result, tmp: Path, units: str) -> dict[str, int]:
         "matched": diff.matched,
         "added": len(diff.added),
         "removed": len(diff.removed),
-        "regressions": len(diff.regressions),
+        "weakened": len(diff.weakened),
     }
 
 

@@ -3,7 +3,7 @@
 A runner takes a :class:`JobSpec` and later calls ``done(spec, outcome,
 error)`` exactly once with either the outcome or a one-line error. A runner
 being stopped never calls ``done`` for the jobs it drops: those stay
-"running" in the database and are queued again at the next start.
+"checking" in the database and are received again at the next start.
 """
 
 from __future__ import annotations
@@ -230,7 +230,7 @@ class LocalRunner:
             spec, done = item
             outcome, error = worker.run(spec, self.job_timeout)
             if self._stopping.is_set():
-                return  # shutting down: the job stays "running" and is queued again
+                return  # shutting down: the job stays "checking" and is taken up again
             try:
                 done(spec, outcome, error)
             except Exception:

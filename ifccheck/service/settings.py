@@ -50,7 +50,7 @@ class ServiceConfig:
     callback_backoff: float = 1.0  # s, doubled after each failed attempt
     scheduler: str | None = None  # Dask scheduler address; None runs jobs locally
     link_ttl: float = 300.0  # s, lifetime of a signed download link
-    max_attempts: int = 3  # starts of one job (restarts included) before it is failed
+    max_attempts: int = 3  # starts of one job (restarts included) before it is errored
 
     def __post_init__(self) -> None:
         self.data_dir = Path(self.data_dir)

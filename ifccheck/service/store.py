@@ -17,8 +17,12 @@ from pathlib import Path
 from typing import Any
 
 DB_NAME = "ifccheck.sqlite3"
-SCHEMA_VERSION = 1
-STATUSES = ("queued", "running", "done", "failed")
+SCHEMA_VERSION = 2
+# a submission's states: received (waiting for a worker), checking, finished, errored
+STATES = ("received", "checking", "finished", "errored")
+# the states' names in schema version 1, taken over when an older database is opened
+_EARLIER_STATES = {"queued": "received", "running": "checking", "done": "finished",
+                   "failed": "errored"}  # fmt: skip
 
 _SCHEMA = """
 CREATE TABLE IF NOT EXISTS tokens (
@@ -121,7 +125,16 @@ class Store:
         self._db.execute("PRAGMA synchronous=NORMAL")
         self._db.execute("PRAGMA busy_timeout=30000")
         self._db.executescript(_SCHEMA)
+        self._migrate()
         self._db.execute(f"PRAGMA user_version={SCHEMA_VERSION}")
+
+    def _migrate(self) -> None:
+        """Bring a database of an earlier schema version up to this one."""
+        version = int(self._db.execute("PRAGMA user_version").fetchone()[0])
+        if 0 < version < 2:
+            with self._tx() as db:
+                for old, new in _EARLIER_STATES.items():
+                    db.execute("UPDATE jobs SET status = ? WHERE status = ?", (new, old))
 
     def close(self) -> None:
         with self._lock:
@@ -197,7 +210,7 @@ class Store:
             db.execute(
                 "INSERT INTO jobs (id, token_id, model_key, model_file, settings_file,"
                 " demands_file, units, callback_url, status, created_at)"
-                " VALUES (?, ?, ?, ?, ?, ?, ?, ?, 'queued', ?)",
+                " VALUES (?, ?, ?, ?, ?, ?, ?, ?, 'received', ?)",
                 (
                     job_id,
                     token_id,
@@ -250,57 +263,57 @@ class Store:
     ) -> list[JobRow]:
         """Queued jobs that may start now, oldest first.
 
-        A revision waits while an earlier job of the same model is queued or
-        running, so that it can be compared with the latest finished one.
+        A revision waits while an earlier job of the same model is received or
+        checking, so that it can be compared with the latest finished one.
         """
         if limit <= 0:
             return []
         rows = self._all(
-            "SELECT * FROM jobs AS j WHERE j.status = 'queued' AND NOT EXISTS ("
+            "SELECT * FROM jobs AS j WHERE j.status = 'received' AND NOT EXISTS ("
             " SELECT 1 FROM jobs AS p WHERE j.model_key IS NOT NULL"
             " AND p.token_id = j.token_id AND p.model_key = j.model_key"
-            " AND p.seq < j.seq AND p.status IN ('queued', 'running'))"
+            " AND p.seq < j.seq AND p.status IN ('received', 'checking'))"
             " ORDER BY j.seq LIMIT ?",
             (limit + len(exclude),),
         )
         return [_job(r) for r in rows if r["id"] not in exclude][:limit]
 
-    def previous_done(self, job: JobRow) -> JobRow | None:
+    def previous_finished(self, job: JobRow) -> JobRow | None:
         """The latest finished revision of the job's model before it."""
         if job.model_key is None:
             return None
         row = self._one(
             "SELECT * FROM jobs WHERE token_id = ? AND model_key = ? AND seq < ?"
-            " AND status = 'done' ORDER BY seq DESC LIMIT 1",
+            " AND status = 'finished' ORDER BY seq DESC LIMIT 1",
             (job.token_id, job.model_key, job.seq),
         )
         return _job(row) if row else None
 
-    def mark_running(self, job_id: str) -> int:
-        """Set running and count the attempt; the attempt number."""
+    def mark_checking(self, job_id: str) -> int:
+        """Set checking and count the attempt; the attempt number."""
         with self._tx() as db:
             db.execute(
-                "UPDATE jobs SET status = 'running', attempts = attempts + 1, started_at = ?"
+                "UPDATE jobs SET status = 'checking', attempts = attempts + 1, started_at = ?"
                 " WHERE id = ?",
                 (now(), job_id),
             )
             row = db.execute("SELECT attempts FROM jobs WHERE id = ?", (job_id,)).fetchone()
             return int(row["attempts"])
 
-    def mark_done(self, job_id: str, outcome: dict[str, Any]) -> None:
+    def mark_finished(self, job_id: str, outcome: dict[str, Any]) -> None:
         with self._tx() as db:
             db.execute(
-                "UPDATE jobs SET status = 'done', outcome = ?, compared_with = ?, error = NULL,"
+                "UPDATE jobs SET status = 'finished', outcome = ?, compared_with = ?, error = NULL,"
                 " finished_at = ?,"
                 " callback_state = CASE WHEN callback_url IS NULL THEN NULL ELSE 'pending' END"
                 " WHERE id = ?",
                 (json.dumps(outcome), outcome.get("compared_with"), now(), job_id),
             )
 
-    def mark_failed(self, job_id: str, error: str) -> None:
+    def mark_errored(self, job_id: str, error: str) -> None:
         with self._tx() as db:
             db.execute(
-                "UPDATE jobs SET status = 'failed', error = ?, finished_at = ?,"
+                "UPDATE jobs SET status = 'errored', error = ?, finished_at = ?,"
                 " callback_state = CASE WHEN callback_url IS NULL THEN NULL ELSE 'pending' END"
                 " WHERE id = ?",
                 (error, now(), job_id),
@@ -309,7 +322,7 @@ class Store:
     def requeue(self, job_id: str) -> None:
         with self._tx() as db:
             db.execute(
-                "UPDATE jobs SET status = 'queued', started_at = NULL WHERE id = ?", (job_id,)
+                "UPDATE jobs SET status = 'received', started_at = NULL WHERE id = ?", (job_id,)
             )
 
     def set_callback_state(self, job_id: str, state: str) -> None:
@@ -319,12 +332,12 @@ class Store:
     def pending_callbacks(self) -> list[JobRow]:
         rows = self._all(
             "SELECT * FROM jobs WHERE callback_state = 'pending'"
-            " AND status IN ('done', 'failed') ORDER BY seq"
+            " AND status IN ('finished', 'errored') ORDER BY seq"
         )
         return [_job(r) for r in rows]
 
     def counts(self) -> dict[str, int]:
         rows = self._all("SELECT status, COUNT(*) AS n FROM jobs GROUP BY status")
-        out = dict.fromkeys(STATUSES, 0)
+        out = dict.fromkeys(STATES, 0)
         out.update({r["status"]: int(r["n"]) for r in rows})
         return out

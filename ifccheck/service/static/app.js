@@ -1,4 +1,4 @@
-// ifccheck service page: sign in with a token, upload models, follow the checks.
+// ifccheck service page: sign in with a token, submit models, follow their checks.
 // The token lives in sessionStorage (this tab only) and goes out as a Bearer
 // header; files are opened through short-lived signed links from the API.
 "use strict";
@@ -40,7 +40,7 @@
   function signOut(message) {
     sessionStorage.removeItem(KEY);
     clearTimeout(timer);
-    $("checks").tBodies[0].replaceChildren();
+    $("submissions").tBodies[0].replaceChildren();
     showApp(false);
     $("signin-error").textContent = message || "";
   }
@@ -57,8 +57,8 @@
     if (!s) return "";
     let text = `${s.total} beams: ${s.pass} pass, ${s.fail} fail, ${s.not_checked} not checked`;
     if (check.diff) {
-      const n = check.diff.regressions;
-      text += `; ${n} regression${n === 1 ? "" : "s"} since the previous revision`;
+      const n = check.diff.weakened;
+      text += `; ${n} weakened since the previous revision`;
     }
     return text;
   }
@@ -68,7 +68,7 @@
     const tab = download ? null : window.open("", "_blank");
     let response;
     try {
-      response = await api(`${API}/checks/${id}/files/${name}/link`, { method: "POST" });
+      response = await api(`${API}/submissions/${id}/files/${name}/link`, { method: "POST" });
     } catch (err) {
       if (tab) tab.close();
       return;
@@ -94,7 +94,7 @@
 
   function fileCell(check) {
     const td = el("td", null, "files");
-    if (check.status === "failed") {
+    if (check.status === "errored") {
       td.append(el("span", check.error, "error"));
       return td;
     }
@@ -129,7 +129,7 @@
     tr.append(el("td", check.model_file));
     const status = el("td");
     status.append(el("span", check.status, `status status-${check.status}`));
-    if (check.status === "running") {
+    if (check.status === "checking") {
       const bar = el("progress");
       bar.max = 1;
       bar.value = check.progress;
@@ -151,12 +151,12 @@
     const query = key ? `?model_key=${encodeURIComponent(key)}` : "";
     let active = false;
     try {
-      const response = await api(`${API}/checks${query}`);
+      const response = await api(`${API}/submissions${query}`);
       if (response.ok) {
-        const { checks } = await response.json();
-        $("checks").tBodies[0].replaceChildren(...checks.map(row));
-        $("empty").hidden = checks.length > 0;
-        active = checks.some((c) => c.status === "queued" || c.status === "running");
+        const { submissions } = await response.json();
+        $("submissions").tBodies[0].replaceChildren(...submissions.map(row));
+        $("empty").hidden = submissions.length > 0;
+        active = submissions.some((c) => c.status === "received" || c.status === "checking");
       }
     } catch (err) {
       if (!token()) return;
@@ -167,7 +167,7 @@
   $("signin-form").addEventListener("submit", async (event) => {
     event.preventDefault();
     const candidate = $("token").value.trim();
-    const response = await fetch(`${API}/checks?limit=1`, {
+    const response = await fetch(`${API}/submissions?limit=1`, {
       headers: { Authorization: `Bearer ${candidate}` },
     });
     if (!response.ok) {
@@ -201,10 +201,10 @@
     button.disabled = true;
     $("upload-message").textContent = "Uploading…";
     try {
-      const response = await api(`${API}/checks`, { method: "POST", body: data });
+      const response = await api(`${API}/submissions`, { method: "POST", body: data });
       if (response.status === 202) {
         const { id } = await response.json();
-        $("upload-message").textContent = `Queued as check ${id}.`;
+        $("upload-message").textContent = `Received as submission ${id}.`;
         form.reset();
         refresh();
       } else {
