@@ -455,11 +455,12 @@ def test_shear_cv1_g2_4_and_channels() -> None:
     assert r.factor == 0.9
     c = shear(_w("C15X50"), A992)  # channels: G2.1(b)
     assert c.clause == "AISC 360-16 G2.1(b)" and c.factor == 0.9 and c.cv1 == 1.0
-    # HSS shear is G4 now: Vn = 0.6·Fy·(2·h·t)·Cv2 (G4-1), h = 4.61 in and t = 0.465 in
-    # (AISC Shapes Database v16.0), h/t = 9.9 ≤ 1.10√(5·29000/50) = 59.2: Cv2 = 1.0 (G2-9).
+    # HSS shear is G4 now: Vn = 0.6·Fy·(2·h·t)·Cv2 (G4-1), h = 6 − 3t = 4.605 in with
+    # t = 0.465 in (B4.1b(d); the database tabulates h = 4.61 in), h/t = 9.9 ≤
+    # 1.10√(5·29000/50) = 59.2: Cv2 = 1.0 (G2-9).
     hss = shear(_w("HSS6X6X1/2"), A992)
     assert hss.clause == "AISC 360-16 G4"
-    assert hss.vn == pytest.approx(0.6 * 50 * KSI * 2 * 4.61 * 0.465 * 0.0254**2)
+    assert hss.vn == pytest.approx(0.6 * 50 * KSI * 2 * (6 - 3 * 0.465) * 0.465 * 0.0254**2)
 
 
 # --- interface, registry, whole-model evaluation, deflection -------------------

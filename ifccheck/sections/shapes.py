@@ -235,7 +235,8 @@ def singly_symmetric_i_from_dimensions(
     Design Guide 9), plus the fillet junction term where r > 0 (El Darwish &
     Johnston 1965). Cw = ho²·Iyc·Iyt/(Iyc + Iyt), the thin-walled value for a
     monosymmetric I (Galambos, "Structural Members and Frames", 1968), with
-    Iyc, Iyt the flanges' own tf·bf³/12. rts is F2-7's √(√(Iy·Cw)/Sx) (the design
+    Iyc, Iyt the flanges' own tf·bf³/12; the shear centre lies ho·Iyt/(Iyc + Iyt)
+    below the top flange's centroid (y0). rts is F2-7's √(√(Iy·Cw)/Sx) (the design
     code takes rt of the compression flange from F4-11).
     """
     _positive(name, d=d, bf_top=bf_top, tf_top=tf_top, bf_bottom=bf_bottom,
@@ -259,12 +260,15 @@ def singly_symmetric_i_from_dimensions(
     ho = d - tf_top / 2 - tf_bottom / 2
     iyc, iyt = tf_top * bf_top**3 / 12.0, tf_bottom * bf_bottom**3 / 12.0
     cw = ho**2 * iyc * iyt / (iyc + iyt)
-    return _section(
+    s = _section(
         name, ShapeFamily.I_SHAPE, outline,
         d=d, bf=bf_top, tw=tw, tf=tf_top, r=r, j=j, cw=cw, ho=ho, h=hw - 2.0 * r,
         sy_width=max(bf_top, bf_bottom) / 2.0,
         fabrication=fabrication, bf_bottom=bf_bottom, tf_bottom=tf_bottom,
     )  # fmt: skip
+    # Shear centre between the flange centroids, ho·Iyt/(Iyc + Iyt) below the top one.
+    below_top = tf_top / 2.0 + ho * iyt / (iyc + iyt)
+    return _with(s, y0=s.y_top - below_top)
 
 
 def tee_from_dimensions(

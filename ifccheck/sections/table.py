@@ -274,9 +274,10 @@ def _section(row: _Row) -> Section:
     elif fam is ShapeFamily.HOLLOW_RECT:
         t = v["tdes"]
         # Properties of the database use an outside corner radius of 2t (from memory);
-        # its flat widths h, b are the outside dimensions less 3t (B4.1b(d)).
+        # its flat widths h, b are the outside dimensions less 3t (B4.1b(d)), kept
+        # unrounded here (the database tabulates them to 0.01 in).
         d, bf, tw, tf, r = v["Ht"], v["B"], t, t, 2.0 * t
-        h, ho = v.get("h", d - 3 * t), d - t
+        h, ho = d - 3.0 * t, d - t
     else:  # round HSS and pipe
         t = v["tdes"]
         d = bf = v["OD"]
