@@ -354,7 +354,7 @@ def tee_mcr(
 def f10_ltb(my: float, mcr: FloatArray) -> FloatArray:
     """F10-2 (My/Mcr ≤ 1.0: (1.92 − 1.17√(My/Mcr))·My ≤ 1.5My) and F10-3
     (My/Mcr > 1.0: (0.92 − 0.17·Mcr/My)·Mcr); both give 0.75My at Mcr = My."""
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         ratio = np.where(mcr > 0.0, my / mcr, np.inf)
         inelastic = np.minimum((1.92 - 1.17 * np.sqrt(ratio)) * my, 1.5 * my)
         elastic = (0.92 - 0.17 * mcr / my) * mcr
@@ -482,12 +482,14 @@ def angle_mcr(
     """Mcr = 0.58·E·b⁴·t·Cb/Lb²·[√(1 + 0.88(Lb·t/b²)²) ∓ 1] (F10-5a toe in compression −,
     F10-5b toe in tension +), Cb ≤ 1.5."""
     c = np.minimum(cb, CB_MAX_ANGLE)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        x = lb * t / b**2
-        root = np.sqrt(1.0 + 0.88 * x * x)
-        # √(1 + a) − 1 = a/(√(1 + a) + 1): free of cancellation for short Lb
-        bracket = 0.88 * x * x / (root + 1.0) if toe_compression else root + 1.0
-        mcr = 0.58 * e * b**4 * t * c / lb**2 * bracket
+    x = lb * t / b**2
+    root = np.sqrt(1.0 + 0.88 * x * x)
+    if toe_compression:
+        # 0.58E·b⁴·t·Cb/Lb²·(√(1 + 0.88x²) − 1) with x = Lb·t/b², written as
+        # 0.58·0.88·E·t³·Cb/(√(1 + 0.88x²) + 1): the same value, finite as Lb → 0.
+        return np.asarray(0.58 * 0.88 * e * t**3 * c / (root + 1.0), dtype=float)
+    with np.errstate(divide="ignore", over="ignore"):
+        mcr = 0.58 * e * b**4 * t * c / lb**2 * (root + 1.0)
     return np.asarray(np.where(lb > 0.0, mcr, _NA), dtype=float)
 
 

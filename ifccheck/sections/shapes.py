@@ -114,11 +114,13 @@ def _plastic(poly: BaseGeometry, axis: str) -> tuple[float, float]:
 
 def _close(outline: Polygon, r: float) -> Polygon:
     """Round the re-entrant corners with arcs of radius r (grow, then shrink, by r)."""
-    if r <= 0.0:
+    minx, miny, maxx, maxy = outline.bounds
+    if r <= 1e-9 * max(maxx - minx, maxy - miny):  # no fillet worth drawing
         return outline
     grown = outline.buffer(r, quad_segs=_QUAD, join_style="round")
     closed = grown.buffer(-r, quad_segs=_QUAD, join_style="round")
-    assert isinstance(closed, Polygon)
+    if not isinstance(closed, Polygon) or not closed.area > 0.0:
+        raise ValueError(f"a fillet of radius {r} cannot be drawn on this outline")
     return closed
 
 
