@@ -15,7 +15,8 @@ and SI floats (m, m², Pa, N, N·m, N/m).
   φt = 0.75, Ωt = 2.00) with Ae = U·An (D3-1); An = Ag unless given.
 - Appendix 6.3: point lateral bracing Prb (A6-7) and βbr (A6-8a, A6-8b), Cd;
   point torsional bracing Mbr (A6-9), βTb (A6-10), βT (A6-11a, A6-11b),
-  βsec (A6-12), Iyeff (A6-13).
+  βsec (A6-12), Iyeff (A6-13). (The Appendix 6 coefficients are written from
+  the published text as remembered; confirm them against the standard.)
 - Brace stiffness: AE/L; members in series 1/Σ(L/AE); an inclined brace
   (AE/L)·cos²θ carrying the brace force / cos θ; a line of braces tied to one
   anchor carries the sum of the brace forces beyond each segment.
@@ -480,11 +481,12 @@ def torsional_brace_requirement(
 ) -> TorsionalBraceRequirement:
     """Point torsional bracing of a beam, AISC 360-16 A6.3.2(a).
 
-    Mbr = 3.6·L/(n·E·Iyeff)·(Mr/Cb)² ≥ 0.02·Mr (A6-9); βT = (1/φ)·3.6·L/(n·E·Iyeff)·(Mr/Cb)²,
-    φ = 0.75 (A6-11a) or Ω·(...), Ω = 3.00 (A6-11b); βsec = 3.3E/ho·(1.5·ho·tw³/12 +
-    ts·bs³/12) (A6-12); the brace needs βTb = βT/(1 − βT/βsec) (A6-10). L is the span
-    (m), n the number of braced points within it, Cb from Chapter F; ``stiffener_width``
-    is bs (twice the width for a pair of stiffeners).
+    Mbr = 0.02·Mr (A6-9); βT = (1/φ)·3.6·L/(n·E·Iyeff)·(Mr/Cb)², φ = 0.75 (A6-11a), or
+    Ω·(...), Ω = 3.00 (A6-11b); βsec = 3.3E/ho·(1.5·ho·tw³/12 + ts·bs³/12) (A6-12); the
+    brace needs βTb = βT/(1 − βT/βsec) (A6-10), and cannot be adequate where βsec ≤ βT
+    (the web distorts first: add a stiffener). L is the span (m), n the number of braced
+    points within it, Cb from Chapter F; ``stiffener_width`` is bs (twice the width for
+    a pair of stiffeners), ``stiffener_thickness`` ts.
     """
     m = check_method(method)
     if not (span > 0.0 and braces >= 1 and cb > 0.0):
@@ -493,7 +495,7 @@ def torsional_brace_requirement(
     iyeff = effective_iy(section, compression_top)
     e = steel.E
     base = 3.6 * span / (braces * e * iyeff) * (mr / cb) ** 2
-    mbr = max(base, 0.02 * mr)  # Eq. A6-9
+    mbr = 0.02 * mr  # Eq. A6-9
     beta_t = base / PHI_TORSION if m == "LRFD" else base * OMEGA_TORSION  # Eq. A6-11
     ho, tw = section.ho, section.tw
     ts, bs = stiffener_thickness, stiffener_width
@@ -524,11 +526,14 @@ def axial_stiffness(area: float, e: float, length: float) -> float:
 
 
 def series_stiffness(stiffnesses: Iterable[float]) -> float:
-    """Springs in series: 1/Σ(1/k); a rigid part may be given as math.inf."""
+    """Springs in series: 1/Σ(1/k). A rigid part may be given as math.inf; a part with
+    no stiffness (0, e.g. no anchor at the end of the line) makes the whole series 0."""
     flexibility = 0.0
     for k in stiffnesses:
-        if not k > 0.0:
-            raise ValueError("every stiffness in a series must be positive")
+        if k < 0.0 or math.isnan(k):
+            raise ValueError("a stiffness in a series must not be negative")
+        if k == 0.0:
+            return 0.0
         flexibility += 1.0 / k
     return 1.0 / flexibility if flexibility > 0.0 else math.inf
 
