@@ -542,6 +542,16 @@ def test_flexure_segments_mixed_families_and_sides() -> None:
     base = DesignStandard.flexure_many(AISC360(), pairs, index, lb, cb, "ASD", axis=axis,
                                        compression_top=top)  # fmt: skip
     np.testing.assert_allclose(base.design_strength, whole.design_strength)
+    # Side not known (None): each segment takes its section's weaker side, in one call
+    # as in single-section calls.
+    unknown = flexure_segments(pairs, index, lb, cb, axis=axis)
+    for k, (s, g) in enumerate(pairs):
+        for ax in ("major", "minor"):
+            sel = (index == k) & (axis == ax)
+            if sel.any():
+                one = flexure(s, g, lb[sel], cb[sel], axis=ax)
+                np.testing.assert_allclose(unknown.design_strength[sel], one.design_strength)
+                assert list(unknown.limit_state[sel]) == list(one.limit_state)
 
 
 def test_deflection_helpers() -> None:

@@ -215,8 +215,20 @@ def test_tees_by_hand(name: str) -> None:
 def test_wt8x25_limit_states() -> None:
     r = flexure(_s("WT8X25"), _steel(50.0), np.array([0.0, 10.0]) * FT, compression_top=False)
     assert r.limit_state[0] == "stem_local_buckling"  # F9-18 below My
-    tension = flexure(_s("WT8X25"), _steel(50.0), [0.0])
+    tension = flexure(_s("WT8X25"), _steel(50.0), [0.0], compression_top=True)
     assert tension.limit_state[0] == "yielding"
+    # Side not known: the weaker of the two, here the stem in compression.
+    unknown = flexure(_s("WT8X25"), _steel(50.0), np.array([0.0, 10.0]) * FT)
+    np.testing.assert_array_equal(
+        unknown.mn,
+        np.minimum(
+            r.mn,
+            flexure(
+                _s("WT8X25"), _steel(50.0), np.array([0.0, 10.0]) * FT, compression_top=True
+            ).mn,
+        ),
+    )
+    assert list(unknown.limit_state) == list(r.limit_state)
 
 
 def _leg_local(fy: float, sc: float, lam: float) -> float:

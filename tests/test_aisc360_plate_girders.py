@@ -252,7 +252,13 @@ def test_f4_singly_symmetric_both_ways() -> None:
     big = flexure(s, STEEL, [25 * FT], compression_top=True).mn[0]
     small = flexure(s, STEEL, [25 * FT], compression_top=False).mn[0]
     assert small < big
-    assert flexure(s, STEEL, [0.0]).limit_state[0] == "tension_flange_yielding"
+    assert flexure(s, STEEL, [0.0], compression_top=True).limit_state[0] == (
+        "tension_flange_yielding"
+    )
+    # Side not known (None, the default): the weaker side per segment.
+    lbs = np.array(lbs_ft) * FT
+    both = [flexure(s, STEEL, lbs, compression_top=side).mn for side in (True, False)]
+    np.testing.assert_array_equal(flexure(s, STEEL, lbs).mn, np.minimum(*both))
 
 
 def test_singly_symmetric_web_class_case_16() -> None:

@@ -426,13 +426,14 @@ def flexure(
     method: str = "LRFD",
     *,
     axis: str = "major",
-    compression_top: ArrayLike = True,
+    compression_top: ArrayLike | None = None,
 ) -> FlexureResult:
     """Chapter F flexural strength of one section for arrays of Lb and Cb.
 
     ``axis`` is the axis of bending ("major": x, "minor": y); ``compression_top``
     (per segment) says which side is in compression where it matters (singly
-    symmetric I-shapes, tees, angles). OutOfScope names the clause not covered.
+    symmetric I-shapes, tees, angles); None — not known — takes the weaker side.
+    OutOfScope names the clause not covered.
     """
     m = check_method(method)
     ax = _check_axis(axis)
@@ -445,14 +446,50 @@ def flexure(
         np.atleast_1d(np.asarray(lb, dtype=float)), np.atleast_1d(np.asarray(cb, dtype=float))
     )
     _validate(lb_a, cb_a)
-    top = np.broadcast_to(np.asarray(compression_top, dtype=bool), lb_a.shape)
+    sides = _sides(compression_top, lb_a.shape, _side_matters(section))
     out = _Collected(lb_a.size)
-    sides = (True, False) if _side_matters(section) else (True,)
-    for side in sides:
-        sel = np.flatnonzero(top == side) if len(sides) > 1 else np.arange(lb_a.size)
-        if sel.size:
-            out.put(sel, family_flexure(section, steel, lb_a[sel], cb_a[sel], ax, side))
+    for side in np.unique(sides):
+        sel = np.flatnonzero(sides == side)
+        _put_family(out, sel, section, steel, lb_a[sel], cb_a[sel], ax, int(side))
     return out.result(m)
+
+
+_UNKNOWN_SIDE = -1  # side codes: 1 top in compression, 0 bottom, -1 not known
+
+
+def _sides(
+    compression_top: ArrayLike | None, shape: tuple[int, ...], matters: bool
+) -> NDArray[np.int8]:
+    """Per-segment side codes (1 top, 0 bottom, −1 not known); 1 where the side does not matter."""
+    if not matters:
+        return np.ones(shape, dtype=np.int8)
+    if compression_top is None:
+        return np.full(shape, _UNKNOWN_SIDE, dtype=np.int8)
+    top = np.broadcast_to(np.asarray(compression_top, dtype=bool), shape)
+    return top.astype(np.int8)
+
+
+def _put_family(
+    out: _Collected,
+    sel: NDArray[np.intp],
+    section: Section,
+    steel: Steel,
+    lb: FloatArray,
+    cb: FloatArray,
+    axis: Axis,
+    side: int,
+) -> None:
+    """Evaluate one (section, axis, side) group into ``out``; side −1 keeps the weaker."""
+    if side != _UNKNOWN_SIDE:
+        out.put(sel, family_flexure(section, steel, lb, cb, axis, bool(side)))
+        return
+    top = family_flexure(section, steel, lb, cb, axis, True)
+    bottom = family_flexure(section, steel, lb, cb, axis, False)
+    out.put(sel, top)
+    lower = bottom.mn < top.mn
+    if lower.any():
+        b = bottom
+        out.put(sel[lower], FamilyFlexure(b.mn[lower], b.code[lower], b.mp, b.lp, b.lr, b.mr))
 
 
 def flexure_segments(
@@ -463,13 +500,14 @@ def flexure_segments(
     method: str = "LRFD",
     *,
     axis: ArrayLike = "major",
-    compression_top: ArrayLike = True,
+    compression_top: ArrayLike | None = None,
 ) -> FlexureResult:
     """Flexure of a whole model in one call.
 
     ``pairs`` are the distinct (section, steel) combinations, ``index`` gives
     for each segment the position of its pair; ``lb``, ``cb``, ``axis`` and
-    ``compression_top`` are per segment (or scalars). F2/F3 sections go through
+    ``compression_top`` are per segment (or scalars; None for "not known": the
+    weaker side of sections that are not doubly symmetric). F2/F3 sections go through
     one vectorised evaluation; the others are evaluated per (pair, axis, side).
     OutOfScope names every pair that Chapter F (as implemented) does not cover.
     """
@@ -507,7 +545,7 @@ def flexure_segments(
         return _evaluate(_constants(*columns).take(idx), lb_a, cb_a, m)
     _validate(lb_a, cb_a)
     minor = np.broadcast_to(axes == "minor", idx.shape)
-    top = np.broadcast_to(np.asarray(compression_top, dtype=bool), idx.shape)
+    sides = _sides(compression_top, idx.shape, True)
     out = _Collected(idx.size)
     fast = fast_pair[idx] & ~minor
     sel = np.flatnonzero(fast)
@@ -522,16 +560,16 @@ def flexure_segments(
     rest = np.flatnonzero(~fast)
     if rest.size:
         sided = np.array([_side_matters(s) for s, _ in pairs])
-        key = idx[rest] * 4 + minor[rest] * 2 + (top[rest] & sided[idx[rest]])
+        side_code = np.where(sided[idx[rest]], sides[rest], 1).astype(np.int64) + 1  # 0, 1, 2
+        key = idx[rest].astype(np.int64) * 8 + minor[rest] * 4 + side_code
         order = np.argsort(key, kind="stable")
         groups, starts = np.unique(key[order], return_index=True)
         for g, lo, hi in zip(groups, starts, [*starts[1:], order.size], strict=True):
             part = rest[order[lo:hi]]
-            k_pair, ax_bit, side = int(g) // 4, (int(g) // 2) % 2, bool(int(g) % 2)
+            k_pair, ax_bit, side = int(g) // 8, (int(g) // 4) % 2, int(g) % 4 - 1
             section, steel = pairs[k_pair]
-            side = side if sided[k_pair] else True
             ax: Axis = "minor" if ax_bit else "major"
-            out.put(part, family_flexure(section, steel, lb_a[part], cb_a[part], ax, side))
+            _put_family(out, part, section, steel, lb_a[part], cb_a[part], ax, side)
     return out.result(m)
 
 
@@ -633,7 +671,7 @@ def strength_curve(
     n: int = 200,
     *,
     axis: str = "major",
-    compression_top: bool = True,
+    compression_top: bool | None = None,
 ) -> tuple[FloatArray, FloatArray, NDArray[np.object_]]:
     """(Lb, design strength, limit state) from Lb = 0 to lb_max (default 1.5·Lr)."""
     curve = AISC360().strength_curve(
@@ -659,7 +697,7 @@ class AISC360(DesignStandard):
         method: str = "LRFD",
         *,
         axis: str = "major",
-        compression_top: ArrayLike = True,
+        compression_top: ArrayLike | None = None,
     ) -> FlexureResult:
         return flexure(section, steel, lb, cb, method, axis=axis, compression_top=compression_top)
 
@@ -688,7 +726,7 @@ class AISC360(DesignStandard):
         method: str = "LRFD",
         *,
         axis: ArrayLike = "major",
-        compression_top: ArrayLike = True,
+        compression_top: ArrayLike | None = None,
     ) -> FlexureResult:
         return flexure_segments(
             pairs, index, lb, cb, method, axis=axis, compression_top=compression_top

@@ -96,14 +96,15 @@ class DesignStandard(ABC):
         method: str = "LRFD",
         *,
         axis: str = "major",
-        compression_top: ArrayLike = True,
+        compression_top: ArrayLike | None = None,
     ) -> FlexureResult:
         """Flexural strength for each (Lb, Cb); OutOfScope if not covered.
 
         ``axis`` is "major" (bending about x) or "minor" (about y);
         ``compression_top`` (per segment) is True where the top of the section
-        (see ``Section``) is in compression, which matters for sections that
-        are not doubly symmetric.
+        (see ``Section``) is in compression, False where the bottom is, which
+        matters for sections that are not doubly symmetric; None (not known)
+        takes the weaker side.
         """
 
     @abstractmethod
@@ -133,7 +134,7 @@ class DesignStandard(ABC):
         method: str = "LRFD",
         *,
         axis: ArrayLike = "major",
-        compression_top: ArrayLike = True,
+        compression_top: ArrayLike | None = None,
     ) -> FlexureResult:
         """Flexure of many segments of many sections in one call.
 
@@ -146,7 +147,11 @@ class DesignStandard(ABC):
         lb_a = np.broadcast_to(np.asarray(lb, dtype=float), idx.shape)
         cb_a = np.broadcast_to(np.asarray(cb, dtype=float), idx.shape)
         axes = np.broadcast_to(np.asarray(axis), idx.shape)
-        top = np.broadcast_to(np.asarray(compression_top, dtype=bool), idx.shape)
+        top = (
+            None
+            if compression_top is None
+            else np.broadcast_to(np.asarray(compression_top, dtype=bool), idx.shape)
+        )
         fields = ("mp", "mn", "design_strength", "lp", "lr", "mr")
         out = {f: np.zeros(idx.size) for f in fields}
         states = np.empty(idx.size, dtype=object)
@@ -156,8 +161,9 @@ class DesignStandard(ABC):
                 sel = np.flatnonzero((idx == k) & (axes == ax))
                 if sel.size == 0:
                     continue
+                side = None if top is None else top[sel]
                 res = self.flexure(
-                    section, steel, lb_a[sel], cb_a[sel], method, axis=ax, compression_top=top[sel]
+                    section, steel, lb_a[sel], cb_a[sel], method, axis=ax, compression_top=side
                 )
                 for f in fields:
                     out[f][sel] = getattr(res, f)
@@ -175,7 +181,7 @@ class DesignStandard(ABC):
         n: int = 200,
         *,
         axis: str = "major",
-        compression_top: bool = True,
+        compression_top: bool | None = None,
     ) -> StrengthCurve:
         """Design strength sampled over Lb from 0 to ``lb_max``.
 
