@@ -258,6 +258,8 @@ def check_beams(
     index: list[int] = []
     lbs: list[float] = []
     cbs: list[float] = []
+    tops: list[bool] = []
+    axes: list[str] = []
     for m, mf, bd in beams:
         prepared = _prepare(m, mf, bd, standard, settings)
         results.append(prepared.out if isinstance(prepared, _Pending) else prepared)
@@ -273,9 +275,13 @@ def check_beams(
             index.append(k)
             lbs.append(prepared.specs[spec_i].lb)
             cbs.append(cb)
+            tops.append(prepared.specs[spec_i].flange == "top")
+            axes.append(m.bending_axis)
         pending.append(prepared)
     if pending:
-        flex = standard.flexure_many(pair_list, index, lbs, cbs, method)
+        flex = standard.flexure_many(
+            pair_list, index, lbs, cbs, method, axis=axes, compression_top=tops
+        )
         for i, p in enumerate(pending):
             _finish(p, flex, standard, settings)
             if progress is not None:
@@ -453,7 +459,7 @@ def _shear(
 ) -> None:
     assert m.section is not None and m.steel is not None
     try:
-        res = standard.shear(m.section, m.steel, method)
+        res = standard.shear(m.section, m.steel, method, axis=m.bending_axis)
     except OutOfScope as exc:
         out.notes.append(f"shear not checked: {exc}")
         return
@@ -507,27 +513,44 @@ def _curve(out: BeamResult, m: Member, standard: DesignStandard, method: str) ->
     if gov is None:
         return
     assert m.section is not None and m.steel is not None
-    out.curve = list(_curve_points(standard, m.section, m.steel, round(gov.cb, 2), method, gov.lb))
+    side = _Side(m.bending_axis, gov.flange == "top")
+    out.curve = list(
+        _curve_points(standard, m.section, m.steel, round(gov.cb, 2), method, gov.lb, side)
+    )
+
+
+@dataclass(frozen=True)
+class _Side:
+    """Which axis a segment bends about and whether its top is in compression."""
+
+    axis: str
+    compression_top: bool
 
 
 @functools.lru_cache(maxsize=4096)
-def _curve_limits(standard: DesignStandard, section, steel, method: str) -> float:
-    return float(standard.flexure(section, steel, [0.0], [1.0], method).lr[0])
+def _curve_limits(standard: DesignStandard, section, steel, method: str, side: _Side) -> float:
+    res = standard.flexure(
+        section, steel, [0.0], [1.0], method, axis=side.axis, compression_top=side.compression_top
+    )
+    return float(res.lr[0])
 
 
 def _curve_points(
-    standard: DesignStandard, section, steel, cb: float, method: str, lb: float
+    standard: DesignStandard, section, steel, cb: float, method: str, lb: float, side: _Side
 ) -> tuple[tuple[float, float], ...]:
     """Strength-versus-Lb curve through 1.5·Lr (or past the beam's own Lb), cached:
     many beams share a shape, grade and Cb."""
-    lr = _curve_limits(standard, section, steel, method)
+    lr = _curve_limits(standard, section, steel, method, side)
     lb_max = max(1.5 * lr, math.ceil(1.25 * lb), 1.0)
-    return _curve_cached(standard, section, steel, cb, method, lb_max)
+    return _curve_cached(standard, section, steel, cb, method, lb_max, side)
 
 
 @functools.lru_cache(maxsize=4096)
 def _curve_cached(
-    standard: DesignStandard, section, steel, cb: float, method: str, lb_max: float
+    standard: DesignStandard, section, steel, cb: float, method: str, lb_max: float, side: _Side
 ) -> tuple[tuple[float, float], ...]:
-    curve = standard.strength_curve(section, steel, cb, method, lb_max, CURVE_POINTS)
+    curve = standard.strength_curve(
+        section, steel, cb, method, lb_max, CURVE_POINTS,
+        axis=side.axis, compression_top=side.compression_top,
+    )  # fmt: skip
     return tuple((float(a), float(b)) for a, b in zip(curve.lb, curve.design_strength, strict=True))

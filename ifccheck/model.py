@@ -186,6 +186,12 @@ class Member:
         return max(self.start[2], self.end[2]) + half
 
     @property
+    def bending_axis(self) -> str:
+        """The section axis gravity bends it about: "minor" for a member placed web-flat
+        (its depth direction within 45° of horizontal), else "major"."""
+        return "minor" if abs(self.web_up[2]) < 0.7071 else "major"
+
+    @property
     def is_vertical(self) -> bool:
         return bool(abs(self.direction[2]) > 0.9)
 

@@ -211,6 +211,13 @@ def _pressures(
     return dead, live
 
 
+def _bending_stiffness(m: Member) -> float | None:
+    """E·I about the axis gravity bends the member about (N·m²), None without a section."""
+    if m.section is None or m.steel is None:
+        return None
+    return m.steel.E * (m.section.Iy if m.bending_axis == "minor" else m.section.Ix)
+
+
 def _slab_weight(slab: Slab, settings: Settings) -> float:
     """Self-weight of a slab or declared deck, Pa."""
     if slab.self_weight is not None:
@@ -414,7 +421,7 @@ def _compute_demand(
             extra = {b.station + off for b in fr.brace_points}
             extra |= {x + off for iv in fr.continuous_bracing for x in iv}
             extra = {x for x in extra if 0.0 <= x <= bd.span_length}
-            EI = m.steel.E * m.section.Ix if m.section is not None and m.steel is not None else None
+            EI = _bending_stiffness(m)
             problems.append(BeamProblem(bd.span_length, supports, cases, EI, sorted(extra)))
         factors = [c.factors for c in combos]
         for g, res in zip(level, analyse_beams(problems, combinations=factors), strict=True):
