@@ -226,7 +226,7 @@ class _Pending:
     out: BeamResult
     member: Member
     demand: BeamDemand
-    diagrams: list
+    diagrams: list  # (combination, diagram) the rows were drawn from
     specs: list[SegmentSpec]
     rows: list[tuple[int, str, float, float]]  # (spec index, combination, demand, Cb)
     first: int = 0  # position of its first row in the model-wide arrays
@@ -314,14 +314,14 @@ def _prepare(
         tips = np.array([s.cantilever for s in specs])
         top = np.array([s.flange == "top" for s in specs])
         loose = ~np.array([s.continuous for s in specs])
-        # an analysis gives |M| without telling which flange it compresses:
-        # both flanges are checked for it (conservative)
-        either = bd.source == "analysis"
-        if either:
-            out.notes.append("analysis moment checked on both flanges (its sign is not known)")
+        # an analysis moment without its sign: both flanges are checked for it (conservative)
+        given = bd.from_analysis if bd.source == "analysis" else None
+        either = given is not None and not given.signed
         off = bd.offset if bd.analysis is not None else 0.0  # analysis line from a centreline
         for name, d in diagrams:
             demand, cb = _segment_demands(d, starts + off, ends + off, tips, top, standard, either)
+            if given is not None and given.cb is not None:
+                cb = np.full_like(cb, given.cb)  # the analysis's own Cb
             cb = np.where(loose, cb, 1.0)
             rows += [(i, name, float(demand[i]), float(cb[i])) for i in range(len(specs))]
     return _Pending(out, m, bd, diagrams, specs, rows)
@@ -432,26 +432,79 @@ class _UniformMoment:
 
 
 def _strength_diagrams(bd: BeamDemand, length: float, out: BeamResult) -> list:
-    """(combination, diagram) pairs; analysis demand rescales or replaces them."""
+    """(combination, diagram) pairs; analysis demand rescales or replaces them.
+
+    An analysis moment keeps the shape of the computed combination with the
+    largest moment (for Cb): its sagging part scaled to the analysis's sagging
+    maximum and its hogging part to the hogging one. A part the computed shape
+    lacks is taken as uniform along the beam (Cb = 1.0, conservative). A moment
+    without its sign scales the whole shape to it.
+    """
     computed = (
         [(c.name, bd.analysis.combine(c.factors)) for c in bd.combinations]
         if bd.analysis is not None
         else []
     )
-    if bd.source != "analysis":
+    given = bd.from_analysis
+    if bd.source != "analysis" or given is None:
         return computed
+    shape = None
     if computed:
-        # the computed combination with the largest moment gives the shape
         name, shape = max(computed, key=lambda nd: float(np.max(np.abs(nd[1].M))))
-        peak = float(np.max(np.abs(shape.M)))
-        if peak > 0:
-            scale = bd.max_moment / peak
-            out.notes.append(
-                f"analysis moment applied to the shape of {name} (scaled by {scale:.3f})"
-            )
-            return [("analysis", shape.scaled(scale))]
-    out.notes.append("analysis moment taken as uniform along the beam (Cb = 1.0)")
-    return [("analysis", _UniformMoment(length, bd.max_moment))]
+        out.notes.append(f"analysis moment applied to the shape of {name}")
+    if not given.signed:
+        peak = float(np.max(np.abs(shape.M))) if shape is not None else 0.0
+        if shape is not None and peak > 0:
+            return [("analysis", shape.scaled(given.peak / peak))]
+        out.notes.append("analysis moment taken as uniform along the beam (Cb = 1.0)")
+        return [("analysis", _UniformMoment(length, given.peak))]
+    return _signed_diagrams(shape, given.sagging, given.hogging, length)
+
+
+def _signed_diagrams(
+    shape: Diagram | None, sagging: float, hogging: float, length: float
+) -> list[tuple[str, _Sampled]]:
+    """The shape's sagging part scaled to ``sagging`` and hogging part to ``hogging``;
+    a part the shape lacks becomes a uniform moment of that sign, as a second diagram."""
+    if shape is not None:
+        x = np.maximum.accumulate(np.asarray(shape.x, dtype=float))
+        m = np.asarray(shape.M, dtype=float)
+    else:
+        x, m = np.array([0.0, length]), np.zeros(2)
+    pos, neg = float(np.max(m, initial=0.0)), float(-np.min(m, initial=0.0))
+    sag = np.where(m > 0, m * (sagging / pos), 0.0) if pos > 0 else None
+    hog = np.where(m < 0, m * (hogging / neg), 0.0) if neg > 0 else None
+    shear = shape.shear_at if shape is not None else None
+    k = max(sagging, hogging) / max(pos, neg) if max(pos, neg) > 0 else 0.0
+    if sag is not None and hog is not None:
+        return [("analysis", _Sampled(x, sag + hog, shear, k))]
+    out: list[tuple[str, _Sampled]] = []
+    if sagging > 0 or hogging == 0:
+        out.append(("analysis", _Sampled(x, sag if sag is not None else np.full_like(m, sagging),
+                                         shear, k)))  # fmt: skip
+    if hogging > 0:
+        name = "analysis" if not out else "analysis (hogging)"
+        out.append((name, _Sampled(x, hog if hog is not None else np.full_like(m, -hogging),
+                                   shear, k)))  # fmt: skip
+    return out
+
+
+class _Sampled:
+    """A moment diagram given by samples (stations non-decreasing), for analysis demand."""
+
+    def __init__(self, x: np.ndarray, moment: np.ndarray, shear, shear_scale: float) -> None:
+        self.x, self.M = x, moment
+        self.nodes = x
+        self.length = float(x[-1] - x[0])
+        self._shear, self._k = shear, shear_scale
+
+    def moment_at(self, stations) -> np.ndarray:
+        return np.interp(np.asarray(stations, dtype=float), self.x, self.M)
+
+    def shear_at(self, stations) -> np.ndarray:
+        if self._shear is None:
+            return np.zeros(np.shape(np.atleast_1d(stations)))
+        return self._shear(stations) * self._k
 
 
 def _shear(

@@ -76,3 +76,37 @@ def test_slab_bracing_that_moves_is_a_loss_where_it_left():
     change = compare_beam(old, new, "guid")
     assert change is not None and change.change == "weakened"
     assert change.lost_continuous_bracing == pytest.approx(3.0)
+
+
+@pytest.fixture(scope="module")
+def signed(tmp_path_factory):
+    """Revision A with analysis demand given by sign (the demo's own loads)."""
+    from ifccheck.config import load_settings
+
+    csv = tmp_path_factory.mktemp("signed") / "demand.csv"
+    model = SAMPLES / "quillfeather-rev-a.ifc"
+    settings = load_settings(SAMPLES / "quillfeather.toml")
+    plain, _, _ = run_check(model, settings)
+    guid = {b.name: b.guid for b in plain.beams}
+    csv.write_text(f"guid,moment_pos (kip-ft),moment_neg (kip-ft)\n{guid['L2-B2-10']},180,\n")
+    unsigned = csv.with_name("unsigned.csv")
+    unsigned.write_text(f"guid,moment (kip-ft)\n{guid['L2-B2-10']},180\n")
+    a, _, _ = run_check(model, settings, csv)
+    b, _, _ = run_check(model, settings, unsigned)
+    return {x.name: x for x in a.beams}, {x.name: x for x in b.beams}
+
+
+def test_a_sagging_analysis_moment_loads_only_the_top_flange(signed):
+    by_sign, unsigned = signed
+    b = by_sign["L2-B2-10"]
+    # the slab braces the top flange over the whole span: 180 kip-ft sagging only
+    assert {s.flange for s in b.segments} == {"top"}
+    assert all(s.continuous for s in b.segments)
+    assert max(s.moment_demand for s in b.segments) == pytest.approx(180 * KIP_FT, rel=1e-6)
+    assert b.outcome == "pass"
+    # given without its sign, the unbraced bottom flange (Lb = 30 ft) is checked for it too
+    u = unsigned["L2-B2-10"]
+    bottom = [s for s in u.segments if s.flange == "bottom"]
+    assert bottom and bottom[0].lb == pytest.approx(30 * 0.3048, rel=1e-6)
+    assert u.utilisation > b.utilisation
+    assert any("without its sign" in n for n in u.notes)

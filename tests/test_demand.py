@@ -33,7 +33,7 @@ from ifccheck.config import Settings, settings_from_dict
 from ifccheck.design import get_standard
 from ifccheck.errors import DemandFileError
 from ifccheck.loads.combinations import LIVE_DEFLECTION, TOTAL_DEFLECTION
-from ifccheck.loads.demand import compute_demand, load_demand_csv
+from ifccheck.loads.demand import AnalysisDemand, compute_demand, load_demand_csv
 from ifccheck.reasons import NotChecked
 from ifccheck.results import DemandOut
 
@@ -188,8 +188,10 @@ def test_override_from_csv(tmp_path: Path) -> None:
     p = write(tmp_path, "guid,moment (kip-ft),shear [kip]\nB1,250,-30\nG1,400,\nNOPE,1,1\n")
     demand = load_demand_csv(p)
     kipft, kip = 1e3 * LBF * FT, 1e3 * LBF
-    assert demand["B1"] == (pytest.approx(250 * kipft), pytest.approx(30 * kip))
-    assert demand["G1"] == (pytest.approx(400 * kipft), None)
+    b1_given = demand["B1"]  # `moment`: a magnitude without its sign
+    assert not b1_given.signed and b1_given.sagging == b1_given.hogging
+    assert b1_given.peak == pytest.approx(250 * kipft) and b1_given.shear == pytest.approx(30 * kip)
+    assert demand["G1"].peak == pytest.approx(400 * kipft) and demand["G1"].shear is None
     m, fr = bay_30ft()
     r = compute_demand(m, fr, Settings(), overrides=demand)
     b1, g1 = r.beams["B1"], r.beams["G1"]
@@ -218,14 +220,27 @@ def test_override_from_csv(tmp_path: Path) -> None:
 def test_csv_units_in_cells(tmp_path: Path) -> None:
     p = write(tmp_path, "GUID,Moment,Shear\nB1,339 kN*m,120 kN\nB2,250 kip-ft,\n")
     d = load_demand_csv(p)
-    assert d["B1"] == (pytest.approx(339e3), pytest.approx(120e3))
-    assert d["B2"][0] == pytest.approx(250e3 * LBF * FT)
+    assert (d["B1"].peak, d["B1"].shear) == (pytest.approx(339e3), pytest.approx(120e3))
+    assert d["B2"].peak == pytest.approx(250e3 * LBF * FT)
+
+
+def test_signed_and_split_moment_columns(tmp_path: Path) -> None:
+    p = write(tmp_path, "guid,moment_pos (kN*m),moment_neg (kN*m),cb\nB1,120,45,1.3\nB2,80,,\n")
+    d = load_demand_csv(p)
+    assert (d["B1"].sagging, d["B1"].hogging, d["B1"].cb) == (120e3, 45e3, 1.3)
+    assert d["B1"].signed and (d["B2"].sagging, d["B2"].hogging) == (80e3, 0.0)
+    p = write(tmp_path, "guid,moment_signed (kN*m)\nB1,-60\nB2,75\n")
+    d = load_demand_csv(p)
+    assert (d["B1"].sagging, d["B1"].hogging) == (0.0, 60e3)  # negative: hogging
+    assert (d["B2"].sagging, d["B2"].hogging) == (75e3, 0.0)
 
 
 @pytest.mark.parametrize(
     ("text", "message"),
     [
-        ("guid,shear (kN)\nB1,3\n", "no 'moment' column"),
+        ("guid,shear (kN)\nB1,3\n", "no moment column"),
+        ("guid,moment (kN*m),moment_pos (kN*m)\nB1,3,4\n", "one kind of moment column"),
+        ("guid,moment_pos (kN*m),cb\nB1,3,5\n", "cb 5 is outside 1.0 to 3.0"),
         ("moment (kN*m)\n3\n", "no 'guid' column"),
         ("guid,moment (psf)\nB1,3\n", "column 'moment': 'psf' is not a moment unit"),
         ("guid,moment (kN*m)\nB1,lots\n", "line 2: moment:"),
@@ -312,7 +327,7 @@ def test_beam_outside_the_framing_analysis() -> None:
 
 def test_override_gives_demand_to_a_beam_that_could_not_be_computed() -> None:
     m, fr = small_floor()
-    r = compute_demand(m, fr, Settings(), overrides={"U": (5e4, 2e4)})
+    r = compute_demand(m, fr, Settings(), overrides={"U": AnalysisDemand(5e4, 5e4, 2e4, signed=False)})
     u = r.beams["U"]
     assert u.reason is None and u.source == "analysis" and u.max_moment == 5e4
     assert any("analysis demand used" in n for n in u.notes)

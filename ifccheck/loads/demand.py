@@ -91,6 +91,26 @@ class PointLoadItem:
     source: str  # GUID of the beam whose reaction this is
 
 
+@dataclass(frozen=True)
+class AnalysisDemand:
+    """Demand on one beam from an analysis (N·m, N).
+
+    ``sagging`` compresses the top flange, ``hogging`` the bottom one (both as
+    magnitudes). ``signed`` is False when the file gave a moment without its
+    sign: then both flanges are checked for ``sagging`` (= ``hogging``).
+    """
+
+    sagging: float
+    hogging: float
+    shear: float | None = None
+    cb: float | None = None
+    signed: bool = True
+
+    @property
+    def peak(self) -> float:
+        return max(self.sagging, self.hogging)
+
+
 @dataclass
 class SupportReaction:
     """One support of a beam and its unfactored reaction per load case."""
@@ -135,6 +155,7 @@ class BeamDemand:
     offset: float = 0.0
     span_length: float = 0.0
     floor_loaded: bool = False  # a floor or roof load reached it (itself or carried)
+    from_analysis: AnalysisDemand | None = None  # its line of the demand file
 
     @property
     def computed(self) -> bool:
@@ -316,7 +337,7 @@ def compute_demand(
     model: Model,
     framing: Framing,
     settings: Settings,
-    overrides: Mapping[str, tuple[float, float | None]] | None = None,
+    overrides: Mapping[str, AnalysisDemand] | None = None,
 ) -> DemandResult:
     """Demand on every floor beam of the model (see the module docstring)."""
     with gc_paused():
@@ -327,7 +348,7 @@ def _compute_demand(
     model: Model,
     framing: Framing,
     settings: Settings,
-    overrides: Mapping[str, tuple[float, float | None]] | None,
+    overrides: Mapping[str, AnalysisDemand] | None,
 ) -> DemandResult:
     trib = compute_tributary(model, settings, framing)
     members = {m.guid: m for m in model.members}
@@ -652,10 +673,8 @@ def _deliver(
                 balance.add(bd.storey, c, R)
 
 
-def _apply_overrides(
-    result: DemandResult, overrides: Mapping[str, tuple[float, float | None]]
-) -> None:
-    for guid, (moment, shear) in overrides.items():
+def _apply_overrides(result: DemandResult, overrides: Mapping[str, AnalysisDemand]) -> None:
+    for guid, given in overrides.items():
         bd = result.beams.get(guid)
         if bd is None:
             result.warnings.append(
@@ -663,17 +682,23 @@ def _apply_overrides(
             )
             continue
         bd.source = "analysis"
-        bd.max_moment = abs(moment)
+        bd.from_analysis = given
+        bd.max_moment = given.peak
         bd.governing_moment = "analysis"
-        if shear is not None:
-            bd.max_shear = abs(shear)
+        if given.shear is not None:
+            bd.max_shear = given.shear
             bd.governing_shear = "analysis"
         elif bd.analysis is None:
             bd.notes.append("demand file gives no shear and none could be computed")
         if bd.reason:
             bd.notes.append(f"computed demand unavailable ({bd.reason}); analysis demand used")
             bd.reason = None
-        bd.notes.append("moment" + (" and shear" if shear is not None else "") + " from analysis")
+        what = "moment" + (" and shear" if given.shear is not None else "")
+        bd.notes.append(f"{what} from analysis")
+        if not given.signed:
+            bd.notes.append(
+                "analysis moment given without its sign: both flanges are checked for it"
+            )
 
 
 # -- demand from an analysis -------------------------------------------------------------
@@ -681,15 +706,21 @@ def _apply_overrides(
 _HEADER = re.compile(r"^\s*(?P<name>[A-Za-z_ ]+?)\s*(?:[\(\[](?P<unit>[^\)\]]*)[\)\]])?\s*$")
 
 
-def load_demand_csv(path: Path) -> dict[str, tuple[float, float | None]]:
-    """Read beam demand from an analysis: GUID → (moment N·m, shear N or None).
+_MOMENT_COLUMNS = ("moment", "moment_signed", "moment_pos", "moment_neg")
 
-    Columns: ``guid``, ``moment`` and optionally ``shear``. Units go in the
-    header in parentheses or brackets — ``moment (kip-ft)``, ``shear [kN]`` —
-    and the cells hold plain numbers; a header without a unit needs a unit in
-    every cell ("250 kip*ft"). Signs are dropped (demand is a magnitude); an
-    empty shear cell means no shear given. Unknown GUIDs are for the caller
-    to report (``compute_demand`` warns about them).
+
+def load_demand_csv(path: Path) -> dict[str, AnalysisDemand]:
+    """Read beam demand from an analysis: GUID → :class:`AnalysisDemand`.
+
+    Columns: ``guid``; the moment as either ``moment_pos`` and/or
+    ``moment_neg`` (the sagging and hogging maxima, as magnitudes),
+    ``moment_signed`` (one value: positive sagging, the top flange in
+    compression; negative hogging), or ``moment`` (a magnitude whose sign is
+    not known: both flanges are checked for it); optionally ``shear`` and
+    ``cb`` (overrides Cb for the beam's segments, 1.0 to 3.0). Units go in
+    the header in parentheses or brackets — ``moment_pos (kip-ft)``,
+    ``shear [kN]`` — or in every cell ("250 kip*ft"). An empty shear or cb
+    cell means none given. Unknown GUIDs are for the caller to report.
     """
     path = Path(path)
     try:
@@ -710,39 +741,60 @@ def load_demand_csv(path: Path) -> dict[str, tuple[float, float | None]]:
             raise DemandFileError(f"demand file {path}: column {name!r} appears twice")
         unit = m.group("unit").strip() if m and m.group("unit") else None
         cols[name] = (i, unit)
-    for need in ("guid", "moment"):
-        if need not in cols:
-            raise DemandFileError(
-                f"demand file {path}: no {need!r} column (header: {', '.join(rows[0])})"
-            )
-    dims = {"moment": "moment", "shear": "force"}
-    for name in ("moment", "shear"):
+    header = ", ".join(rows[0])
+    if "guid" not in cols:
+        raise DemandFileError(f"demand file {path}: no 'guid' column (header: {header})")
+    given = [c for c in _MOMENT_COLUMNS if c in cols]
+    if not given:
+        raise DemandFileError(
+            f"demand file {path}: no moment column: moment_pos/moment_neg, moment_signed "
+            f"or moment (header: {header})"
+        )
+    kinds = {"moment", "moment_signed"} & set(given)
+    if len(kinds) > 1 or (kinds and {"moment_pos", "moment_neg"} & set(given)):
+        raise DemandFileError(
+            f"demand file {path}: give one kind of moment column, not {', '.join(given)}"
+        )
+    dims = {name: "moment" for name in _MOMENT_COLUMNS} | {"shear": "force"}
+    for name, dim in dims.items():
         unit = cols.get(name, (0, None))[1]
         if unit is not None:
             try:
-                parse_quantity(f"1 {unit}", dims[name])
+                parse_quantity(f"1 {unit}", dim)
             except QuantityError:
                 raise DemandFileError(
-                    f"demand file {path}: column {name!r}: {unit!r} is not a {dims[name]} unit"
+                    f"demand file {path}: column {name!r}: {unit!r} is not a {dim} unit"
                 ) from None
 
-    def cell(row: list[str], name: str, line: int) -> float | None:
+    def cell(row: list[str], name: str, line: int, optional: bool) -> float | None:
         if name not in cols:
             return None
         i, unit = cols[name]
         raw = row[i].strip() if i < len(row) else ""
         if not raw:
-            if name == "shear":
+            if optional:
                 return None
             raise DemandFileError(f"demand file {path}: line {line}: empty {name}")
+        if name == "cb":
+            try:
+                cb = float(raw)
+            except ValueError:
+                raise DemandFileError(
+                    f"demand file {path}: line {line}: cb {raw[:30]!r} is not a number"
+                ) from None
+            if not 1.0 <= cb <= 3.0:
+                raise DemandFileError(
+                    f"demand file {path}: line {line}: cb {cb:g} is outside 1.0 to 3.0"
+                )
+            return cb
         text = f"{raw} {unit}" if unit else raw
         try:
-            v = parse_quantity(text, dims[name])
+            return parse_quantity(text, dims[name])
         except QuantityError as e:
             raise DemandFileError(f"demand file {path}: line {line}: {name}: {e}") from None
-        return abs(v)
 
-    out: dict[str, tuple[float, float | None]] = {}
+    out: dict[str, AnalysisDemand] = {}
+    pos_neg = not kinds
     for line, row in enumerate(rows[1:], start=2):
         gi = cols["guid"][0]
         guid = row[gi].strip() if gi < len(row) else ""
@@ -750,6 +802,19 @@ def load_demand_csv(path: Path) -> dict[str, tuple[float, float | None]]:
             raise DemandFileError(f"demand file {path}: line {line}: empty guid")
         if guid in out:
             raise DemandFileError(f"demand file {path}: line {line}: {guid} appears twice")
-        moment = cell(row, "moment", line) or 0.0  # never None: an empty moment raises
-        out[guid] = (moment, cell(row, "shear", line))
+        shear = cell(row, "shear", line, optional=True)
+        cb = cell(row, "cb", line, optional=True)
+        shear = abs(shear) if shear is not None else None
+        if pos_neg:
+            pos = cell(row, "moment_pos", line, optional=True)
+            neg = cell(row, "moment_neg", line, optional=True)
+            if pos is None and neg is None:
+                raise DemandFileError(f"demand file {path}: line {line}: no moment given")
+            out[guid] = AnalysisDemand(abs(pos or 0.0), abs(neg or 0.0), shear, cb)
+        elif "moment_signed" in cols:
+            v = cell(row, "moment_signed", line, optional=False) or 0.0
+            out[guid] = AnalysisDemand(max(v, 0.0), max(-v, 0.0), shear, cb)
+        else:
+            v = abs(cell(row, "moment", line, optional=False) or 0.0)
+            out[guid] = AnalysisDemand(v, v, shear, cb, signed=False)
     return out
