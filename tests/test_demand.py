@@ -327,7 +327,8 @@ def test_beam_outside_the_framing_analysis() -> None:
 
 def test_override_gives_demand_to_a_beam_that_could_not_be_computed() -> None:
     m, fr = small_floor()
-    r = compute_demand(m, fr, Settings(), overrides={"U": AnalysisDemand(5e4, 5e4, 2e4, signed=False)})
+    given = {"U": AnalysisDemand(5e4, 5e4, 2e4, signed=False)}
+    r = compute_demand(m, fr, Settings(), overrides=given)
     u = r.beams["U"]
     assert u.reason is None and u.source == "analysis" and u.max_moment == 5e4
     assert any("analysis demand used" in n for n in u.notes)
