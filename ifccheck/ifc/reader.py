@@ -395,7 +395,7 @@ class _Reader:
         if set_profile is not None:
             resolved = section_from_profile(set_profile, self.scale)
             resolved.source = set_source
-            if resolved.section is None and set_name:
+            if resolved.section is None and resolved.shape is None and set_name:
                 by_set_name = resolve_name(set_name)
                 if by_set_name is not None and by_set_name.section is not None:
                     by_set_name.source = set_source
