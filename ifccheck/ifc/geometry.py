@@ -246,7 +246,7 @@ def curve_points(curve: Entity) -> np.ndarray | None:
     if curve.is_a("IfcTrimmedCurve") and curve.BasisCurve.is_a("IfcCircle"):
         return _trimmed_circle(curve)
     if curve.is_a("IfcCompositeCurve"):
-        parts = []
+        parts: list[np.ndarray] = []
         for seg in curve.Segments:
             sub = curve_points(seg.ParentCurve)
             if sub is None:

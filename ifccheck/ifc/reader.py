@@ -92,7 +92,7 @@ def open_ifc(path: str | Path, warnings: list[str] | None = None) -> ifcopenshel
     m = _FILE_SCHEMA.search(header)
     declared = m.group(1).decode("ascii").upper() if m else ""
     target = next((v for k, v in SCHEMA_FALLBACK.items() if declared.startswith(k)), None)
-    if target is not None and declared not in _known_schemas():
+    if m is not None and target is not None and declared not in _known_schemas():
         return _open_as(p, m, declared, target, warnings)
     return _parse(p, str(p))
 
@@ -263,9 +263,9 @@ class _Reader:
     def _storey(self, element: Entity) -> str:
         """The storey an element is in, through the assemblies it is a part of."""
         container = uelement.get_container(element)
-        whole = element
+        whole: Entity | None = element
         while container is None:
-            whole = uelement.get_aggregate(whole)
+            whole = uelement.get_aggregate(whole) if whole is not None else None
             if whole is None or whole.is_a("IfcSpatialElement" if self.ifc.schema != "IFC2X3"
                                            else "IfcSpatialStructureElement"):  # fmt: skip
                 container = whole

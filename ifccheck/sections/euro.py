@@ -18,10 +18,12 @@ dimensions in the name and are read by :mod:`ifccheck.sections.names`.
 
 from __future__ import annotations
 
+import ast
+import importlib.util
 import math
 import re
 from functools import cache
-from typing import Any
+from pathlib import Path
 
 from ifccheck.model import Section, ShapeFamily
 from ifccheck.sections.dimensions import Shape, section_of
@@ -134,19 +136,49 @@ def series(designation: str) -> str:
     return m.group(0) if m else ""
 
 
+# structuralcodes module (geometry/profiles/_<name>.py) holding each class's table
+_MODULES = {
+    "IPE": "_ipe", "HE": "_he", "IPN": "_ipn", "UPN": "_upn", "UPE": "_upe", "UB": "_ub",
+    "UC": "_uc", "UBP": "_ubp", "HD": "_hd", "HP": "_hp", "L": "_l", "LI": "_li",
+}  # fmt: skip
+
+
+def _read_parameters(folder: Path, module: str, cls_name: str) -> dict[str, dict[str, float]]:
+    """The literal ``parameters`` table of a structuralcodes profile class, read from its
+    source without importing the package (whose import loads every design code, ~0.7 s)."""
+    tree = ast.parse((folder / f"{module}.py").read_text(encoding="utf-8"))
+    for node in tree.body:
+        if isinstance(node, ast.ClassDef) and node.name == cls_name:
+            for stmt in node.body:
+                if isinstance(stmt, ast.Assign) and any(
+                    isinstance(t, ast.Name) and t.id == "parameters" for t in stmt.targets
+                ):
+                    return ast.literal_eval(stmt.value)
+    raise LookupError(f"structuralcodes: no {cls_name}.parameters in {module}.py")
+
+
+def _parameters() -> dict[str, dict[str, dict[str, float]]]:
+    spec = importlib.util.find_spec("structuralcodes")
+    if spec is None or not spec.submodule_search_locations:
+        raise ModuleNotFoundError("structuralcodes is not installed")
+    folder = Path(next(iter(spec.submodule_search_locations))) / "geometry" / "profiles"
+    try:
+        return {c: _read_parameters(folder, m, c) for c, m in _MODULES.items()}
+    except (OSError, SyntaxError, ValueError, LookupError):  # a layout this reader does not know
+        from structuralcodes.geometry import profiles  # type: ignore[import-untyped]
+
+        return {c: getattr(profiles, c).parameters for c in _MODULES}
+
+
 @cache
 def _tables() -> dict[str, dict[str, dict[str, float]]]:
-    """Series class name → {catalogue key (upper case) → dimensions in mm}."""
-    from structuralcodes.geometry import profiles  # imported on first use: it is slow
-
-    out: dict[str, dict[str, dict[str, float]]] = {}
-    for cls_name in {cls for cls, _ in _SERIES.values()} | {"LI"}:
-        cls: Any = getattr(profiles, cls_name)
-        out[cls_name] = {
-            _catalogue_key(k): {n: float(v) for n, v in dims.items()}
-            for k, dims in cls.parameters.items()
+    """Series class name → {catalogue key (canonical) → dimensions in mm}."""
+    return {
+        cls_name: {
+            _catalogue_key(k): {n: float(v) for n, v in dims.items()} for k, dims in table.items()
         }
-    return out
+        for cls_name, table in _parameters().items()
+    }
 
 
 def _catalogue_key(key: str) -> str:
