@@ -81,6 +81,23 @@ class Section:
     # shapes); when not tabulated, d - 2(tf + r).
     h: float = 0.0
     mass_per_length: float = 0.0  # kg/m, from A and 7850 kg/m³ unless tabulated
+    # --- Design-engine fields (AISC 360-16 F4-F10, Chapter E). The defaults describe a
+    # doubly symmetric section, so a Section built without them keeps its meaning.
+    # How it was made: "rolled", "welded" or "" (unknown); the one decision is
+    # ifccheck.sections.classify.is_built_up.
+    fabrication: str = ""
+    bf_bottom: float = 0.0  # bottom flange width of a singly symmetric I (0: same as bf)
+    tf_bottom: float = 0.0  # bottom flange thickness (0: same as tf)
+    # Elastic and plastic neutral axes (bending about x) below the top fibre (0: d/2).
+    # "Top" is the flange of a tee and the outstanding legs of a double angle (as the
+    # AISC tables draw them), and the toe of a single angle's vertical leg d (as IFC
+    # draws an L: heel at the bottom).
+    y_top: float = 0.0
+    y_plastic: float = 0.0
+    x0: float = 0.0  # shear centre from the centroid along x (m), for Chapter E4
+    y0: float = 0.0  # shear centre from the centroid along y, positive up (m)
+    rz: float = 0.0  # least (principal-axis) radius of gyration of an angle (m)
+    pair_gap: float | None = None  # double angle (2L): gap between the backs; None: single
 
     @property
     def flange_slenderness(self) -> float:

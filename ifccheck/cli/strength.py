@@ -1,20 +1,35 @@
-"""`ifccheck strength`: flexural strength of one shape at one unbraced length.
+"""`ifccheck strength`: flexural and shear strength of one shape at one unbraced length.
 
-SHAPE is a designation from the AISC Shapes Database v16.0 (W24X84,
-W610x125, C15X50...) or plate dimensions, in either of two spellings:
+SHAPE is a designation that ``ifccheck.sections.lookup`` resolves (the AISC
+Shapes Database v16.0: W24X84, W610x125, C12X20.7, MC18X58, WT8X25, L4X4X1/2,
+2L4X4X1/2X3/8, HSS10X6X3/8, HSS6.625X0.280, PIPE6STD; and any other catalogue
+hooked into it, e.g. UPE200 or "RHS 200x100x8") or dimensions, in either of
+two spellings, one unit for all numbers or one per number:
 
-    I:300x150x7.1x10.7x15mm      kind:d x bf x tw x tf [x r] unit
-    "I d=300mm bf=150mm tw=7.1mm tf=10.7mm r=15mm"
+    KIND:n1 x n2 x ... unit           e.g. I:300x150x7.1x10.7x15mm
+    "KIND key=value key=value ..."    e.g. "I d=300mm bf=150mm tw=7.1mm tf=10.7mm"
 
-kind is I (doubly symmetric I-shape) or C (channel); r (fillet radius) is
-optional; units are any pint length unit (mm, cm, m, in, ft).
+    KIND  numbers, in this order ([optional])   family
+    I     d bf tw tf [r]                        I-shape (r: fillet radius)
+    IS    d bft tft bfb tfb tw [r]              singly symmetric I (top, bottom flange)
+    C     d bf tw tf [r]                        channel
+    T     d bf tw tf [r]                        tee, flange on top
+    L     d b t [r]                             single angle (d vertical leg)
+    2L    d b t [gap] [r]                       double angle, legs d back to back
+    RHS   d b t [r]                             rectangular/square HSS (r: outside corner)
+    CHS   od t                                  round HSS or pipe
+
+Lengths take any pint unit (mm, cm, m, in, ft). A shape with no fillet radius
+counts as built-up (welded) unless ``--fabrication rolled`` says otherwise.
 """
 
 from __future__ import annotations
 
+import dataclasses
 import json
 import math
 import re
+from collections.abc import Callable
 from dataclasses import dataclass
 from typing import Any
 
@@ -24,7 +39,7 @@ from ifccheck import CAUTION
 from ifccheck.design.aisc360 import AISC360, flexure, scope, shear
 from ifccheck.design.base import check_method
 from ifccheck.errors import QuantityError, UsageError
-from ifccheck.model import Section, Steel
+from ifccheck.model import Section, ShapeFamily, Steel
 from ifccheck.sections import (
     channel_from_dimensions,
     classify_flexure,
@@ -35,6 +50,15 @@ from ifccheck.sections import (
     steel_from_name,
     steel_from_yield,
 )
+from ifccheck.sections.classify import Slenderness, is_built_up
+from ifccheck.sections.shapes import (
+    angle_from_dimensions,
+    double_angle_from_dimensions,
+    rect_hollow_from_dimensions,
+    round_hollow_from_dimensions,
+    singly_symmetric_i_from_dimensions,
+    tee_from_dimensions,
+)
 from ifccheck.units import (
     UnitSystem,
     convert,
@@ -42,6 +66,7 @@ from ifccheck.units import (
     display_label,
     parse_quantity,
     system_for,
+    to_si,
     unit_name,
 )
 
@@ -55,10 +80,40 @@ def _quantity(text: str, dimension: str, what: str) -> tuple[float, str]:
     return value, unit_name(text)
 
 
+@dataclass(frozen=True)
+class _Kind:
+    keys: tuple[str, ...]  # in the compact spelling's order
+    required: int  # how many of them must be given
+    build: Callable[..., Section]
+
+
+_KINDS: dict[str, _Kind] = {
+    "I": _Kind(("d", "bf", "tw", "tf", "r"), 4, i_section_from_dimensions),
+    "IS": _Kind(
+        ("d", "bft", "tft", "bfb", "tfb", "tw", "r"),
+        6,
+        lambda name, d, bft, tft, bfb, tfb, tw, r=0.0: singly_symmetric_i_from_dimensions(
+            name, d, bft, tft, bfb, tfb, tw, r
+        ),
+    ),
+    "C": _Kind(("d", "bf", "tw", "tf", "r"), 4, channel_from_dimensions),
+    "T": _Kind(("d", "bf", "tw", "tf", "r"), 4, tee_from_dimensions),
+    "L": _Kind(("d", "b", "t", "r"), 3, angle_from_dimensions),
+    "2L": _Kind(("d", "b", "t", "gap", "r"), 3, double_angle_from_dimensions),
+    "RHS": _Kind(
+        ("d", "b", "t", "r"),
+        3,
+        lambda name, d, b, t, r=None: rect_hollow_from_dimensions(name, d, b, t, r),
+    ),
+    "CHS": _Kind(("od", "t"), 2, round_hollow_from_dimensions),
+}
+_KIND = r"(?P<kind>2L|IS|RHS|CHS|I|C|T|L)"
 _COMPACT = re.compile(
-    r"(?P<kind>[IC])\s*:\s*(?P<nums>[0-9.]+(?:\s*[xX×]\s*[0-9.]+){3,4})\s*(?P<unit>[A-Za-z]+)"
+    _KIND + r"\s*:\s*(?P<nums>[0-9.]+(?:\s*[xX×]\s*[0-9.]+)*)\s*(?P<unit>[A-Za-z]+)",
+    re.IGNORECASE,
 )
-_KEYWORD = re.compile(r"(?P<key>d|bf|tw|tf|r)\s*=\s*(?P<val>[0-9.]+\s*[A-Za-z]+)")
+_HEAD = re.compile(_KIND + r"\s+(?=\S+\s*=)", re.IGNORECASE)
+_KEYWORD = re.compile(r"(?P<key>[a-z]+)\s*=\s*(?P<val>[0-9.]+\s*[A-Za-z]+)", re.IGNORECASE)
 
 
 def _dimension_section(text: str) -> Section | None:
@@ -66,40 +121,71 @@ def _dimension_section(text: str) -> Section | None:
     spec = text.strip()
     m = _COMPACT.fullmatch(spec)
     if m:
+        kind = _KINDS[m.group("kind").upper()]
         nums = [float(v) for v in re.split(r"\s*[xX×]\s*", m.group("nums"))]
+        if not kind.required <= len(nums) <= len(kind.keys):
+            raise UsageError(
+                f"shape: {m.group('kind').upper()} takes {kind.required} to {len(kind.keys)} "
+                f"numbers ({' x '.join(kind.keys)}), got {len(nums)} in {text!r}"
+            )
         scale, _ = _quantity(f"1 {m.group('unit')}", "length", "shape")
-        dims = dict(zip(("d", "bf", "tw", "tf", "r"), (v * scale for v in nums), strict=False))
-        kind = m.group("kind")
+        dims = {k: v * scale for k, v in zip(kind.keys, nums, strict=False)}
     else:
-        head = re.match(r"\s*([IC])\s+", spec)
+        head = _HEAD.match(spec)
         if not head:
             return None
-        kind = head.group(1)
+        kind = _KINDS[head.group("kind").upper()]
         rest = spec[head.end() :]
         pairs = _KEYWORD.findall(rest)
         if not pairs or _KEYWORD.sub("", rest).strip():
             raise UsageError(f"shape: cannot read dimensions in {text!r} (e.g. 'I d=300mm ...')")
-        dims = {k: _quantity(v, "length", f"shape {k}")[0] for k, v in pairs}
-        missing = [k for k in ("d", "bf", "tw", "tf") if k not in dims]
+        dims = {}
+        for key, value in pairs:
+            if key.lower() not in kind.keys:
+                raise UsageError(f"shape: {key!r} is not one of {', '.join(kind.keys)}")
+            dims[key.lower()] = _quantity(value, "length", f"shape {key}")[0]
+        missing = [k for k in kind.keys[: kind.required] if k not in dims]
         if missing:
             raise UsageError(f"shape: missing {', '.join(missing)} in {text!r}")
-    build = i_section_from_dimensions if kind == "I" else channel_from_dimensions
     try:
-        return build(re.sub(r"\s+", " ", spec), **dims)
+        return kind.build(re.sub(r"\s+", " ", spec), **dims)
     except ValueError as exc:
         raise UsageError(f"shape: {exc}") from None
 
 
-def _section(shape: str) -> Section:
+def _section(shape: str, fabrication: str | None) -> Section:
     section = lookup(shape)
     if section is None:
         section = _dimension_section(shape)
     if section is None:
         raise UsageError(
-            f"unknown shape {shape!r}: not in the AISC Shapes Database v16.0 and not a "
-            "dimension spec such as 'I:300x150x7.1x10.7x15mm'"
+            f"unknown shape {shape!r}: not a known designation and not a dimension spec "
+            "such as 'I:300x150x7.1x10.7x15mm' or 'RHS:200x100x8mm'"
         )
+    if fabrication:
+        section = dataclasses.replace(section, fabrication=fabrication)
     return section
+
+
+# Preferred material per family (AISC Manual Table 2-4, from memory): the default grade.
+_FAMILY_GRADE = {
+    ShapeFamily.CHANNEL: "A36",
+    ShapeFamily.ANGLE: "A36",
+    ShapeFamily.HOLLOW_RECT: "A500 Gr C",
+    ShapeFamily.HOLLOW_ROUND: "A500 Gr C",
+}
+
+
+def _default_steel(section: Section) -> Steel:
+    if section.name.upper().startswith("PIPE"):
+        return default_steel("A53 Gr B")
+    steel = default_steel(_FAMILY_GRADE.get(section.family, "A992"))
+    if section.family is ShapeFamily.HOLLOW_ROUND:
+        # A500 Gr C round HSS: Fy = 46 ksi, Fu = 62 ksi (AISC Manual Table 2-4, from memory).
+        return dataclasses.replace(
+            steel, fy=to_si(46.0, "ksi"), fu=to_si(62.0, "ksi"), source=steel.source + " (round)"
+        )
+    return steel
 
 
 def _steel(section: Section, grade: str | None, fy_text: str | None) -> Steel:
@@ -115,7 +201,7 @@ def _steel(section: Section, grade: str | None, fy_text: str | None) -> Steel:
         if steel is None:
             raise UsageError(f"unknown grade {grade!r}; known: {', '.join(known_grades())}")
         return steel
-    return default_steel("A992")
+    return _default_steel(section)
 
 
 @dataclass(frozen=True)
@@ -133,6 +219,26 @@ class _Units:
         return display_factor(kind, self.system)
 
 
+_FAMILY_TEXT = {
+    ShapeFamily.I_SHAPE: "I-shape",
+    ShapeFamily.CHANNEL: "channel",
+    ShapeFamily.TEE: "tee",
+    ShapeFamily.ANGLE: "angle",
+    ShapeFamily.HOLLOW_RECT: "rectangular HSS",
+    ShapeFamily.HOLLOW_ROUND: "round HSS",
+    ShapeFamily.OTHER: "section",
+}
+
+
+def _family_text(section: Section) -> str:
+    if section.pair_gap is not None:
+        return "double angle"
+    text = _FAMILY_TEXT[section.family]
+    if section.family is ShapeFamily.I_SHAPE:
+        text = ("built-up " if is_built_up(section) else "rolled ") + text
+    return text
+
+
 @click.command("strength")
 @click.argument("shape")
 @click.option(
@@ -140,10 +246,34 @@ class _Units:
 )
 @click.option("--cb", type=float, default=1.0, show_default=True, help="Moment gradient factor Cb.")
 @click.option(
-    "--grade", default=None, help="Steel grade (A992, A572 Gr 50, S355...). Default A992."
+    "--grade",
+    default=None,
+    help="Steel grade (A992, A500 Gr C, S355...). Default: the family's preferred grade "
+    "(A992 I and tee, A36 channel and angle, A500 Gr C HSS, A53 Gr B pipe).",
 )
 @click.option("--fy", "fy_text", default=None, help="Yield stress with unit: '50 ksi', '345 MPa'.")
 @click.option("--method", default="LRFD", show_default=True, help="LRFD or ASD.")
+@click.option(
+    "--axis",
+    type=click.Choice(["major", "minor"]),
+    default="major",
+    show_default=True,
+    help="Axis of bending (minor: an I or channel with its web flat, F6).",
+)
+@click.option(
+    "--compression",
+    type=click.Choice(["top", "bottom"]),
+    default="top",
+    show_default=True,
+    help="Side in compression: top flange of an I, flange of a tee, outstanding legs "
+    "of a double angle, toe of a single angle's vertical leg.",
+)
+@click.option(
+    "--fabrication",
+    type=click.Choice(["rolled", "welded"]),
+    default=None,
+    help="Override rolled/built-up (default: table shape or fillet → rolled, else built-up).",
+)
 @click.option("--json", "as_json", is_flag=True, help="Print JSON (SI base units).")
 @click.option("--curve", is_flag=True, help="Also give the strength curve over Lb.")
 @click.option("--points", type=int, default=21, show_default=True, help="Points on the curve.")
@@ -154,15 +284,23 @@ def strength(
     grade: str | None,
     fy_text: str | None,
     method: str,
+    axis: str,
+    compression: str,
+    fabrication: str | None,
     as_json: bool,
     curve: bool,
     points: int,
 ) -> None:
-    """Flexural strength of SHAPE to AISC 360-16 Chapter F at one unbraced length.
+    """Flexural strength of SHAPE to AISC 360-16 Chapter F at one unbraced length,
+    and its shear strength to Chapter G.
 
-    SHAPE is a table designation (W24X84, W610x125) or dimensions:
-    'I:300x150x7.1x10.7x15mm' (kind:d x bf x tw x tf [x r] unit) or
-    'I d=300mm bf=150mm tw=7.1mm tf=10.7mm r=15mm'; kind I or C (channel).
+    SHAPE is a designation (W24X84, W610x125, C12X20.7, WT8X25, L4X4X1/2,
+    2L4X4X1/2X3/8, HSS10X6X3/8, PIPE6STD, or a catalogue name such as UPE200)
+    or dimensions as KIND:n1xn2x...unit or "KIND key=value ...":
+    I d bf tw tf [r]; IS d bft tft bfb tfb tw [r]; C d bf tw tf [r];
+    T d bf tw tf [r]; L d b t [r]; 2L d b t [gap] [r]; RHS d b t [r];
+    CHS od t. Examples: 'I:300x150x7.1x10.7x15mm', 'RHS:10x6x0.349in',
+    'CHS:168.3x7.1mm', 'L d=4in b=4in t=0.5in'.
     """
     try:
         meth = check_method(method)
@@ -175,26 +313,36 @@ def strength(
     lb, lb_unit = _quantity(lb_text, "length", "--lb")
     if lb < 0.0:
         raise UsageError("--lb must not be negative")
-    section = _section(shape)
+    section = _section(shape, fabrication)
     steel = _steel(section, grade, fy_text)
-    reason = scope(section, steel)
+    reason = scope(section, steel, axis)
     if reason:
         raise UsageError(f"{section.name}: {reason}")
+    top = compression == "top"
 
-    r = flexure(section, steel, [lb], [cb], meth)
-    v = shear(section, steel, meth)
-    cls = classify_flexure(section, steel.fy, steel.E)
-    lb_max = max(1.5 * float(r.lr[0]), 1.2 * lb)
-    sampled = AISC360().strength_curve(section, steel, cb, meth, lb_max, points) if curve else None
+    r = flexure(section, steel, [lb], [cb], meth, axis=axis, compression_top=top)
+    v = shear(section, steel, meth, axis=axis)
+    cls = classify_flexure(section, steel.fy, steel.E, top, "minor" if axis == "minor" else "major")
+    has_ltb = float(r.lr[0]) > 0.0 or float(r.lp[0]) > 0.0
+    sampled = None
+    if curve:
+        lb_max = max(1.5 * float(r.lr[0]) if has_ltb else 30.0 * section.d, 1.2 * lb, 1.0)
+        sampled = AISC360().strength_curve(
+            section, steel, cb, meth, lb_max, points, axis=axis, compression_top=top
+        )
 
     if as_json:
         out: dict[str, Any] = {
             "shape": section.name,
+            "family": section.family.value,
             "section_source": section.source,
+            "built_up": is_built_up(section),
             "grade": steel.grade,
             "grade_source": steel.source,
             "standard": AISC360.name,
             "method": meth,
+            "axis": axis,
+            "compression": compression,
             "factor": r.factor,
             "fy": steel.fy,
             "E": steel.E,
@@ -231,21 +379,35 @@ def strength(
     u = _Units(system_for(lb_unit))
     sym = "φMn" if meth == "LRFD" else "Mn/Ω"
     fac = f"φb = {r.factor:.2f}" if meth == "LRFD" else f"Ωb = {r.factor:.2f}"
+    side = (
+        ""
+        if section.family in (ShapeFamily.HOLLOW_RECT, ShapeFamily.HOLLOW_ROUND)
+        else (f", {compression} in compression")
+    )
     lines = [
-        f"{section.name} ({section.source}), {steel.grade}: "
+        f"{section.name} ({_family_text(section)}, {section.source}), {steel.grade}: "
         f"Fy = {u.fmt(steel.fy, 'stress')}, E = {u.fmt(steel.E, 'stress', 0)}",
-        f"{AISC360.name} Chapter F, {meth} ({fac}), Cb = {cb:.2f}",
-        f"  Mp  = {u.fmt(float(r.mp[0]), 'moment')}",
-        f"  Mr  = {u.fmt(float(r.mr[0]), 'moment')}  (0.7 Fy Sx)",
-        f"  Lp  = {u.fmt(float(r.lp[0]), 'length', 2)}",
-        f"  Lr  = {u.fmt(float(r.lr[0]), 'length', 2)}",
+        f"{AISC360.name} Chapter F, {meth} ({fac}), Cb = {cb:.2f}, {axis} axis{side}",
+        f"  Mp  = {u.fmt(float(r.mp[0]), 'moment')}  (plastic limit)",
+    ]
+    if has_ltb:
+        lines += [
+            f"  Mr  = {u.fmt(float(r.mr[0]), 'moment')}  (Mn at Lr, Cb = 1)",
+            f"  Lp  = {u.fmt(float(r.lp[0]), 'length', 2)}",
+            f"  Lr  = {u.fmt(float(r.lr[0]), 'length', 2)}",
+        ]
+    else:
+        lines.append("  no lateral-torsional buckling for this shape and axis")
+    lines += [
         f"  Lb  = {u.fmt(lb, 'length', 2)}",
         f"  Mn  = {u.fmt(float(r.mn[0]), 'moment')}",
         f"  {sym} = {u.fmt(float(r.design_strength[0]), 'moment')}  governed by {r.limit_state[0]}",
-        f"  flange {cls.flange_class} (λ = {cls.flange.lam:.2f}, λp = {cls.flange.lam_p:.2f}, "
-        f"λr = {cls.flange.lam_r:.2f}); web {cls.web_class} (h/tw = {cls.web.lam:.1f})",
+        f"  {_element('flange', cls.flange)}; {_element('web', cls.web)}"
+        f" (Table B4.1b cases {cls.case_flange}, {cls.case_web})",
         f"  shear {u.fmt(v.design_strength, 'force')} ({v.clause})",
     ]
+    if section.family is ShapeFamily.ANGLE and section.pair_gap is None:
+        lines.append("  bending about a geometric axis; principal-axis bending is not covered")
     if sampled is not None:
         lunit = u.label("length")
         munit = u.label("moment")
@@ -257,6 +419,10 @@ def strength(
             )
     lines.append(CAUTION)
     click.echo("\n".join(lines))
+
+
+def _element(name: str, s: Slenderness) -> str:
+    return f"{name} {s.cls} (λ = {s.lam:.2f}, λp = {s.lam_p:.2f}, λr = {s.lam_r:.2f})"
 
 
 __all__ = ["strength"]

@@ -1,20 +1,39 @@
 """AISC 360-16 (ANSI/AISC 360-16, Specification for Structural Steel Buildings).
 
-Covered: Chapter F major-axis flexure of doubly symmetric I-shapes with
-compact webs (F2 compact flanges; F3 noncompact or slender flanges) and of
-compact channels (F2), with Cb by Eq. F1-1; Chapter G web shear (G2.1) of
-I-shapes and channels. Everything is vectorised with numpy over segments.
-Units: SI base units throughout (Pa, m, N, N·m).
+Chapter F flexure with Cb by Eq. F1-1:
+
+- F2 / F3 doubly symmetric I-shapes with compact webs (flanges by Table B4.1b
+  case 10 rolled, case 11 built-up) and compact channels, about the major axis —
+  vectorised with numpy over every segment of a model (this module);
+- F4 / F5 I-shapes with noncompact or slender webs and singly symmetric
+  I-shapes; F6 I-shapes and channels about the minor axis; F7 rectangular HSS;
+  F8 round HSS and pipe; F9 tees and double angles; F10 equal-leg single angles
+  about a geometric axis (``aisc360_shapes``);
+- Chapter G shear for each of them (``aisc360_shear``).
+
+``scope()`` names the clause of anything not covered. Units: SI base units
+throughout (Pa, m, N, N·m).
 """
 
 from __future__ import annotations
 
+import math
 from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
+from ifccheck.design import aisc360_shapes as fam
+from ifccheck.design import aisc360_shear
+from ifccheck.design.aisc360_shapes import LIMIT_STATES, FamilyFlexure
+from ifccheck.design.aisc360_shear import (
+    KV_UNSTIFFENED,
+    OMEGA_V,
+    OMEGA_V_ROLLED,
+    PHI_V,
+    PHI_V_ROLLED,
+)
 from ifccheck.design.base import (
     DesignStandard,
     FlexureResult,
@@ -27,26 +46,15 @@ from ifccheck.design.base import (
 )
 from ifccheck.errors import OutOfScope
 from ifccheck.model import Section, ShapeFamily, Steel
-from ifccheck.sections.classify import classify_flexure
-from ifccheck.sections.table import SOURCE as TABLE_SOURCE
+from ifccheck.sections.classify import Axis, classify_flexure, is_built_up
+from ifccheck.sections.shapes import flanges, is_singly_symmetric_i
 
 NAME = "AISC 360-16"
 
 PHI_B = 0.90  # AISC 360-16 F1(1)
 OMEGA_B = 1.67
-PHI_V_ROLLED = 1.00  # AISC 360-16 G2.1(a)
-OMEGA_V_ROLLED = 1.50
-PHI_V = 0.90  # AISC 360-16 G1
-OMEGA_V = 1.67
-KV_UNSTIFFENED = 5.34  # AISC 360-16 G2.1(b)(2)(i), webs without transverse stiffeners
 
-# Limit-state names; index = the code used internally.
-# An object array: gathering Python str references is several times faster than
-# building fixed-width numpy strings for a million segments.
-LIMIT_STATES = np.array(
-    ["yielding", "inelastic_ltb", "elastic_ltb", "flange_local_buckling"], dtype=object
-)
-_YIELD, _INELASTIC, _ELASTIC, _FLB = 0, 1, 2, 3
+_YIELD, _INELASTIC, _ELASTIC, _FLB = fam.YIELD, fam.INELASTIC, fam.ELASTIC, fam.FLB
 
 
 def flexure_factor(method: str) -> float:
@@ -87,6 +95,7 @@ def _constants(
     c: FloatArray,
     lam: FloatArray,
     htw: FloatArray,
+    built_up: FloatArray,
 ) -> _Constants:
     root = np.sqrt(e / fy)
     mp = fy * zx  # Eq. F2-1
@@ -96,9 +105,11 @@ def _constants(
     ratio = 0.7 * fy / e
     lr = 1.95 * rts / ratio * np.sqrt(jc + np.sqrt(jc * jc + 6.76 * ratio * ratio))  # Eq. F2-6
     # Compression flange local buckling, F3.2.
-    lam_pf = 0.38 * root  # Table B4.1b case 10
-    lam_rf = 1.0 * root
+    lam_pf = 0.38 * root  # Table B4.1b cases 10 and 11
     kc = np.clip(4.0 / np.sqrt(htw), 0.35, 0.76)  # Table B4.1b note [a]
+    # λrf: case 10 (rolled) 1.0√(E/Fy); case 11 (built-up) 0.95√(kc·E/FL), FL = 0.7Fy
+    # for doubly symmetric sections (note [b]).
+    lam_rf = np.where(built_up > 0.0, 0.95 * np.sqrt(kc * e / (0.7 * fy)), 1.0 * root)
     flb_noncompact = mp - (mp - mr) * (lam - lam_pf) / (lam_rf - lam_pf)  # Eq. F3-1
     flb_slender = 0.9 * e * kc * sx / lam**2  # Eq. F3-2
     flb = np.where(lam <= lam_pf, np.inf, np.where(lam <= lam_rf, flb_noncompact, flb_slender))
@@ -165,20 +176,23 @@ def flexure_arrays(
     Lb: ArrayLike,
     Cb: ArrayLike = 1.0,
     method: str = "LRFD",
+    built_up: ArrayLike = 0.0,
 ) -> FlexureResult:
     """AISC 360-16 F2/F3 major-axis flexure for arrays of segments (broadcast together).
 
     Per segment: yield stress Fy and modulus E (Pa), section properties (SI),
     c (1.0 for doubly symmetric I-shapes, Eq. F2-8a; (ho/2)√(Iy/Cw) for
     channels, Eq. F2-8b), flange slenderness λf, web slenderness h/tw (for kc),
-    unbraced length Lb (m) and Cb. The caller keeps to the scope of F2/F3
-    (compact webs; channels with compact flanges): see ``AISC360.scope``.
+    unbraced length Lb (m), Cb and ``built_up`` (1 for built-up sections:
+    Table B4.1b case 11 instead of case 10 for the flange limit λrf). The
+    caller keeps to the scope of F2/F3 (compact webs; channels with compact
+    flanges): see ``AISC360.scope``.
     """
     m = check_method(method)
     arrays = np.broadcast_arrays(
         *(
             np.atleast_1d(np.asarray(v, dtype=float))
-            for v in (Fy, E, Zx, Sx, ry, rts, J, ho, c, lambda_f, h_tw, Lb, Cb)
+            for v in (Fy, E, Zx, Sx, ry, rts, J, ho, c, lambda_f, h_tw, built_up, Lb, Cb)
         )
     )
     *props, lb, cb = arrays
@@ -205,43 +219,203 @@ def _properties(section: Section, steel: Steel) -> dict[str, float]:
         "c": torsion_c(section),
         "lambda_f": section.flange_slenderness,
         "h_tw": section.web_slenderness,
+        "built_up": float(section.family is ShapeFamily.I_SHAPE and is_built_up(section)),
     }
 
 
-_FAMILY_SCOPE = {
-    ShapeFamily.HOLLOW_RECT: "rectangular HSS: AISC 360-16 F7 not implemented",
-    ShapeFamily.HOLLOW_ROUND: "round HSS or pipe: AISC 360-16 F8 not implemented",
-    ShapeFamily.TEE: "tee: AISC 360-16 F9 not implemented",
-    ShapeFamily.ANGLE: "angle: AISC 360-16 F10 not implemented",
-    ShapeFamily.OTHER: "section family not covered by the implemented AISC 360-16 F2/F3",
+# Properties each family needs, besides d, tw and tf (major axis; minor axis of I/C below).
+_NEEDED: dict[ShapeFamily, tuple[str, ...]] = {
+    ShapeFamily.I_SHAPE: ("Zx", "Sx", "Iy", "ry", "rts", "J", "Cw", "ho", "h", "bf"),
+    ShapeFamily.CHANNEL: ("Zx", "Sx", "Iy", "ry", "rts", "J", "Cw", "ho", "h", "bf"),
+    ShapeFamily.TEE: ("Zx", "Sx", "Ix", "Iy", "ry", "J", "bf"),
+    ShapeFamily.ANGLE: ("Sx", "Ix", "bf"),
+    ShapeFamily.HOLLOW_RECT: ("A", "Zx", "Sx", "Zy", "Sy", "Ix", "Iy", "ry", "J", "h", "bf"),
+    ShapeFamily.HOLLOW_ROUND: ("Zx", "Sx"),
 }
+_NEEDED_MINOR = ("Zy", "Sy", "bf")
+# Unstiffened girders: h/tw ≤ 260 and ≤ 0.40E/Fy (a/h > 1.5), aw ≤ 10 (F13.2).
+_H_TW_UNSTIFFENED = 260.0
+_AW_MAX = 10.0
 
 
-def scope(section: Section, steel: Steel | None = None) -> str:
-    """'' when AISC 360-16 F2/F3 (as implemented) cover the section, else why not.
+def _check_axis(axis: str) -> Axis:
+    if axis not in ("major", "minor"):
+        raise ValueError(f"axis must be 'major' or 'minor', got {axis!r}")
+    return axis  # type: ignore[return-value]
 
-    Without a steel only the family and the properties are checked; with one,
-    also the web and (for channels) flange slenderness at its Fy.
+
+def scope(section: Section, steel: Steel | None = None, axis: str = "major") -> str:
+    """'' when AISC 360-16 Chapter F (as implemented) covers bending of the section
+    about ``axis``, else the reason naming the clause.
+
+    Without a steel only the family, the axis and the properties are checked;
+    with one, also the slenderness limits that depend on Fy.
     """
-    reason = _FAMILY_SCOPE.get(section.family)
-    if reason is not None:
-        return reason
-    needed = ("Zx", "Sx", "Iy", "ry", "rts", "J", "Cw", "ho", "tw", "tf", "h", "bf")
-    missing = [p for p in needed if not getattr(section, p) > 0.0]
+    ax = _check_axis(axis)
+    fam_ = section.family
+    if fam_ is ShapeFamily.OTHER:
+        return "section family not covered by AISC 360-16 Chapter F as implemented (F2 to F10)"
+    needed = _NEEDED_MINOR if ax == "minor" and fam_ in _I_OR_C else _NEEDED[fam_]
+    missing = [p for p in ("d", "tw", "tf", *needed) if not getattr(section, p) > 0.0]
     if missing:
-        return f"missing section properties ({', '.join(missing)}) needed by AISC 360-16 F2"
+        return f"missing section properties ({', '.join(missing)}) needed by AISC 360-16 F"
+    if fam_ in _I_OR_C:
+        return "" if ax == "minor" else _scope_i(section, steel)
+    if fam_ is ShapeFamily.TEE:
+        if ax == "minor":
+            return "tee bent about its axis of symmetry: AISC 360-16 F12 not implemented"
+        return ""
+    if fam_ is ShapeFamily.ANGLE:
+        if section.pair_gap is not None:
+            if ax == "minor":
+                return (
+                    "double angle bent about its axis of symmetry: AISC 360-16 F12 not implemented"
+                )
+            return ""
+        if not fam.is_equal_leg(section):
+            return (
+                "unequal-leg angle: AISC 360-16 F10 bending about a geometric axis is covered "
+                "for equal legs only; principal-axis bending (F10.2(1)) is not implemented"
+            )
+        return ""
+    if fam_ is ShapeFamily.HOLLOW_ROUND and steel is not None:
+        d_t = section.d / section.tf
+        if d_t >= 0.45 * steel.E / steel.fy:
+            return f"round HSS with D/t = {d_t:.0f} ≥ 0.45E/Fy: outside AISC 360-16 F8"
+    return ""
+
+
+_I_OR_C = (ShapeFamily.I_SHAPE, ShapeFamily.CHANNEL)
+
+
+def _scope_i(section: Section, steel: Steel | None) -> str:
+    """Major-axis scope of I-shapes (F2 to F5, F13.2 limits) and channels (F2)."""
+    if section.family is ShapeFamily.CHANNEL:
+        if steel is None:
+            return ""
+        cls = classify_flexure(section, steel.fy, steel.E)
+        if cls.web_class != "compact":
+            return f"channel with {cls.web_class} web: AISC 360-16 F2 covers compact channels only"
+        if cls.flange_class != "compact":
+            return (
+                f"channel with {cls.flange_class} flanges: "
+                "AISC 360-16 F2 covers compact channels only"
+            )
+        return ""
+    singly = is_singly_symmetric_i(section)
+    if singly:
+        (bft, tft), _ = flanges(section)
+        ratio = tft * bft**3 / 12.0 / section.Iy
+        if not 0.1 <= ratio <= 0.9:
+            return (
+                f"singly symmetric I with Iyc/Iy = {ratio:.2f} outside 0.1 to 0.9: "
+                "AISC 360-16 F13.2 (F13-2)"
+            )
     if steel is None:
         return ""
-    cls = classify_flexure(section, steel.fy, steel.E)
-    if cls.web_class == "noncompact":
-        return "noncompact web: AISC 360-16 F4 not implemented"
-    if cls.web_class == "slender":
-        return "slender web: AISC 360-16 F5 not implemented"
-    if section.family is ShapeFamily.CHANNEL and cls.flange_class != "compact":
-        return (
-            f"channel with {cls.flange_class} flanges: AISC 360-16 F2 covers compact channels only"
-        )
+    if not singly and section.web_slenderness <= 5.70 * math.sqrt(steel.E / steel.fy):
+        return ""  # compact or noncompact web (Table B4.1b case 15): F2 to F4
+    for top in (True, False) if singly else (True,):
+        cls = classify_flexure(section, steel.fy, steel.E, top)
+        if cls.web_class != "slender":
+            continue
+        limit = min(_H_TW_UNSTIFFENED, 0.40 * steel.E / steel.fy)
+        if section.web_slenderness > limit:
+            return (
+                f"slender web h/tw = {section.web_slenderness:.0f} above {limit:.0f} "
+                "for a girder without stiffeners: AISC 360-16 F13.2"
+            )
+        aw = fam.i_web_ratio(section, top)
+        if aw > _AW_MAX:
+            return f"web to compression flange area aw = {aw:.1f} above 10: AISC 360-16 F13.2"
     return ""
+
+
+def _is_fast(section: Section, steel: Steel) -> bool:
+    """Major-axis F2/F3 sections, evaluated on the vectorised path."""
+    if section.family is ShapeFamily.CHANNEL:
+        return True
+    if section.family is not ShapeFamily.I_SHAPE or is_singly_symmetric_i(section):
+        return False
+    # compact web, Table B4.1b case 15: h/tw ≤ 3.76√(E/Fy)
+    return section.web_slenderness <= 3.76 * math.sqrt(steel.E / steel.fy)
+
+
+def _side_matters(section: Section) -> bool:
+    """Whether the strength depends on which side is in compression."""
+    return section.family in (ShapeFamily.TEE, ShapeFamily.ANGLE) or is_singly_symmetric_i(section)
+
+
+def family_flexure(
+    section: Section,
+    steel: Steel,
+    lb: FloatArray,
+    cb: FloatArray,
+    axis: Axis = "major",
+    compression_top: bool = True,
+) -> FamilyFlexure:
+    """Mn by the clause that applies to the section (F2/F3 sections excluded: see flexure)."""
+    f = section.family
+    if f in _I_OR_C and axis == "minor":
+        return fam.f6(section, steel, lb)
+    if f is ShapeFamily.I_SHAPE:
+        web = classify_flexure(section, steel.fy, steel.E, compression_top).web_class
+        if web == "slender":
+            return fam.f5(section, steel, lb, cb, compression_top)
+        return fam.f4(section, steel, lb, cb, compression_top)
+    if f is ShapeFamily.TEE or (f is ShapeFamily.ANGLE and section.pair_gap is not None):
+        return fam.f9(section, steel, lb, cb, compression_top)
+    if f is ShapeFamily.ANGLE:
+        return fam.f10(section, steel, lb, cb, compression_top)
+    if f is ShapeFamily.HOLLOW_RECT:
+        return fam.f7(section, steel, lb, cb, axis == "minor")
+    if f is ShapeFamily.HOLLOW_ROUND:
+        return fam.f8(section, steel, lb)
+    raise OutOfScope(f"{section.name}: no Chapter F provision for this family and axis")
+
+
+def _validate(lb: FloatArray, cb: FloatArray) -> None:
+    if np.any(~(lb >= 0.0)):
+        raise ValueError("unbraced length Lb must be non-negative")
+    if np.any(~(cb > 0.0)):
+        raise ValueError("Cb must be positive")
+
+
+@dataclass
+class _Collected:
+    """Per-segment output arrays filled group by group."""
+
+    n: int
+
+    def __post_init__(self) -> None:
+        self.arrays = {f: np.zeros(self.n) for f in ("mp", "mn", "lp", "lr", "mr")}
+        self.states = np.empty(self.n, dtype=object)
+
+    def put(self, sel: NDArray[np.intp], r: FamilyFlexure) -> None:
+        a = self.arrays
+        a["mn"][sel] = r.mn
+        a["mp"][sel], a["lp"][sel], a["lr"][sel], a["mr"][sel] = r.mp, r.lp, r.lr, r.mr
+        self.states[sel] = LIMIT_STATES[r.code]
+
+    def put_result(self, sel: NDArray[np.intp], r: FlexureResult) -> None:
+        for f in self.arrays:
+            self.arrays[f][sel] = getattr(r, f)
+        self.states[sel] = r.limit_state
+
+    def result(self, method: Method) -> FlexureResult:
+        factor = flexure_factor(method)
+        a = self.arrays
+        return FlexureResult(
+            mp=a["mp"],
+            mn=a["mn"],
+            design_strength=_design(a["mn"], method, factor),
+            limit_state=self.states,
+            lp=a["lp"],
+            lr=a["lr"],
+            mr=a["mr"],
+            factor=factor,
+            method=method,
+        )
 
 
 def flexure(
@@ -250,12 +424,72 @@ def flexure(
     lb: ArrayLike,
     cb: ArrayLike = 1.0,
     method: str = "LRFD",
+    *,
+    axis: str = "major",
+    compression_top: ArrayLike | None = None,
 ) -> FlexureResult:
-    """F2/F3 flexural strength of one section for arrays of Lb and Cb."""
-    reason = scope(section, steel)
+    """Chapter F flexural strength of one section for arrays of Lb and Cb.
+
+    ``axis`` is the axis of bending ("major": x, "minor": y); ``compression_top``
+    (per segment) says which side is in compression where it matters (singly
+    symmetric I-shapes, tees, angles); None — not known — takes the weaker side.
+    OutOfScope names the clause not covered.
+    """
+    m = check_method(method)
+    ax = _check_axis(axis)
+    reason = scope(section, steel, ax)
     if reason:
         raise OutOfScope(f"{section.name}: {reason}")
-    return flexure_arrays(**_properties(section, steel), Lb=lb, Cb=cb, method=method)
+    if ax == "major" and _is_fast(section, steel):
+        return flexure_arrays(**_properties(section, steel), Lb=lb, Cb=cb, method=m)
+    lb_a, cb_a = np.broadcast_arrays(
+        np.atleast_1d(np.asarray(lb, dtype=float)), np.atleast_1d(np.asarray(cb, dtype=float))
+    )
+    _validate(lb_a, cb_a)
+    sides = _sides(compression_top, lb_a.shape, _side_matters(section))
+    out = _Collected(lb_a.size)
+    for side in np.unique(sides):
+        sel = np.flatnonzero(sides == side)
+        _put_family(out, sel, section, steel, lb_a[sel], cb_a[sel], ax, int(side))
+    return out.result(m)
+
+
+_UNKNOWN_SIDE = -1  # side codes: 1 top in compression, 0 bottom, -1 not known
+
+
+def _sides(
+    compression_top: ArrayLike | None, shape: tuple[int, ...], matters: bool
+) -> NDArray[np.int8]:
+    """Per-segment side codes (1 top, 0 bottom, −1 not known); 1 where the side does not matter."""
+    if not matters:
+        return np.ones(shape, dtype=np.int8)
+    if compression_top is None:
+        return np.full(shape, _UNKNOWN_SIDE, dtype=np.int8)
+    top = np.broadcast_to(np.asarray(compression_top, dtype=bool), shape)
+    return top.astype(np.int8)
+
+
+def _put_family(
+    out: _Collected,
+    sel: NDArray[np.intp],
+    section: Section,
+    steel: Steel,
+    lb: FloatArray,
+    cb: FloatArray,
+    axis: Axis,
+    side: int,
+) -> None:
+    """Evaluate one (section, axis, side) group into ``out``; side −1 keeps the weaker."""
+    if side != _UNKNOWN_SIDE:
+        out.put(sel, family_flexure(section, steel, lb, cb, axis, bool(side)))
+        return
+    top = family_flexure(section, steel, lb, cb, axis, True)
+    bottom = family_flexure(section, steel, lb, cb, axis, False)
+    out.put(sel, top)
+    lower = bottom.mn < top.mn
+    if lower.any():
+        b = bottom
+        out.put(sel[lower], FamilyFlexure(b.mn[lower], b.code[lower], b.mp, b.lp, b.lr, b.mr))
 
 
 def flexure_segments(
@@ -264,27 +498,79 @@ def flexure_segments(
     lb: ArrayLike,
     cb: ArrayLike = 1.0,
     method: str = "LRFD",
+    *,
+    axis: ArrayLike = "major",
+    compression_top: ArrayLike | None = None,
 ) -> FlexureResult:
     """Flexure of a whole model in one call.
 
     ``pairs`` are the distinct (section, steel) combinations, ``index`` gives
-    for each segment the position of its pair; ``lb`` and ``cb`` are per
-    segment. OutOfScope names every pair that F2/F3 do not cover.
+    for each segment the position of its pair; ``lb``, ``cb``, ``axis`` and
+    ``compression_top`` are per segment (or scalars; None for "not known": the
+    weaker side of sections that are not doubly symmetric). F2/F3 sections go through
+    one vectorised evaluation; the others are evaluated per (pair, axis, side).
+    OutOfScope names every pair that Chapter F (as implemented) does not cover.
     """
-    problems = [f"{s.name} ({g.grade}): {r}" for s, g in pairs if (r := scope(s, g))]
+    idx0 = np.asarray(index, dtype=np.intp)
+    axes = np.asarray(axis)
+    scalar_axis = axes.ndim == 0
+    if scalar_axis:
+        used = [(k, _check_axis(str(axes))) for k in range(len(pairs))]
+    else:
+        minor_all = np.broadcast_to(axes, np.shape(idx0)) == "minor"
+        if not np.all(minor_all | (np.broadcast_to(axes, np.shape(idx0)) == "major")):
+            raise ValueError("axis must be 'major' or 'minor' for every segment")
+        used = sorted(
+            {(int(k), "minor" if mi else "major") for k, mi in zip(idx0.ravel(), minor_all.ravel(),
+                                                                   strict=True)}
+        )  # fmt: skip
+    problems = [
+        f"{pairs[k][0].name} ({pairs[k][1].grade}): {r}"
+        for k, ax in used
+        if (r := scope(pairs[k][0], pairs[k][1], ax))
+    ]
     if problems:
         raise OutOfScope("; ".join(problems))
     if not pairs:
         raise ValueError("no (section, steel) pairs given")
     m = check_method(method)
-    idx = np.asarray(index, dtype=np.intp)
-    props = [_properties(s, g) for s, g in pairs]
-    columns = [np.array([p[key] for p in props], dtype=float) for key in props[0]]
     lb_a, cb_a, idx = np.broadcast_arrays(
-        np.atleast_1d(np.asarray(lb, dtype=float)), np.atleast_1d(np.asarray(cb, dtype=float)), idx
+        np.atleast_1d(np.asarray(lb, dtype=float)), np.atleast_1d(np.asarray(cb, dtype=float)), idx0
     )
-    # Section constants once per pair, then gathered per segment.
-    return _evaluate(_constants(*columns).take(idx), lb_a, cb_a, m)
+    fast_pair = np.array([_is_fast(s, g) for s, g in pairs])
+    if scalar_axis and str(axes) == "major" and fast_pair.all():
+        # The whole model is F2/F3: section constants once per pair, gathered per segment.
+        props = [_properties(s, g) for s, g in pairs]
+        columns = [np.array([p[key] for p in props], dtype=float) for key in props[0]]
+        return _evaluate(_constants(*columns).take(idx), lb_a, cb_a, m)
+    _validate(lb_a, cb_a)
+    minor = np.broadcast_to(axes == "minor", idx.shape)
+    sides = _sides(compression_top, idx.shape, True)
+    out = _Collected(idx.size)
+    fast = fast_pair[idx] & ~minor
+    sel = np.flatnonzero(fast)
+    if sel.size:
+        fast_ids = np.flatnonzero(fast_pair)
+        remap = np.full(len(pairs), -1, dtype=np.intp)
+        remap[fast_ids] = np.arange(fast_ids.size)
+        props = [_properties(*pairs[int(k)]) for k in fast_ids]
+        columns = [np.array([p[key] for p in props], dtype=float) for key in props[0]]
+        k = _constants(*columns).take(remap[idx[sel]])
+        out.put_result(sel, _evaluate(k, lb_a[sel], cb_a[sel], m))
+    rest = np.flatnonzero(~fast)
+    if rest.size:
+        sided = np.array([_side_matters(s) for s, _ in pairs])
+        side_code = np.where(sided[idx[rest]], sides[rest], 1).astype(np.int64) + 1  # 0, 1, 2
+        key = idx[rest].astype(np.int64) * 8 + minor[rest] * 4 + side_code
+        order = np.argsort(key, kind="stable")
+        groups, starts = np.unique(key[order], return_index=True)
+        for g, lo, hi in zip(groups, starts, [*starts[1:], order.size], strict=True):
+            part = rest[order[lo:hi]]
+            k_pair, ax_bit, side = int(g) // 8, (int(g) // 4) % 2, int(g) % 4 - 1
+            section, steel = pairs[k_pair]
+            ax: Axis = "minor" if ax_bit else "major"
+            _put_family(out, part, section, steel, lb_a[part], cb_a[part], ax, side)
+    return out.result(m)
 
 
 # --- Cb, AISC 360-16 Eq. F1-1 -------------------------------------------------
@@ -358,40 +644,22 @@ def shear_arrays(
 
 
 def is_rolled(section: Section) -> bool:
-    """Rolled: from the shape table, or with web-to-flange fillets (welded plates have none)."""
-    return section.source == TABLE_SOURCE or section.r > 0.0
+    """Rolled rather than built-up (the one decision: ``sections.classify.is_built_up``)."""
+    return not is_built_up(section)
 
 
 def shear(
-    section: Section, steel: Steel, method: str = "LRFD", rolled: bool | None = None
+    section: Section,
+    steel: Steel,
+    method: str = "LRFD",
+    rolled: bool | None = None,
+    *,
+    axis: str = "major",
+    lv: float | None = None,
 ) -> ShearResult:
-    """Web shear strength of an I-shape or channel, G2.1 (rolled inferred when None)."""
-    if section.family not in (ShapeFamily.I_SHAPE, ShapeFamily.CHANNEL):
-        raise OutOfScope(
-            f"{section.name}: shear of this family (AISC 360-16 G3–G5) not implemented"
-        )
-    rolled_i = section.family is ShapeFamily.I_SHAPE and (
-        is_rolled(section) if rolled is None else rolled
-    )
-    vn, design, cv1, factor = shear_arrays(
-        Fy=steel.fy,
-        E=steel.E,
-        d=section.d,
-        tw=section.tw,
-        h_tw=section.web_slenderness,
-        rolled_i=rolled_i,
-        method=method,
-    )
-    case_a = rolled_i and section.web_slenderness <= 2.24 * np.sqrt(steel.E / steel.fy)
-    clause = "AISC 360-16 G2.1(a)" if case_a else "AISC 360-16 G2.1(b)"
-    return ShearResult(
-        vn=float(vn[0]),
-        design_strength=float(design[0]),
-        cv1=float(cv1[0]),
-        factor=float(factor[0]),
-        method=check_method(method),
-        clause=clause,
-    )
+    """Chapter G shear strength (G2.1 webs, G3 tees and angles, G4 rectangular HSS,
+    G5 round HSS, G6 minor-axis I-shapes and channels); see ``aisc360_shear``."""
+    return aisc360_shear.shear(section, steel, method, _check_axis(axis), rolled, lv)
 
 
 def strength_curve(
@@ -401,9 +669,14 @@ def strength_curve(
     method: str = "LRFD",
     lb_max: float | None = None,
     n: int = 200,
+    *,
+    axis: str = "major",
+    compression_top: bool | None = None,
 ) -> tuple[FloatArray, FloatArray, NDArray[np.object_]]:
     """(Lb, design strength, limit state) from Lb = 0 to lb_max (default 1.5·Lr)."""
-    curve = AISC360().strength_curve(section, steel, cb, method, lb_max, n)
+    curve = AISC360().strength_curve(
+        section, steel, cb, method, lb_max, n, axis=axis, compression_top=compression_top
+    )
     return curve.lb, curve.design_strength, curve.limit_state
 
 
@@ -412,8 +685,8 @@ class AISC360(DesignStandard):
 
     name = NAME
 
-    def scope(self, section: Section, steel: Steel | None = None) -> str:
-        return scope(section, steel)
+    def scope(self, section: Section, steel: Steel | None = None, axis: str = "major") -> str:
+        return scope(section, steel, axis)
 
     def flexure(
         self,
@@ -422,11 +695,16 @@ class AISC360(DesignStandard):
         lb: ArrayLike,
         cb: ArrayLike = 1.0,
         method: str = "LRFD",
+        *,
+        axis: str = "major",
+        compression_top: ArrayLike | None = None,
     ) -> FlexureResult:
-        return flexure(section, steel, lb, cb, method)
+        return flexure(section, steel, lb, cb, method, axis=axis, compression_top=compression_top)
 
-    def shear(self, section: Section, steel: Steel, method: str = "LRFD") -> ShearResult:
-        return shear(section, steel, method)
+    def shear(
+        self, section: Section, steel: Steel, method: str = "LRFD", *, axis: str = "major"
+    ) -> ShearResult:
+        return shear(section, steel, method, axis=axis)
 
     def moment_gradient(
         self,
@@ -446,8 +724,13 @@ class AISC360(DesignStandard):
         lb: ArrayLike,
         cb: ArrayLike,
         method: str = "LRFD",
+        *,
+        axis: ArrayLike = "major",
+        compression_top: ArrayLike | None = None,
     ) -> FlexureResult:
-        return flexure_segments(pairs, index, lb, cb, method)
+        return flexure_segments(
+            pairs, index, lb, cb, method, axis=axis, compression_top=compression_top
+        )
 
 
 register_standard(NAME, AISC360)

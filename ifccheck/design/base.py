@@ -35,7 +35,10 @@ class FlexureResult:
     """Flexural strength per segment (arrays of one length), SI units.
 
     ``design_strength`` is φMn (LRFD) or Mn/Ω (ASD); ``factor`` is φ or Ω.
-    ``limit_state`` names the limit state that governs ``mn``.
+    ``limit_state`` names the limit state that governs ``mn``. ``mp`` is the
+    plastic limit the standard caps the strength at (e.g. 1.6My where it
+    applies). ``lp`` and ``lr`` are 0.0 where the section has no
+    lateral-torsional buckling (round HSS, minor-axis bending).
     """
 
     mp: FloatArray  # plastic moment, N·m
@@ -58,7 +61,7 @@ class ShearResult:
 
     vn: float  # nominal shear strength, N
     design_strength: float  # φVn or Vn/Ω, N
-    cv1: float  # web shear strength coefficient
+    cv1: float  # shear strength coefficient (AISC: Cv1 of G2.1, Cv2 of G3 to G6)
     factor: float  # φv or Ωv
     method: Method
     clause: str  # which provision applied, e.g. "AISC 360-16 G2.1(a)"
@@ -79,8 +82,9 @@ class DesignStandard(ABC):
     name: str
 
     @abstractmethod
-    def scope(self, section: Section, steel: Steel | None = None) -> str:
-        """'' if flexure of this section is covered, else the reason with the clause."""
+    def scope(self, section: Section, steel: Steel | None = None, axis: str = "major") -> str:
+        """'' if flexure of this section about ``axis`` is covered, else the reason with
+        the clause."""
 
     @abstractmethod
     def flexure(
@@ -90,12 +94,24 @@ class DesignStandard(ABC):
         lb: ArrayLike,
         cb: ArrayLike = 1.0,
         method: str = "LRFD",
+        *,
+        axis: str = "major",
+        compression_top: ArrayLike | None = None,
     ) -> FlexureResult:
-        """Major-axis flexural strength for each (Lb, Cb); OutOfScope if not covered."""
+        """Flexural strength for each (Lb, Cb); OutOfScope if not covered.
+
+        ``axis`` is "major" (bending about x) or "minor" (about y);
+        ``compression_top`` (per segment) is True where the top of the section
+        (see ``Section``) is in compression, False where the bottom is, which
+        matters for sections that are not doubly symmetric; None (not known)
+        takes the weaker side.
+        """
 
     @abstractmethod
-    def shear(self, section: Section, steel: Steel, method: str = "LRFD") -> ShearResult:
-        """Major-axis shear strength of the web."""
+    def shear(
+        self, section: Section, steel: Steel, method: str = "LRFD", *, axis: str = "major"
+    ) -> ShearResult:
+        """Shear strength for a shear force along y (``axis="major"``) or x ("minor")."""
 
     @abstractmethod
     def moment_gradient(
@@ -116,29 +132,43 @@ class DesignStandard(ABC):
         lb: ArrayLike,
         cb: ArrayLike,
         method: str = "LRFD",
+        *,
+        axis: ArrayLike = "major",
+        compression_top: ArrayLike | None = None,
     ) -> FlexureResult:
         """Flexure of many segments of many sections in one call.
 
         ``pairs`` are distinct (section, steel) combinations and ``index`` the
-        pair of each segment. This default evaluates pair by pair; a standard
-        may override it with a fully vectorised version.
+        pair of each segment; ``axis`` and ``compression_top`` are per segment
+        or scalars. This default evaluates pair by pair and axis by axis; a
+        standard may override it with a fully vectorised version.
         """
         idx = np.asarray(index, dtype=np.intp)
-        lb_a = np.asarray(lb, dtype=float)
-        cb_a = np.asarray(cb, dtype=float)
+        lb_a = np.broadcast_to(np.asarray(lb, dtype=float), idx.shape)
+        cb_a = np.broadcast_to(np.asarray(cb, dtype=float), idx.shape)
+        axes = np.broadcast_to(np.asarray(axis), idx.shape)
+        top = (
+            None
+            if compression_top is None
+            else np.broadcast_to(np.asarray(compression_top, dtype=bool), idx.shape)
+        )
         fields = ("mp", "mn", "design_strength", "lp", "lr", "mr")
         out = {f: np.zeros(idx.size) for f in fields}
         states = np.empty(idx.size, dtype=object)
         factor = 0.0
         for k, (section, steel) in enumerate(pairs):
-            sel = np.flatnonzero(idx == k)
-            if sel.size == 0:
-                continue
-            res = self.flexure(section, steel, lb_a[sel], cb_a[sel], method)
-            for f in fields:
-                out[f][sel] = getattr(res, f)
-            states[sel] = res.limit_state
-            factor = res.factor
+            for ax in ("major", "minor"):
+                sel = np.flatnonzero((idx == k) & (axes == ax))
+                if sel.size == 0:
+                    continue
+                side = None if top is None else top[sel]
+                res = self.flexure(
+                    section, steel, lb_a[sel], cb_a[sel], method, axis=ax, compression_top=side
+                )
+                for f in fields:
+                    out[f][sel] = getattr(res, f)
+                states[sel] = res.limit_state
+                factor = res.factor
         return FlexureResult(limit_state=states, factor=factor, method=check_method(method), **out)
 
     def strength_curve(
@@ -149,15 +179,27 @@ class DesignStandard(ABC):
         method: str = "LRFD",
         lb_max: float | None = None,
         n: int = 200,
+        *,
+        axis: str = "major",
+        compression_top: bool | None = None,
     ) -> StrengthCurve:
-        """Design strength sampled over Lb from 0 to ``lb_max`` (default 1.5·Lr)."""
+        """Design strength sampled over Lb from 0 to ``lb_max``.
+
+        The default is 1.5·Lr, or 30 times the depth (at least 1 m) for a
+        section without lateral-torsional buckling (Lr reported as 0).
+        """
         if lb_max is None:
-            probe = self.flexure(section, steel, [0.0], [1.0], method)
-            lb_max = 1.5 * float(max(probe.lr[0], probe.lp[0]))
+            probe = self.flexure(
+                section, steel, [0.0], [1.0], method, axis=axis, compression_top=compression_top
+            )
+            reach = float(max(probe.lr[0], probe.lp[0]))
+            lb_max = 1.5 * reach if 0.0 < reach < np.inf else max(30.0 * section.d, 1.0)
         if not lb_max > 0.0 or n < 2:
             raise ValueError("lb_max must be positive and n at least 2")
         lb = np.linspace(0.0, lb_max, n)
-        res = self.flexure(section, steel, lb, np.full(n, cb), method)
+        res = self.flexure(
+            section, steel, lb, np.full(n, cb), method, axis=axis, compression_top=compression_top
+        )
         return StrengthCurve(lb, res.design_strength, res.limit_state)
 
 
@@ -233,12 +275,13 @@ def allowable_deflection(span: ArrayLike, ratio: ArrayLike) -> FloatArray:
     ratio_a = np.asarray(ratio, dtype=float)
     if np.any(ratio_a <= 0.0):
         raise ValueError("deflection ratio must be positive")
-    return span_a / ratio_a
+    return np.asarray(span_a / ratio_a, dtype=float)
 
 
 def deflection_ratio(actual: ArrayLike, span: ArrayLike, ratio: ArrayLike) -> FloatArray:
     """|actual| / allowable: 1.0 is at the limit."""
-    return np.abs(np.asarray(actual, dtype=float)) / allowable_deflection(span, ratio)
+    ratio_a = np.abs(np.asarray(actual, dtype=float)) / allowable_deflection(span, ratio)
+    return np.asarray(ratio_a, dtype=float)
 
 
 def deflection_limits(

