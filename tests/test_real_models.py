@@ -125,8 +125,8 @@ def test_half_ipe300_is_a_tee(tmp_path):
     assert t["profile"] == "1/2IPE300" and t["family"] == "T"
     # half of IPE300 (EN 10365, from memory): d 150, bf 150, tw 7.1, tf 10.7, r 15 mm
     assert dims_mm(t) == pytest.approx({"d": 150, "bf": 150, "tw": 7.1, "tf": 10.7, "r": 15})
-    assert t["section"] is None  # no tee routine on this branch yet
-    assert t["unresolved_code"] == "shape_without_properties"
+    assert t["section"]["family"] == "T" and t["unresolved"] is None
+    assert t["section"]["A"] == pytest.approx(IPE300_AREA / 2, rel=0.005)  # half of EN 10365
     assert t["length"] == pytest.approx(3.0)
     assert t["fy"] == pytest.approx(355 * MPA)
 
@@ -135,7 +135,9 @@ def test_angle_with_every_dimension(tmp_path):
     k = member(inspect(rm.angle_brace(tmp_path)), "K1")
     assert k["family"] == "L" and k["profile"] == "L100x100x10"
     assert dims_mm(k) == pytest.approx({"d": 100, "b": 100, "t": 10, "r": 12})
-    assert k["unresolved_code"] == "shape_without_properties"  # not "dimensions missing"
+    assert k["unresolved"] is None  # not "dimensions missing"
+    # EN 10056-1, from memory: L 100 x 100 x 10 A 19.2 cm² (toe radii not drawn: +1 %)
+    assert k["section"]["A"] == pytest.approx(19.2e-4, rel=0.01)
     assert k["fy"] == pytest.approx(275 * MPA)  # S275JR, t ≤ 16 mm (EN 10025-2)
     assert k["length"] == pytest.approx((1.5**2 + 1.05**2) ** 0.5)
 

@@ -132,27 +132,47 @@ def test_variants_the_catalogue_lacks_are_named_as_such(text: str) -> None:
 
 
 @pytest.mark.parametrize(
-    ("text", "family", "dims_mm"),
+    ("text", "family", "dims_mm", "area_cm2", "rel"),
     [
-        # half an IPE300 (EN 10365, from memory: h 300, b 150, tw 7.1, tf 10.7, r 15)
-        ("1/2IPE300", ShapeFamily.TEE, {"d": 150, "bf": 150, "tw": 7.1, "tf": 10.7, "r": 15}),
-        ("½ HEA 200", ShapeFamily.TEE, {"d": 95, "bf": 200, "tw": 6.5, "tf": 10, "r": 18}),
-        ("RHS 200x100x8", ShapeFamily.HOLLOW_RECT, {"d": 200, "b": 100, "t": 8}),
-        ("SHS 100x5", ShapeFamily.HOLLOW_RECT, {"d": 100, "b": 100, "t": 5}),
-        ("CHS 168.3x6.3", ShapeFamily.HOLLOW_ROUND, {"od": 168.3, "t": 6.3}),
-        ("T 100x100x11", ShapeFamily.TEE, {"d": 100, "bf": 100, "tw": 11, "tf": 11}),
-        ("L100x100x10", ShapeFamily.ANGLE, {"d": 100, "b": 100, "t": 10}),
+        # half an IPE300 (EN 10365, from memory: h 300, b 150, tw 7.1, tf 10.7, r 15;
+        # A 53.8 cm², so half is 26.9 cm²)
+        ("1/2IPE300", ShapeFamily.TEE, {"d": 150, "bf": 150, "tw": 7.1, "tf": 10.7, "r": 15},
+         53.81 / 2, 0.005),
+        ("½ HEA 200", ShapeFamily.TEE, {"d": 95, "bf": 200, "tw": 6.5, "tf": 10, "r": 18},
+         53.83 / 2, 0.005),
+        # EN 10210-2, from memory: CHS 168.3 x 6.3 A 32.1 cm²
+        ("CHS 168.3x6.3", ShapeFamily.HOLLOW_ROUND, {"od": 168.3, "t": 6.3}, 32.1, 0.005),
+        # EN 10056-1, from memory: L 100 x 100 x 10 A 19.2 cm² (toe radii not drawn: +1 %)
+        ("L100x100x10", ShapeFamily.ANGLE, {"d": 100, "b": 100, "t": 10, "r": 12}, 19.2, 0.01),
+        ("RHS 200x100x8", ShapeFamily.HOLLOW_RECT, {"d": 200, "b": 100, "t": 8}, None, 0.0),
+        ("SHS 100x5", ShapeFamily.HOLLOW_RECT, {"d": 100, "b": 100, "t": 5}, None, 0.0),
+        ("T 100x100x11", ShapeFamily.TEE, {"d": 100, "bf": 100, "tw": 11, "tf": 11}, None, 0.0),
     ],
-)
-def test_shapes_without_properties_keep_their_dimensions(text, family, dims_mm) -> None:
+)  # fmt: skip
+def test_shapes_in_names_keep_their_dimensions(text, family, dims_mm, area_cm2, rel) -> None:
     found = find_shape(text)
     assert found is not None and found.shape is not None
     assert found.family is family
     dims = found.shape.dimensions()
     for key, mm in dims_mm.items():
         assert dims[key] == pytest.approx(mm / 1000.0), key
-    assert found.section is None
-    assert found.reason.code is NotChecked.SHAPE_WITHOUT_PROPERTIES
+    assert found.section is not None and found.section.family is family
+    if area_cm2 is not None:
+        assert found.section.A == pytest.approx(area_cm2 * CM2, rel=rel)
+
+
+def test_rhs_by_name_against_sectionproperties() -> None:
+    # the corner radius is not in the name: the section routine takes ro = 2t
+    from sectionproperties.analysis import Section as FeSection
+    from sectionproperties.pre.library import rectangular_hollow_section
+
+    found = find_shape("RHS 200x100x8")
+    geom = rectangular_hollow_section(d=200.0, b=100.0, t=8.0, r_out=16.0, n_r=32)
+    geom.create_mesh(mesh_sizes=[20.0])
+    fe = FeSection(geom)
+    fe.calculate_geometric_properties()
+    assert found.section.A == pytest.approx(fe.get_area() * 1e-6, rel=0.002)
+    assert found.section.Ix == pytest.approx(fe.get_ic()[0] * 1e-12, rel=0.002)
 
 
 @pytest.mark.parametrize(

@@ -145,22 +145,15 @@ def _parametric_shape(profile: Entity, name: str, s: float) -> Shape | ResolvedP
         return float(raw) * _angle_scale(profile) if raw else 0.0
 
     if profile.is_a("IfcAsymmetricIShapeProfileDef"):
-        bt = _get(profile, "TopFlangeWidth", s) or _get(profile, "BottomFlangeWidth", s)
-        tt = _get(profile, "TopFlangeThickness", s) or _get(profile, "BottomFlangeThickness", s)
         bb, tb = _get(profile, "BottomFlangeWidth", s), _get(profile, "BottomFlangeThickness", s)
+        bt = _get(profile, "TopFlangeWidth", s) or bb
+        tt = _get(profile, "TopFlangeThickness", s) or tb
         d, tw = _get(profile, "OverallDepth", s), _get(profile, "WebThickness", s)
         r = _get(profile, "BottomFlangeFilletRadius", s)
-        shape = Shape(label, ShapeFamily.I_SHAPE, d, bb, tw, tb, r, source=kind)
-        if math.isclose(bt, bb, rel_tol=1e-6) and math.isclose(tt, tb, rel_tol=1e-6):
-            return shape
-        detail = (
-            f"singly symmetric I {label} (d {d * 1e3:.4g}, top flange {bt * 1e3:.4g} × "
-            f"{tt * 1e3:.4g}, bottom flange {bb * 1e3:.4g} × {tb * 1e3:.4g} mm): "
-            "no section-property routine for this shape yet"
-        )
-        return ResolvedProfile(
-            label, None, "", d, max(bt, bb),
-            Reason.of(NotChecked.SHAPE_WITHOUT_PROPERTIES, detail=detail), shape=shape,
+        same = math.isclose(bt, bb, rel_tol=1e-6) and math.isclose(tt, tb, rel_tol=1e-6)
+        return Shape(
+            label, ShapeFamily.I_SHAPE, d, bt, tw, tt, r, source=kind,
+            bf_bottom=0.0 if same else bb, tf_bottom=0.0 if same else tb,
         )  # fmt: skip
     if profile.is_a("IfcIShapeProfileDef"):
         return Shape(

@@ -16,11 +16,18 @@ hollow sections d = bf = outside diameter, tw = tf = t.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from ifccheck.model import Section, ShapeFamily
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.sections.compute import channel_from_dimensions, i_section_from_dimensions
+from ifccheck.sections.shapes import (
+    angle_from_dimensions,
+    rect_hollow_from_dimensions,
+    round_hollow_from_dimensions,
+    singly_symmetric_i_from_dimensions,
+    tee_from_dimensions,
+)
 
 FAMILY_WORDS = {
     ShapeFamily.I_SHAPE: "I-shape",
@@ -47,6 +54,9 @@ class Shape:
     flange_slope: float = 0.0  # radians; tf is then the mean thickness at mid-outstand
     fabrication: str = ""  # "rolled", "welded" or "" (unknown)
     source: str = ""  # e.g. "EN 10365 via structuralcodes", "IfcLShapeProfileDef", "name"
+    # A singly symmetric I: the bottom flange (bf, tf are then the top flange's); 0: same.
+    bf_bottom: float = 0.0
+    tf_bottom: float = 0.0
 
     def dimensions(self) -> dict[str, float]:
         """Named dimensions (m) in the words of the family."""
@@ -60,6 +70,9 @@ class Shape:
         if f is ShapeFamily.OTHER:
             return {"d": self.d, "b": self.bf}
         dims = {"d": self.d, "bf": self.bf, "tw": self.tw, "tf": self.tf, "r": self.r}
+        if self.bf_bottom or self.tf_bottom:
+            dims["bf_bottom"] = self.bf_bottom or self.bf
+            dims["tf_bottom"] = self.tf_bottom or self.tf
         if self.flange_slope:
             dims["flange_slope"] = self.flange_slope
         return dims
@@ -80,22 +93,37 @@ class Shape:
 def section_of(shape: Shape) -> tuple[Section | None, Reason | None]:
     """Section properties of a shape, or None and the reason there are none.
 
-    I-shapes and channels are computed with the closed forms and outlines of
-    :mod:`ifccheck.sections.compute`. Other families keep their dimensions only.
+    I-shapes and channels are computed by :mod:`ifccheck.sections.compute`;
+    singly symmetric I-shapes, tees, angles and hollow sections by
+    :mod:`ifccheck.sections.shapes`. Other shapes keep their dimensions only.
     """
+    s = shape
     try:
-        if shape.family is ShapeFamily.I_SHAPE:
-            s = i_section_from_dimensions(
-                shape.name, shape.d, shape.bf, shape.tw, shape.tf, shape.r, shape.flange_slope
-            )
-            return s, None
-        if shape.family is ShapeFamily.CHANNEL:
-            s = channel_from_dimensions(
-                shape.name, shape.d, shape.bf, shape.tw, shape.tf, shape.r, shape.flange_slope
-            )
-            return s, None
+        section: Section | None = None
+        f = s.family
+        if f is ShapeFamily.I_SHAPE and (s.bf_bottom or s.tf_bottom):
+            section = singly_symmetric_i_from_dimensions(
+                s.name, s.d, s.bf, s.tf, s.bf_bottom or s.bf, s.tf_bottom or s.tf, s.tw, s.r,
+                fabrication=s.fabrication,
+            )  # fmt: skip
+        elif f is ShapeFamily.I_SHAPE:
+            section = i_section_from_dimensions(s.name, s.d, s.bf, s.tw, s.tf, s.r, s.flange_slope)
+        elif f is ShapeFamily.CHANNEL:
+            section = channel_from_dimensions(s.name, s.d, s.bf, s.tw, s.tf, s.r, s.flange_slope)
+        elif f is ShapeFamily.TEE:
+            section = tee_from_dimensions(s.name, s.d, s.bf, s.tw, s.tf, s.r)
+        elif f is ShapeFamily.ANGLE:
+            section = angle_from_dimensions(s.name, s.d, s.bf, s.tw, s.r)
+        elif f is ShapeFamily.HOLLOW_RECT:
+            section = rect_hollow_from_dimensions(s.name, s.d, s.bf, s.tw, s.r or None)
+        elif f is ShapeFamily.HOLLOW_ROUND:
+            section = round_hollow_from_dimensions(s.name, s.d, s.tw)
     except ValueError as exc:
         return None, Reason.of(NotChecked.BAD_ELEMENT, detail=str(exc))
+    if section is not None:
+        if s.fabrication and not section.fabrication:
+            section = replace(section, fabrication=s.fabrication)
+        return section, None
     return None, Reason.of(
         NotChecked.SHAPE_WITHOUT_PROPERTIES,
         detail=f"{shape.describe()}: no section-property routine for this family yet",
