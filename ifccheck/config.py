@@ -24,7 +24,12 @@ class DesignSettings:
 
 @dataclass
 class SteelSettings:
-    default_grade: str = "A992"
+    # Grade assumed where the model names none. None (the default): such a member
+    # is not checked; a grade set here is the user's stated assumption, noted on
+    # every member checked on it.
+    default_grade: str | None = None
+    # Material name in the model → grade ("Metal - Steel - 250 MPa" = "250 MPa").
+    materials: dict[str, str] = field(default_factory=dict)
 
 
 @dataclass
@@ -219,6 +224,32 @@ def _string(value: Any, key: str) -> str:
     return value.strip()
 
 
+def _grade(value: Any, key: str) -> str:
+    """A steel grade the tool knows: "A992", "S355", "A572 Gr 50", "250 MPa", "Fy 50 ksi"."""
+    from ifccheck.sections.grades import known_grades, steel_from_name
+
+    text = _string(value, key)
+    if steel_from_name(text) is None:
+        raise _fail(
+            key,
+            f"{value!r} is not a steel grade this tool knows (one of {', '.join(known_grades())}, "
+            "or a yield strength such as '250 MPa' or 'Fy 50 ksi')",
+        )
+    return text
+
+
+def _grade_table(value: Any, key: str) -> dict[str, str]:
+    """Material name → grade; every grade must be one the tool knows."""
+    if not isinstance(value, Mapping):
+        raise _fail(key, f"{value!r} is not a table")
+    out: dict[str, str] = {}
+    for name, grade in value.items():
+        if not name.strip():
+            raise _fail(key, "a material name is empty")
+        out[name] = _grade(grade, _key(key, name))
+    return out
+
+
 def _method(value: Any, key: str) -> str:
     text = _string(value, key).upper()
     if text not in ("LRFD", "ASD"):
@@ -304,7 +335,7 @@ def _storey_table(value: Any, key: str) -> dict[str, StoreyLoads]:
 
 _SECTIONS: dict[str, dict[str, Callable[[Any, str], Any]]] = {
     "design": {"standard": _string, "method": _method},
-    "steel": {"default_grade": _string},
+    "steel": {"default_grade": _grade, "materials": _grade_table},
     "framing": {
         "gap": _quantity("length"),
         "elevation_tolerance": _quantity("length"),

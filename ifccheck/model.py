@@ -160,6 +160,12 @@ class Member:
     level: str = ""
     # How the role was decided: "class" (IFC class and type) or "geometry".
     role_source: str = "class"
+    # --- Shape as read (reader, issue 11): the family and dimensions are known for
+    # every common shape, with or without section properties (a tee, an angle or a
+    # hollow section can brace and support before it can be checked).
+    family: ShapeFamily | None = None
+    # Dimensions in m named for the family (d, bf, tw, tf, r; angles d, b, t, r; ...).
+    dimensions: dict[str, float] = field(default_factory=dict)
 
     @property
     def length(self) -> float:

@@ -24,6 +24,8 @@ class NotChecked(StrEnum):
     NO_PROFILE = "no_profile"
     PROFILE_NOT_IN_TABLE = "profile_not_in_table"
     PROFILE_WITHOUT_DIMENSIONS = "profile_without_dimensions"
+    OUTLINE_NOT_RECOGNISED = "outline_not_recognised"
+    SHAPE_WITHOUT_PROPERTIES = "shape_without_properties"
     NOT_STEEL = "not_steel"
     NO_GRADE = "no_grade"
     BAD_ELEMENT = "bad_element"
@@ -54,6 +56,8 @@ _STATEMENTS: dict[NotChecked, str] = {
     NotChecked.NO_PROFILE: "profile not found: no profile set, swept area or designation",
     NotChecked.PROFILE_NOT_IN_TABLE: "profile {name!r} not found in {table}",
     NotChecked.PROFILE_WITHOUT_DIMENSIONS: "profile dimensions missing: {detail}",
+    NotChecked.OUTLINE_NOT_RECOGNISED: "profile outline not recognised as a steel shape: {detail}",
+    NotChecked.SHAPE_WITHOUT_PROPERTIES: "section properties not computed: {detail}",
     NotChecked.NOT_STEEL: "out of scope: {category} member ({material})",
     NotChecked.NO_GRADE: "no steel grade in the model: {detail}",
     NotChecked.BAD_ELEMENT: "cannot be read: {detail}",

@@ -14,7 +14,8 @@ PACKAGE = Path(__file__).parents[1] / "ifccheck"
 LAYERS: list[set[str]] = [
     {"errors", "reasons", "perf", "atomic"},
     {"units", "model", "results"},
-    {"config", "sections"},
+    {"sections"},
+    {"config"},
     {"ifc", "framing", "design"},
     {"floors"},
     {"loads"},

@@ -96,7 +96,9 @@ def test_inspect_json_schema_keys():
     for key in ("A", "Ix", "Iy", "Sx", "Zx", "ry", "J", "Cw", "ho", "rts"):
         assert b["section"][key] > 0
     lintel = next(m for m in beams if m["name"] == "L1")
-    assert lintel["unresolved"].startswith("profile dimensions missing")
+    # given by name only: HEB160 from the European catalogue (EN 10365 via structuralcodes)
+    assert lintel["unresolved"] is None
+    assert lintel["section"]["name"] == "HEB160" and "EN 10365" in lintel["section"]["source"]
     (slab,) = doc["slabs"]
     assert slab["thickness"] == pytest.approx(0.2)
     assert slab["area"] == pytest.approx(6.2 * 7.7 - 1.5 * 1.5)

@@ -17,7 +17,7 @@ from shapely.geometry import Point
 
 from ifccheck.ifc.author import IProfile, ModelAuthor
 from ifccheck.ifc.reader import read_model
-from ifccheck.model import MaterialCategory, MemberRole
+from ifccheck.model import MaterialCategory, MemberRole, ShapeFamily
 from ifccheck.reasons import NotChecked
 
 FT = 0.3048
@@ -160,20 +160,28 @@ def test_metric_designation_resolves_to_us_shape(tmp_path):
     assert model.members[0].section.name == "W24X84"
 
 
-def test_unnamed_outline_is_not_resolved(tmp_path):
+def test_unnamed_outline_is_read_by_what_it_draws(tmp_path):
+    # a 12-corner outline drawn from W24X84's d, bf, tw, tf (AISC Shapes Database v16.0)
     model = one_beam_model(tmp_path, "foot", profile=w24("foot", kind="outline", name=""))
     (beam,) = model.members
-    assert beam.section is None
-    assert beam.unresolved.code is NotChecked.PROFILE_WITHOUT_DIMENSIONS
-    assert beam.depth == pytest.approx(W24X84_IN["d"] * IN, rel=1e-6)  # envelope kept
+    assert beam.section is not None and beam.unresolved is None
+    s = beam.section
+    d = W24X84_IN
+    assert (s.d, s.bf, s.tw, s.tf, s.r) == pytest.approx(
+        (d["d"] * IN, d["bf"] * IN, d["tw"] * IN, d["tf"] * IN, 0.0), rel=1e-6, abs=1e-9
+    )
+    assert "outline" in s.source
+    assert beam.family is ShapeFamily.I_SHAPE
 
 
-def test_european_name_only_is_not_resolved(tmp_path):
+def test_european_name_only_resolves_from_the_catalogue(tmp_path):
+    # HE 200 A, EN 10365 (from memory): h 190, b 200, tw 6.5, tf 10, r 18 mm; A 53.8 cm²
     prof = IProfile("HE 200 A", 190.0, 200.0, 6.5, 10.0, 18.0, kind="outline")
     model = one_beam_model(tmp_path, "millimetre", profile=prof, material="S355")
     (beam,) = model.members
-    assert beam.section is None
-    assert beam.unresolved.code is NotChecked.PROFILE_WITHOUT_DIMENSIONS
+    assert beam.section is not None and beam.section.name == "HEA200"
+    assert beam.section.A == pytest.approx(53.8e-4, rel=0.005)
+    assert "EN 10365" in beam.section.source
 
 
 def test_european_dimensions_computed(tmp_path):
@@ -206,12 +214,23 @@ def test_yield_stress_property(tmp_path):
     assert beam.grade_source == "material property"
 
 
-def test_unknown_material_takes_default_with_note(tmp_path):
+def test_unknown_material_is_not_checked_without_a_stated_default(tmp_path):
     model = one_beam_model(tmp_path, "foot", material="Mystery alloy")
     (beam,) = model.members
-    assert beam.steel.grade == "A992"
+    assert beam.steel is None
+    assert beam.unresolved.code is NotChecked.NO_GRADE
+    assert "Mystery alloy" in beam.unresolved.text
+
+
+def test_unknown_material_takes_a_stated_default_with_note(tmp_path):
+    a = ModelAuthor("IFC4", "foot")
+    a.storey("L2", 14.0)
+    a.beam("L2", (0, 0, 0), (30, 0, 0), w24("foot"), material="Mystery alloy", key="b")
+    model = read_model(a.write(tmp_path / "m.ifc"), default_grade="A992")
+    (beam,) = model.members
+    assert beam.steel.grade == "A992" and beam.unresolved is None
     assert beam.grade_source == "default"
-    assert any("assumed" in n for n in beam.notes)
+    assert any("assumed A992" in n for n in beam.notes)
 
 
 def test_concrete_beam_out_of_scope(tmp_path):

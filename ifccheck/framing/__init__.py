@@ -21,7 +21,7 @@ from ifccheck.framing.connections import (
 )
 from ifccheck.framing.graph import build_framing, load_path_order
 from ifccheck.framing.index import BoxIndex, MemberGeometry, member_geometry
-from ifccheck.framing.roles import STUB, infer_roles
+from ifccheck.framing.roles import PLURALS, STUB, infer_roles
 from ifccheck.framing.slabs import slab_coverage
 from ifccheck.framing.types import (
     BracePoint,
@@ -114,7 +114,8 @@ def excluded_members(geom: MemberGeometry, stubs: set[int]) -> dict[str, list[st
 def excluded_warning(excluded: dict[str, list[str]]) -> str:
     """One line for every member that braces or supports nothing, counted by kind."""
     total = sum(len(v) for v in excluded.values())
-    parts = ", ".join(f"{len(v)} {k}{'s' if len(v) != 1 else ''}" for k, v in excluded.items())
+    parts = ", ".join(f"{len(v)} {k if len(v) == 1 else PLURALS.get(k, k)}"
+                      for k, v in excluded.items())  # fmt: skip
     return (
         f"{total} element{'s' if total != 1 else ''} written as beams, columns or members "
         f"brace and support nothing (not structural members): {parts}"

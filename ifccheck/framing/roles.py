@@ -38,8 +38,20 @@ _HARDWARE = (
     (r"boards?|panels?|claddings?|insulation", "board"),
 )
 _HARDWARE_RE = [(re.compile(rf"(?<![a-z])(?:{p})(?![a-z])"), kind) for p, kind in _HARDWARE]
+# words that make a name a structural member whatever else it says ("plate girder")
+_STRUCTURAL_RE = re.compile(r"(?<![a-z])(?:girders?|beams?|joists?|columns?|trusse?s?|braces?|"
+                            r"struts?|kickers?|purlins?|rafters?|lintels?)(?![a-z])")  # fmt: skip
 UNKNOWN_SECTION = "member of unknown section"
 STUB = "piece shorter than the member it touches"
+PLURALS = {
+    "fastener": "fasteners",
+    "ring": "rings",
+    "rod": "rods",
+    "plate or flat": "plates or flats",
+    "board": "boards",
+    UNKNOWN_SECTION: "members of unknown section",
+    STUB: "pieces shorter than the member they touch",
+}
 
 
 def slope_degrees(m: Member) -> float:
@@ -98,11 +110,16 @@ def _slab_on_top(m: Member, slabs: list[Slab], tolerance: float) -> bool:
 
 
 def non_structural_kind(m: Member) -> str | None:
-    """Why a member may not brace or support another (its kind), or None if it may."""
+    """Why a member may not brace or support another (its kind), or None if it may.
+
+    A name that says hardware (nut, washer, rod, plate, board…) decides, whatever
+    section an outline gave it, unless it also says what structural member it is.
+    """
     text = f"{m.name} {m.profile_name}".lower()
-    for pattern, kind in _HARDWARE_RE:
-        if pattern.search(text) and m.section is None:
-            return kind
+    if not _STRUCTURAL_RE.search(text):
+        for pattern, kind in _HARDWARE_RE:
+            if pattern.search(text):
+                return kind
     if m.role is MemberRole.COLUMN or m.section is not None:
         return None
     return UNKNOWN_SECTION

@@ -118,56 +118,143 @@ def _unfold(item: Entity, matrix: np.ndarray) -> Iterator[tuple[np.ndarray, Enti
         yield matrix, item
 
 
+def extrusions(element: Entity) -> list[tuple[np.ndarray, Entity]]:
+    """Every IfcExtrudedAreaSolid of the body, with its item-to-object matrix."""
+    return [(m, item) for m, item in body_items(element) if item.is_a("IfcExtrudedAreaSolid")]
+
+
+def extrusion_direction(matrix: np.ndarray, solid: Entity) -> tuple[np.ndarray, float]:
+    """Unit direction (object space) and length (file units) of an extrusion."""
+    m = matrix @ axis2_matrix(solid.Position)
+    direction = m[:3, :3] @ np.asarray(solid.ExtrudedDirection.DirectionRatios, dtype=float)
+    norm = float(np.linalg.norm(direction))
+    length = float(solid.Depth) * norm
+    return direction / norm, length
+
+
 def first_extrusion(element: Entity) -> tuple[np.ndarray, Entity] | None:
     """The first IfcExtrudedAreaSolid of the body and its item-to-object matrix."""
-    for matrix, item in body_items(element):
-        if item.is_a("IfcExtrudedAreaSolid"):
-            return matrix, item
-    return None
+    found = extrusions(element)
+    return found[0] if found else None
 
 
 def axis_points(element: Entity) -> tuple[np.ndarray, np.ndarray] | None:
-    """First and last point of the 'Axis' representation, in object space."""
+    """First and last point of the 'Axis' representation, in object space.
+
+    Mapped items (a type's axis map) are unfolded with their transformation.
+    """
     for ident, rep in representations(element):
         if ident != "Axis":
             continue
         for item in rep.Items:
-            pts = curve_points(item)
-            if pts is not None and len(pts) >= 2:
-                p = np.zeros((len(pts), 3))
-                p[:, : pts.shape[1]] = pts
-                return p[0], p[-1]
+            for matrix, curve in _unfold(item, np.eye(4)):
+                pts = curve_points(curve)
+                if pts is not None and len(pts) >= 2:
+                    p = np.zeros((len(pts), 3))
+                    p[:, : pts.shape[1]] = pts
+                    ends = transform(matrix, np.vstack([p[0], p[-1]]))
+                    return ends[0], ends[1]
     return None
 
 
+ARC_SEGMENTS = 16  # chords per arc when an outline's arcs are turned into polygons
+
+
+def _arc_through(p0: np.ndarray, p1: np.ndarray, p2: np.ndarray) -> np.ndarray:
+    """Points on the circular arc from p0 through p1 to p2 (2D), p0 and p2 included."""
+    a, b, c = (np.asarray(p, dtype=float)[:2] for p in (p0, p1, p2))
+    d = 2.0 * (a[0] * (b[1] - c[1]) + b[0] * (c[1] - a[1]) + c[0] * (a[1] - b[1]))
+    if abs(d) < 1e-15 * max(1.0, float(np.abs(np.vstack([a, b, c])).max()) ** 2):
+        return np.vstack([a, c])  # collinear: a straight piece
+    sa, sb, sc = a @ a, b @ b, c @ c
+    centre = np.array(
+        [
+            (sa * (b[1] - c[1]) + sb * (c[1] - a[1]) + sc * (a[1] - b[1])) / d,
+            (sa * (c[0] - b[0]) + sb * (a[0] - c[0]) + sc * (b[0] - a[0])) / d,
+        ]
+    )
+    radius = float(np.linalg.norm(a - centre))
+    t0, t1, t2 = (math.atan2(p[1] - centre[1], p[0] - centre[0]) for p in (a, b, c))
+    sweep = (t2 - t0) % (2 * math.pi)
+    through = (t1 - t0) % (2 * math.pi)
+    if through > sweep:  # the arc runs the other way round
+        sweep -= 2 * math.pi
+    angles = t0 + np.linspace(0.0, sweep, ARC_SEGMENTS + 1)
+    pts = np.column_stack(
+        [centre[0] + radius * np.cos(angles), centre[1] + radius * np.sin(angles)]
+    )
+    pts[0], pts[-1] = a, c
+    return pts
+
+
+def _trimmed_circle(curve: Entity) -> np.ndarray | None:
+    """Points of an IfcTrimmedCurve on an IfcCircle (2D, in the curve's own space)."""
+    circle = curve.BasisCurve
+    m = axis2_matrix(circle.Position)
+    radius = float(circle.Radius)
+    ends: list[float] = []
+    for trim in (curve.Trim1, curve.Trim2):
+        points = [v for v in trim if v.is_a("IfcCartesianPoint")]
+        params = [v for v in trim if v.is_a("IfcParameterValue")]
+        if points:
+            local = np.linalg.solve(m, np.array([*points[0].Coordinates[:2], 0.0, 1.0]))
+            ends.append(math.atan2(local[1], local[0]))
+        elif params:
+            import ifcopenshell.util.unit as uunit
+
+            scale = float(uunit.calculate_unit_scale(curve.file, "PLANEANGLEUNIT"))
+            ends.append(float(params[0].wrappedValue) * scale)
+        else:
+            return None
+    t0, t1 = ends
+    turn = 2 * math.pi
+    sweep = (t1 - t0) % turn if curve.SenseAgreement else -((t0 - t1) % turn)
+    angles = t0 + np.linspace(0.0, sweep, ARC_SEGMENTS + 1)
+    local = np.column_stack(
+        [radius * np.cos(angles), radius * np.sin(angles), np.zeros(len(angles))]
+    )
+    return transform(m, local)[:, :2]
+
+
 def curve_points(curve: Entity) -> np.ndarray | None:
-    """Vertices of a polyline-like curve (IfcPolyline, IfcIndexedPolyCurve, IfcLine trim)."""
+    """Vertices of a polyline-like curve, arcs turned into chords.
+
+    IfcPolyline, IfcIndexedPolyCurve (line and arc segments), IfcTrimmedCurve on
+    an IfcLine or an IfcCircle, and IfcCompositeCurve of those.
+    """
     if curve.is_a("IfcPolyline"):
         return np.array([p.Coordinates for p in curve.Points], dtype=float)
     if curve.is_a("IfcIndexedPolyCurve"):
         coords = np.array(curve.Points.CoordList, dtype=float)
-        if curve.Segments:
-            idx: list[int] = []
-            for seg in curve.Segments:
-                for i in seg.wrappedValue:
-                    if not idx or idx[-1] != i:
-                        idx.append(i)
-            return coords[np.array(idx) - 1]
-        return coords
+        if not curve.Segments:
+            return coords
+        chunks: list[np.ndarray] = []
+        for seg in curve.Segments:
+            idx = np.array(seg.wrappedValue, dtype=int) - 1
+            if seg.is_a("IfcArcIndex") and len(idx) == 3:
+                piece = _arc_through(*coords[idx])
+                if coords.shape[1] == 3:
+                    piece = np.column_stack([piece, np.full(len(piece), coords[idx[0], 2])])
+            else:
+                piece = coords[idx]
+            chunks.append(piece if not chunks else piece[1:])
+        return np.vstack(chunks)
     if curve.is_a("IfcTrimmedCurve") and curve.BasisCurve.is_a("IfcLine"):
         pts = [t for t in curve.Trim1 + curve.Trim2 if t.is_a("IfcCartesianPoint")]
         if len(pts) == 2:
             return np.array([p.Coordinates for p in pts], dtype=float)
+    if curve.is_a("IfcTrimmedCurve") and curve.BasisCurve.is_a("IfcCircle"):
+        return _trimmed_circle(curve)
     if curve.is_a("IfcCompositeCurve"):
-        chunks = []
+        parts: list[np.ndarray] = []
         for seg in curve.Segments:
             sub = curve_points(seg.ParentCurve)
             if sub is None:
                 return None
             if not seg.SameSense:
                 sub = sub[::-1]
-            chunks.append(sub if not chunks else sub[1:])
-        return np.vstack(chunks) if chunks else None
+            parts.append(sub[:, :2] if not parts else sub[1:, :2])
+        return np.vstack(parts) if parts else None
     return None
 
 

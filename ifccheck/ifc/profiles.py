@@ -1,70 +1,84 @@
-"""Profile definitions and steel materials → Section and Steel.
+"""Profile definitions and steel materials → Section, Shape and Steel.
 
-A profile with I-shape dimensions gives its section directly; a designation
-found in the AISC Shapes Database v16.0 uses the tabulated properties, with
-the modelled dimensions kept as a cross-check. Everything else is resolved
-by name or reported with the reason it could not be.
+Every profile becomes a :class:`~ifccheck.sections.dimensions.Shape` with its
+family and dimensions where it can: the parametric profiles (I, U, T, L,
+rectangular and circular hollow, asymmetric I, lipped C, Z) directly, a polygon
+outline by recognising what it draws, and anything else by the designation in
+its name. A designation found in the AISC Shapes Database v16.0 uses the
+tabulated properties, with the modelled dimensions kept as a cross-check; the
+European catalogue and modelled dimensions give computed properties.
+
+The steel grade is looked for wherever models put it, in this order: the
+settings' ``[steel.materials]`` table, the material's name, its yield-stress
+property, then the type, profile and element names and their properties, then
+the material of an analysis member assigned to the element.
 """
 
 from __future__ import annotations
 
 import copy
-import re
-from dataclasses import dataclass, field
+import math
+from collections.abc import Mapping
+from dataclasses import dataclass, field, replace
 
 import ifcopenshell
 import ifcopenshell.util.element as uelement
+import numpy as np
+from shapely import affinity  # type: ignore[import-untyped]
 
-from ifccheck.model import MaterialCategory, Section, Steel
+from ifccheck.model import MaterialCategory, Section, ShapeFamily, Steel
 from ifccheck.reasons import NotChecked, Reason
-from ifccheck.sections import (
-    channel_from_dimensions,
-    i_section_from_dimensions,
-    lookup,
-    material_category,
-    steel_from_name,
-    steel_from_yield,
-)
+from ifccheck.sections import grade_problem, material_category, steel_from_name, steel_from_yield
+from ifccheck.sections.dimensions import Shape, section_of, shape_of_section
+from ifccheck.sections.names import find_shape
+from ifccheck.sections.outline import Recognised, recognise
+from ifccheck.sections.table import SOURCE as AISC_SOURCE
 
 Entity = ifcopenshell.entity_instance
-
-# A US designation inside a longer name: "Beam:W24X84:1234", "W 24x84", "W610x125"
-_US_NAME = re.compile(
-    r"(?<![A-Z])(W|M|S|HP|MC|C|WT|MT|ST|HSS|PIPE)\s*(\d+(?:\.\d+)?)\s*[X×]\s*(\d+(?:[./]\d+)*)",
-    re.IGNORECASE,
-)
-_EU_NAME = re.compile(
-    r"(?<![A-Z])(IPE|IPN|UPN|UPE|HE\s*\d+\s*[ABM]|HE[ABM]|HD|HL|UB|UC)\s*(\d*)", re.IGNORECASE
-)
 
 # Consistency check between tabulated and modelled dimensions (common practice:
 # modelling tools round to 1/16 in or 1 mm; beyond 5 % the name is doubtful).
 DIMENSION_AGREEMENT = 0.05
+# A section recognised in an outline must have the outline's own area within this.
+OUTLINE_AREA_AGREEMENT = 0.02
 
 
 @dataclass
 class ResolvedProfile:
     name: str
     section: Section | None
-    source: str  # "profile set", "swept area", "type", "name"
+    source: str  # "profile set", "swept area", "type name", "name", ...
     # depth and width of the outline when known (m), even if no section
     depth: float = 0.0
     width: float = 0.0
     reason: Reason | None = None  # why ``section`` is None
     notes: list[str] = field(default_factory=list)
+    shape: Shape | None = None  # family and dimensions, with or without a section
+    # depth direction in profile coordinates where it is not +y (a turned outline)
+    up: tuple[float, float] | None = None
+
+    @property
+    def family(self) -> ShapeFamily | None:
+        if self.section is not None:
+            return self.section.family
+        return self.shape.family if self.shape is not None else None
 
 
-def designation_in(text: str | None) -> str | None:
-    """The first section designation found in a free-text name, or None."""
-    if not text:
-        return None
-    m = _US_NAME.search(text)
-    if m:
-        return f"{m.group(1).upper()}{m.group(2)}X{m.group(3)}"
-    m = _EU_NAME.search(text)
-    if m:
-        return re.sub(r"\s+", "", m.group(0)).upper()
-    return None
+def _from_named(found, source: str = "name") -> ResolvedProfile:
+    shape = found.shape
+    if shape is None and found.section is not None:
+        shape = shape_of_section(found.section)
+    depth = shape.d if shape else 0.0
+    width = shape.bf if shape else 0.0
+    return ResolvedProfile(
+        found.token, found.section, source, depth, width, found.reason, list(found.notes), shape
+    )
+
+
+def resolve_name(name: str | None) -> ResolvedProfile | None:
+    """Resolve the designation in a name; None when the name holds no designation."""
+    found = find_shape(name)
+    return _from_named(found) if found is not None else None
 
 
 _PROFILE_CACHE: dict[tuple, ResolvedProfile] = {}
@@ -72,18 +86,30 @@ _PROFILE_CACHE: dict[tuple, ResolvedProfile] = {}
 
 def _profile_key(profile: Entity, scale: float) -> tuple | None:
     """Profiles equal in class, name and dimensions give equal sections."""
-    if not profile.is_a("IfcParameterizedProfileDef"):
-        return None
-    info = profile.get_info(recursive=False, include_identifier=False)
-    info.pop("Position", None)
-    return (scale, *sorted((k, v) for k, v in info.items() if not hasattr(v, "is_a")))
+    if profile.is_a("IfcParameterizedProfileDef"):
+        info = profile.get_info(recursive=False, include_identifier=False)
+        info.pop("Position", None)
+        return (scale, *sorted((k, v) for k, v in info.items() if not hasattr(v, "is_a")))
+    if profile.is_a("IfcArbitraryClosedProfileDef"):
+        from ifccheck.ifc.geometry import profile_outline
+
+        try:
+            outline = profile_outline(profile)
+        except Exception:  # an unreadable curve: not cached, resolved (and reported) each time
+            return None
+        if outline is None:
+            return None
+        rings = [outline.polygon.exterior, *outline.polygon.interiors]
+        coords = tuple(tuple(np.round(np.asarray(r.coords), 9).ravel()) for r in rings)
+        return (scale, profile.is_a(), profile.ProfileName or "", coords)
+    return None
 
 
 def section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
     """Section for one IFC profile definition (dimensions scaled to metres).
 
-    Parameterised profiles are cached by class, name and dimensions: real
-    models repeat a few dozen profiles over thousands of members.
+    Profiles are cached by class, name and dimensions (outlines by their
+    points): real models repeat a few dozen profiles over thousands of members.
     """
     key = _profile_key(profile, scale)
     if key is None:
@@ -94,25 +120,110 @@ def section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
     return copy.deepcopy(found) if found.notes else copy.copy(found)
 
 
-def _section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
-    name = (profile.ProfileName or "").strip()
-    if profile.is_a("IfcIShapeProfileDef") and not profile.is_a("IfcAsymmetricIShapeProfileDef"):
-        d = profile.OverallDepth * scale
-        bf = profile.OverallWidth * scale
-        tw = profile.WebThickness * scale
-        tf = profile.FlangeThickness * scale
-        r = (profile.FilletRadius or 0.0) * scale
-        computed = i_section_from_dimensions(name or "I-shape", d, bf, tw, tf, r)
-        return _prefer_table(name, computed, d, bf)
+def _angle_scale(entity: Entity) -> float:
+    import ifcopenshell.util.unit as uunit
+
+    try:
+        return float(uunit.calculate_unit_scale(entity.file, "PLANEANGLEUNIT"))
+    except Exception:  # no unit assignment: radians
+        return 1.0
+
+
+def _get(profile: Entity, attr: str, scale: float) -> float:
+    value = getattr(profile, attr, None)
+    return float(value) * scale if value is not None else 0.0
+
+
+def _parametric_shape(profile: Entity, name: str, s: float) -> Shape | ResolvedProfile | None:
+    """Shape of a parametric profile; a ResolvedProfile when it has no routine; None if
+    the class has no shape dimensions."""
+    kind = profile.is_a()
+    label = name or kind
+
+    def slope(attr: str) -> float:
+        raw = getattr(profile, attr, None)
+        return float(raw) * _angle_scale(profile) if raw else 0.0
+
+    if profile.is_a("IfcAsymmetricIShapeProfileDef"):
+        bb, tb = _get(profile, "BottomFlangeWidth", s), _get(profile, "BottomFlangeThickness", s)
+        bt = _get(profile, "TopFlangeWidth", s) or bb
+        tt = _get(profile, "TopFlangeThickness", s) or tb
+        d, tw = _get(profile, "OverallDepth", s), _get(profile, "WebThickness", s)
+        r = _get(profile, "BottomFlangeFilletRadius", s)
+        same = math.isclose(bt, bb, rel_tol=1e-6) and math.isclose(tt, tb, rel_tol=1e-6)
+        return Shape(
+            label, ShapeFamily.I_SHAPE, d, bt, tw, tt, r, source=kind,
+            bf_bottom=0.0 if same else bb, tf_bottom=0.0 if same else tb,
+        )  # fmt: skip
+    if profile.is_a("IfcIShapeProfileDef"):
+        return Shape(
+            label, ShapeFamily.I_SHAPE,
+            _get(profile, "OverallDepth", s), _get(profile, "OverallWidth", s),
+            _get(profile, "WebThickness", s), _get(profile, "FlangeThickness", s),
+            _get(profile, "FilletRadius", s), slope("FlangeSlope"), source=kind,
+        )  # fmt: skip
     if profile.is_a("IfcUShapeProfileDef"):
-        d = profile.Depth * scale
-        bf = profile.FlangeWidth * scale
-        tw = profile.WebThickness * scale
-        tf = profile.FlangeThickness * scale
-        r = (profile.FilletRadius or 0.0) * scale
-        computed = channel_from_dimensions(name or "channel", d, bf, tw, tf, r)
-        return _prefer_table(name, computed, d, bf)
+        return Shape(
+            label, ShapeFamily.CHANNEL,
+            _get(profile, "Depth", s), _get(profile, "FlangeWidth", s),
+            _get(profile, "WebThickness", s), _get(profile, "FlangeThickness", s),
+            _get(profile, "FilletRadius", s), slope("FlangeSlope"), source=kind,
+        )  # fmt: skip
+    if profile.is_a("IfcTShapeProfileDef"):
+        return Shape(
+            label, ShapeFamily.TEE,
+            _get(profile, "Depth", s), _get(profile, "FlangeWidth", s),
+            _get(profile, "WebThickness", s), _get(profile, "FlangeThickness", s),
+            _get(profile, "FilletRadius", s), slope("FlangeSlope"), source=kind,
+        )  # fmt: skip
+    if profile.is_a("IfcLShapeProfileDef"):
+        d, t = _get(profile, "Depth", s), _get(profile, "Thickness", s)
+        b = _get(profile, "Width", s) or d  # IFC: Width absent means equal legs
+        return Shape(label, ShapeFamily.ANGLE, d, b, t, t, _get(profile, "FilletRadius", s),
+                     source=kind)  # fmt: skip
+    if profile.is_a("IfcRectangleHollowProfileDef"):
+        t = _get(profile, "WallThickness", s)
+        return Shape(
+            label, ShapeFamily.HOLLOW_RECT, _get(profile, "YDim", s), _get(profile, "XDim", s),
+            t, t, _get(profile, "OuterFilletRadius", s), source=kind,
+        )  # fmt: skip
+    if profile.is_a("IfcCircleHollowProfileDef"):
+        od, t = 2.0 * _get(profile, "Radius", s), _get(profile, "WallThickness", s)
+        return Shape(label, ShapeFamily.HOLLOW_ROUND, od, od, t, t, source=kind)
+    if profile.is_a("IfcCShapeProfileDef") or profile.is_a("IfcZShapeProfileDef"):
+        lipped = profile.is_a("IfcCShapeProfileDef")
+        d = _get(profile, "Depth", s)
+        b = _get(profile, "Width", s) or _get(profile, "FlangeWidth", s)
+        t = _get(profile, "WallThickness", s) or _get(profile, "WebThickness", s)
+        what = "cold-formed lipped channel" if lipped else "Z-section"
+        family = ShapeFamily.CHANNEL if lipped else ShapeFamily.OTHER
+        shape = Shape(label, family, d, b, t, t, source=kind)
+        detail = f"{what} {label} (d {d * 1e3:.4g}, b {b * 1e3:.4g}, t {t * 1e3:.4g} mm): " + (
+            "no section-property routine for this shape yet"
+        )
+        return ResolvedProfile(
+            label, None, "", d, b, Reason.of(NotChecked.SHAPE_WITHOUT_PROPERTIES, detail=detail),
+            shape=shape,
+        )  # fmt: skip
+    return None
+
+
+def _section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
+    name = (getattr(profile, "ProfileName", None) or "").strip()
+    if profile.is_a("IfcDerivedProfileDef"):
+        parent = section_from_profile(profile.ParentProfile, scale)
+        parent.notes.append(
+            f"derived profile '{name or profile.ParentProfile.ProfileName}': read as its parent"
+        )
+        return parent
+    found = _parametric_shape(profile, name, scale)
+    if isinstance(found, ResolvedProfile):
+        return found
+    if found is not None:
+        return _from_shape(found, name)
     depth, width = _outline_size(profile, scale)
+    if profile.is_a("IfcArbitraryClosedProfileDef"):
+        return _from_outline(profile, name, scale, depth, width)
     resolved = resolve_name(name)
     if resolved is not None:
         resolved.depth = resolved.depth or depth
@@ -128,39 +239,92 @@ def _section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
     return ResolvedProfile(name or kind, None, "", depth, width, reason)
 
 
-def resolve_name(name: str | None) -> ResolvedProfile | None:
-    """Resolve a designation through the shape table; None when no designation found."""
-    token = designation_in(name)
-    if token is None:
-        return None
-    section = lookup(token)
-    if section is not None:
-        return ResolvedProfile(section.name, section, "name", section.d, section.bf)
-    if _EU_NAME.fullmatch(token):
-        detail = f"'{token}' given by name only and no European shape table is shipped"
-        return ResolvedProfile(
-            token, None, "name",
-            reason=Reason.of(NotChecked.PROFILE_WITHOUT_DIMENSIONS, detail=detail),
-        )  # fmt: skip
-    reason = Reason.of(
-        NotChecked.PROFILE_NOT_IN_TABLE, name=token, table="AISC Shapes Database v16.0"
-    )
-    return ResolvedProfile(token, None, "name", reason=reason)
+def _from_shape(shape: Shape, name: str) -> ResolvedProfile:
+    """A parametric shape, preferring the tabulated section its name designates."""
+    section, reason = section_of(shape)
+    named = find_shape(name) if name else None
+    if named is not None and named.section is not None and named.family is shape.family:
+        table = named.section
+        off = max(abs(table.d - shape.d) / table.d, abs(table.bf - shape.bf) / table.bf)
+        if off > DIMENSION_AGREEMENT:
+            where = "the AISC Shapes Database" if table.source == AISC_SOURCE else "its catalogue"
+            note = (
+                f"modelled dimensions differ from {table.name} in {where} by {off:.0%}; "
+                "properties computed from the modelled dimensions"
+            )
+            return ResolvedProfile(name, section, "", shape.d, shape.bf, reason, [note], shape)
+        if table.source == AISC_SOURCE or section is None:
+            return ResolvedProfile(table.name, table, "", shape.d, shape.bf, None, [], shape)
+    if named is not None and named.family is not None and named.family is not shape.family:
+        note = f"name '{name}' designates a different shape; the profile's dimensions are used"
+        return ResolvedProfile(name or shape.name, section, "", shape.d, shape.bf, reason,
+                               [note], shape)  # fmt: skip
+    return ResolvedProfile(name or shape.name, section, "", shape.d, shape.bf, reason, [], shape)
 
 
-def _prefer_table(name: str, computed: Section, d: float, bf: float) -> ResolvedProfile:
-    token = designation_in(name)
-    table = lookup(token) if token else None
-    if table is None:
-        return ResolvedProfile(name or computed.name, computed, "", d, bf)
-    off = max(abs(table.d - d) / table.d, abs(table.bf - bf) / table.bf)
-    if off > DIMENSION_AGREEMENT:
-        note = (
-            f"modelled dimensions differ from {table.name} in the AISC Shapes Database by "
-            f"{off:.0%}; properties computed from the modelled dimensions"
+def _from_outline(
+    profile: Entity, name: str, scale: float, depth: float, width: float
+) -> ResolvedProfile:
+    """A polygon outline: by its name when that designates a shape of its size, else by
+    recognising what it draws."""
+    named = resolve_name(name)
+    if named is not None and (named.section is not None or named.shape is not None):
+        fits = depth <= 0.0 or (
+            named.depth > 0.0
+            and abs(named.depth - depth) <= DIMENSION_AGREEMENT * named.depth
+            and abs(named.width - width) <= DIMENSION_AGREEMENT * max(named.width, 1e-9)
         )
-        return ResolvedProfile(name, computed, "", d, bf, notes=[note])
-    return ResolvedProfile(table.name, table, "", d, bf)
+        if fits:
+            named.depth, named.width = depth or named.depth, width or named.width
+            return named
+    from ifccheck.ifc.geometry import profile_outline
+
+    kind = profile.is_a()
+    label = name or kind
+    try:
+        outline = profile_outline(profile)
+    except Exception as exc:  # a curve the reader does not know
+        outline = None
+        why = f"its curve cannot be read ({type(exc).__name__})"
+    else:
+        why = "its curve cannot be read"
+    if outline is not None:
+        poly = affinity.scale(outline.polygon, scale, scale, origin=(0.0, 0.0))
+        found = recognise(poly, label)
+        if isinstance(found, Recognised):
+            return _recognised(found, label, poly.area, depth, width)
+        why = found
+    detail = f"{label}: {why}" + (f"; the name '{name}' designates no shape" if name else "")
+    return ResolvedProfile(
+        label, None, "", depth, width, Reason.of(NotChecked.OUTLINE_NOT_RECOGNISED, detail=detail)
+    )
+
+
+def _recognised(
+    found: Recognised, label: str, area: float, depth: float, width: float
+) -> ResolvedProfile:
+    shape = found.shape
+    if label.startswith("Ifc"):  # an unnamed outline: named by what it draws
+        dims = "x".join(f"{v * 1000:.4g}" for k, v in shape.dimensions().items() if k != "r")
+        label = f"{shape.family.value} {dims} (outline)"
+        shape = replace(shape, name=label)
+    section, reason = section_of(shape)
+    notes = [f"profile outline read as {shape.describe()}"]
+    if section is not None:
+        off = abs(section.A - area) / area
+        if off > OUTLINE_AREA_AGREEMENT:
+            detail = (
+                f"{label} reads as {shape.describe()}, but that section's area "
+                f"{section.A * 1e4:.4g} cm² differs from the outline's {area * 1e4:.4g} cm² "
+                f"by {off:.1%} (limit {OUTLINE_AREA_AGREEMENT:.0%})"
+            )
+            return ResolvedProfile(
+                label, None, "", depth, width,
+                Reason.of(NotChecked.OUTLINE_NOT_RECOGNISED, detail=detail), notes, shape,
+            )  # fmt: skip
+        section = replace(section, source="computed from dimensions measured on the outline")
+    up = None if found.up == (0.0, 1.0) else found.up
+    return ResolvedProfile(label, section, "", shape.d, shape.bf, reason, notes, shape, up)
 
 
 def _outline_size(profile: Entity, scale: float) -> tuple[float, float]:
@@ -184,8 +348,9 @@ class ResolvedMaterial:
     name: str
     category: MaterialCategory
     steel: Steel | None
-    source: str  # "material name", "material property", "default"
+    source: str  # "material name", "material property", "type name", ..., "default"
     notes: list[str] = field(default_factory=list)
+    reason: Reason | None = None  # no grade found (and no default given)
 
 
 def material_names(material: Entity | None) -> list[Entity]:
@@ -212,7 +377,7 @@ def material_names(material: Entity | None) -> list[Entity]:
 
 
 def yield_stress(ifc: ifcopenshell.file, material: Entity, pressure_scale: float) -> float | None:
-    """YieldStress of a material in Pa (IFC4 Pset_MaterialSteel, IFC2X3 mechanical props)."""
+    """YieldStress of a material in Pa (IFC4 material properties, IFC2X3 mechanical props)."""
     for props in getattr(material, "HasProperties", None) or ():
         for prop in getattr(props, "Properties", None) or ():
             if prop.Name == "YieldStress" and getattr(prop, "NominalValue", None) is not None:
@@ -224,59 +389,201 @@ def yield_stress(ifc: ifcopenshell.file, material: Entity, pressure_scale: float
     return None
 
 
+@dataclass(frozen=True)
+class GradeContext:
+    """What the grade search needs besides the element: settings and file-wide values."""
+
+    default: Steel | None = None  # steel.default_grade when the settings set it
+    materials: Mapping[str, str] = field(default_factory=dict)  # [steel.materials]
+    pressure_scale: float = 1.0
+
+    def mapped(self, name: str) -> str | None:
+        key = " ".join(name.split()).casefold()
+        for k, v in self.materials.items():
+            if " ".join(k.split()).casefold() == key:
+                return v
+        return None
+
+
+# Property names that may hold a grade on an element or its type (matched in lower case).
+_GRADE_PROPERTY_WORDS = ("grade", "material", "steel", "yield", "fy")
+
+
+def _property_texts(obj: Entity | None) -> list[str]:
+    if obj is None:
+        return []
+    try:
+        psets = uelement.get_psets(obj)
+    except Exception:  # malformed property sets: nothing to read
+        return []
+    out = []
+    for props in psets.values():
+        for prop, value in props.items():
+            if prop == "id" or not isinstance(value, str):
+                continue
+            if any(w in prop.lower() for w in _GRADE_PROPERTY_WORDS):
+                out.append(value)
+    return out
+
+
+def _analysis_materials(element: Entity) -> list[Entity]:
+    """Materials of the analysis members assigned to a physical element (either way)."""
+    found: list[Entity] = []
+    rels = list(getattr(element, "ReferencedBy", None) or ())
+    rels += [r for r in getattr(element, "HasAssignments", None) or ()
+             if r.is_a("IfcRelAssignsToProduct")]  # fmt: skip
+    for rel in rels:
+        if not rel.is_a("IfcRelAssignsToProduct"):
+            continue
+        others = [rel.RelatingProduct, *(rel.RelatedObjects or ())]
+        for other in others:
+            if other is None or other == element or not other.is_a("IfcStructuralMember"):
+                continue
+            found += material_names(uelement.get_material(other, should_skip_usage=False))
+    return found
+
+
 def resolve_material(
     ifc: ifcopenshell.file,
     element: Entity,
-    section: Section | None,
-    default: Steel,
-    pressure_scale: float,
+    shape: Shape | None,
+    context: GradeContext,
+    profile_name: str = "",
     cache: dict | None = None,
 ) -> ResolvedMaterial:
-    """Steel grade (or material category) of an element, with its source.
+    """Steel grade (or material category) of an element, with its source and notes.
 
-    ``cache`` (one per file) reuses the answer for members sharing materials.
+    ``cache`` (one per file) reuses the material-only answer for members sharing
+    materials; the names and properties of each element are read only when the
+    materials give no grade.
     """
     select = uelement.get_material(element, should_skip_usage=False, should_inherit=True)
     mats = material_names(select)
-    thickest = max(section.tf, section.tw) if section else None
-    key = (tuple(m.id() for m in mats), thickest, default.grade, pressure_scale)
-    resolved = cache.get(key) if cache is not None else None
-    if resolved is None:
-        resolved = _resolve(ifc, mats, thickest, default, pressure_scale)
+    thickest = shape.thickest if shape is not None else None
+    round_hss = shape is not None and shape.family is ShapeFamily.HOLLOW_ROUND
+    key = (tuple(m.id() for m in mats), thickest, round_hss)
+    found = cache.get(key) if cache is not None else None
+    if found is None:
+        found = _from_materials(ifc, mats, thickest, round_hss, context)
         if cache is not None:
-            cache[key] = resolved
+            cache[key] = found
+    resolved = replace(found, notes=list(found.notes))
+    el_type = uelement.get_type(element)
+    texts = [
+        ("type name", getattr(el_type, "Name", None)),
+        ("profile name", profile_name),
+        ("element name", element.Name),
+        ("element type", getattr(element, "ObjectType", None)),
+    ]
+    if resolved.steel is not None:
+        _note_disagreement(resolved, texts, thickest, round_hss)
+        return resolved
+    if resolved.category in (
+        MaterialCategory.CONCRETE,
+        MaterialCategory.TIMBER,
+        MaterialCategory.OTHER,
+    ):
+        return resolved
+    candidates = [*texts, *(("type property", t) for t in _property_texts(el_type))]
+    candidates += [("element property", t) for t in _property_texts(element)]
+    for source, text in candidates:
+        steel = steel_from_name(text or "", thickest, round_hss=round_hss)
+        if steel is not None:
+            return _found_elsewhere(resolved, steel, source, text or "")
+    for mat in _analysis_materials(element):
+        steel = steel_from_name(mat.Name or "", thickest, round_hss=round_hss)
+        if steel is not None:
+            source = "analysis member material"
+            return _found_elsewhere(resolved, steel, source, mat.Name or "")
+    return _no_grade(resolved, context, [t for _, t in texts if t])
+
+
+def _found_elsewhere(
+    resolved: ResolvedMaterial, steel: Steel, source: str, text: str
+) -> ResolvedMaterial:
+    notes = list(resolved.notes)
+    problem = grade_problem(resolved.name)
+    if problem:
+        notes.append(f"material '{resolved.name}': {problem}; {steel.grade} from the {source} "
+                     f"'{text}' used instead")  # fmt: skip
+    else:
+        notes.append(f"grade {steel.grade} from the {source} '{text}' (the material names none)")
+    return ResolvedMaterial(resolved.name, MaterialCategory.STEEL, steel, source, notes)
+
+
+def _note_disagreement(
+    resolved: ResolvedMaterial, texts: list, thickest: float | None, round_hss: bool
+) -> None:
+    assert resolved.steel is not None
+    for source, text in texts:
+        other = steel_from_name(text or "", thickest, round_hss=round_hss)
+        if other is not None and other.grade != resolved.steel.grade:
+            resolved.notes.append(
+                f"the {source} '{text}' names {other.grade}; the material's "
+                f"{resolved.steel.grade} is used"
+            )
+            return
+
+
+def _no_grade(
+    resolved: ResolvedMaterial, context: GradeContext, names: list[str]
+) -> ResolvedMaterial:
+    problems = [p for p in (grade_problem(n) for n in [resolved.name, *names]) if p]
+    label = resolved.name
+    detail = f"material '{label}' names no steel grade, nor do the type, profile or element"
+    if problems:
+        detail += f" ({problems[0]})"
+    if context.default is not None and resolved.category in (
+        MaterialCategory.STEEL,
+        MaterialCategory.UNKNOWN,
+    ):
+        note = (
+            f"grade assumed {context.default.grade} (steel.default_grade in the settings): "
+            + detail
+        )
+        return ResolvedMaterial(
+            label, MaterialCategory.STEEL, context.default, "default", [*resolved.notes, note]
+        )
     return ResolvedMaterial(
-        resolved.name, resolved.category, resolved.steel, resolved.source, list(resolved.notes)
-    )
+        label, resolved.category, None, "", list(resolved.notes),
+        Reason.of(NotChecked.NO_GRADE, detail=detail),
+    )  # fmt: skip
 
 
-def _resolve(
+def _from_materials(
     ifc: ifcopenshell.file,
     mats: list[Entity],
     thickest: float | None,
-    default: Steel,
-    pressure_scale: float,
+    round_hss: bool,
+    context: GradeContext,
 ) -> ResolvedMaterial:
     names = [m.Name or "" for m in mats]
     label = " / ".join(n for n in names if n) or "(no material)"
     for mat in mats:
-        steel = steel_from_name(mat.Name or "", thickest)
-        if steel is not None:
-            return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "material name")
+        mapped = context.mapped(mat.Name or "")
+        if mapped is not None:
+            steel = steel_from_name(mapped, thickest, round_hss=round_hss)
+            if steel is not None:
+                note = f"grade {steel.grade} for material '{mat.Name}' from [steel.materials]"
+                return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "settings", [note])
     for mat in mats:
-        fy = yield_stress(ifc, mat, pressure_scale)
+        for text in (mat.Name, getattr(mat, "Description", None)):
+            steel = steel_from_name(text or "", thickest, round_hss=round_hss)
+            if steel is not None:
+                return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "material name")
+    for mat in mats:
+        fy = yield_stress(ifc, mat, context.pressure_scale)
         if fy is not None:
             steel = steel_from_yield(fy, mat.Name or "steel")
             return ResolvedMaterial(
                 mat.Name or "", MaterialCategory.STEEL, steel, "material property"
             )
+    category = MaterialCategory.UNKNOWN
     for mat in mats:
         text = " ".join(filter(None, [mat.Name, getattr(mat, "Category", None)]))
-        category = material_category(text)
-        if category in (MaterialCategory.CONCRETE, MaterialCategory.TIMBER):
-            return ResolvedMaterial(label, category, None, "material name")
-    note = (
-        f"grade assumed {default.grade} (settings default): material '{label}' "
-        "names no recognised steel grade"
-    )
-    return ResolvedMaterial(label, MaterialCategory.STEEL, default, "default", [note])
+        found = material_category(text)
+        if found in (MaterialCategory.CONCRETE, MaterialCategory.TIMBER):
+            return ResolvedMaterial(label, found, None, "material name")
+        if found is not MaterialCategory.UNKNOWN and category is MaterialCategory.UNKNOWN:
+            category = found
+    return ResolvedMaterial(label, category, None, "")

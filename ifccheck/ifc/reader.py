@@ -10,7 +10,10 @@ the tessellated body (counted as a geometry fallback).
 from __future__ import annotations
 
 import logging
+import re
+import tempfile
 import zipfile
+from collections.abc import Mapping
 from pathlib import Path
 
 import ifcopenshell
@@ -23,6 +26,7 @@ from shapely.ops import unary_union
 from ifccheck.errors import ModelError
 from ifccheck.ifc import geometry as geo
 from ifccheck.ifc.profiles import (
+    GradeContext,
     ResolvedProfile,
     resolve_material,
     resolve_name,
@@ -40,6 +44,7 @@ from ifccheck.model import (
 )
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.sections import default_steel
+from ifccheck.sections.dimensions import shape_of_section
 
 Entity = ifcopenshell.entity_instance
 log = logging.getLogger(__name__)
@@ -52,8 +57,19 @@ STRUT_TYPES = {"STRUT", "TIE", "TIEROD", "TIE_ROD"}
 BEAMLIKE_MEMBER_TYPES = {"PURLIN", "RAFTER", "STRINGER", "JOIST", "GIRT"}
 
 
-def open_ifc(path: str | Path) -> ifcopenshell.file:
-    """Open an IFC file, turning every failure into a one-line ModelError."""
+# Schemas the IFC library may lack, read as the schema whose entities they share
+# for everything this tool reads (buildingSMART: IFC4X1 and IFC4X2 add alignment,
+# bridge and road entities on top of IFC4 ADD2).
+SCHEMA_FALLBACK = {"IFC4X1": "IFC4", "IFC4X2": "IFC4"}
+_FILE_SCHEMA = re.compile(rb"FILE_SCHEMA\s*\(\s*\(\s*'([A-Za-z0-9_]+)'\s*\)\s*\)")
+
+
+def open_ifc(path: str | Path, warnings: list[str] | None = None) -> ifcopenshell.file:
+    """Open an IFC file, turning every failure into a one-line ModelError.
+
+    A file in a schema the IFC library lacks but :data:`SCHEMA_FALLBACK` maps
+    (IFC4X1, IFC4X2) is read as IFC4, and a warning is added to ``warnings``.
+    """
     p = Path(path)
     if not p.exists():
         raise ModelError(f"{p}: no such file")
@@ -63,6 +79,8 @@ def open_ifc(path: str | Path) -> ifcopenshell.file:
         raise ModelError(f"{p}: compressed IFC (ifcZIP) is not read; unzip it first")
     with p.open("rb") as fh:
         head = fh.read(64).lstrip(b"\xef\xbb\xbf \t\r\n")
+        fh.seek(0)
+        header = fh.read(1 << 16)
         size = p.stat().st_size
         fh.seek(max(0, size - 256))
         tail = fh.read()
@@ -70,11 +88,51 @@ def open_ifc(path: str | Path) -> ifcopenshell.file:
         raise ModelError(f"{p}: not an IFC file (no ISO-10303-21 header)")
     if b"END-ISO-10303-21" not in tail:
         raise ModelError(f"{p}: truncated IFC file (no END-ISO-10303-21 trailer)")
+    m = _FILE_SCHEMA.search(header)
+    declared = m.group(1).decode("ascii").upper() if m else ""
+    target = next((v for k, v in SCHEMA_FALLBACK.items() if declared.startswith(k)), None)
+    if m is not None and target is not None and declared not in _known_schemas():
+        return _open_as(p, m, declared, target, warnings)
+    return _parse(p, str(p))
+
+
+def _known_schemas() -> set[str]:
+    import ifcopenshell.ifcopenshell_wrapper as wrapper
+
+    return {s.upper() for s in wrapper.schema_names()}
+
+
+def _parse(p: Path, file_name: str) -> ifcopenshell.file:
     try:
-        return ifcopenshell.open(str(p))
+        return ifcopenshell.open(file_name)
     except Exception as exc:  # ifcopenshell raises several error types
         detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
         raise ModelError(f"{p}: cannot parse IFC file: {detail}") from None
+
+
+def _open_as(
+    p: Path, m: re.Match, declared: str, target: str, warnings: list[str] | None
+) -> ifcopenshell.file:
+    """Read a copy of the file whose header names ``target`` (the input is not touched)."""
+    data = p.read_bytes()
+    patched = data[: m.start(1)] + target.encode("ascii") + data[m.end(1) :]
+    with tempfile.TemporaryDirectory(prefix="ifccheck-") as tmp:
+        copy = Path(tmp) / p.name
+        copy.write_bytes(patched)
+        try:
+            f = ifcopenshell.open(str(copy))
+        except Exception as exc:  # an entity IFC4 does not have
+            detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
+            raise ModelError(
+                f"{p}: schema {declared} is not known to the IFC library, and reading it as "
+                f"{target} failed: {detail}"
+            ) from None
+    if warnings is not None:
+        warnings.append(
+            f"schema {declared} is not known to the IFC library: read as {target}, whose "
+            "entities it shares for beams, columns, profiles, materials and slabs"
+        )
+    return f
 
 
 def length_unit_name(ifc: ifcopenshell.file) -> str:
@@ -90,26 +148,72 @@ def length_unit_name(ifc: ifcopenshell.file) -> str:
     return aliases.get(name, name or "unknown")
 
 
-def read_model(path: str | Path, default_grade: str = "A992") -> Model:
-    """Read a model file. Raises ModelError for a file that is not a usable model."""
-    ifc = open_ifc(path)
-    reader = _Reader(ifc, Path(path).name, default_steel(default_grade))
+def read_model(
+    path: str | Path,
+    default_grade: str | None = None,
+    materials: Mapping[str, str] | None = None,
+) -> Model:
+    """Read a model file. Raises ModelError for a file that is not a usable model.
+
+    ``default_grade`` is the grade members are checked on when the model names
+    none; None (the default) leaves such members not checked. ``materials`` maps
+    material names to grades (the settings' ``[steel.materials]``).
+    """
+    warnings: list[str] = []
+    ifc = open_ifc(path, warnings)
+    default = default_steel(default_grade) if default_grade else None
+    reader = _Reader(ifc, Path(path).name, default, materials or {})
     model = reader.read()
+    model.warnings[:0] = [("", w) for w in warnings]
     if not any(m.role in (MemberRole.BEAM,) for m in model.members):
-        raise ModelError(f"{Path(path)}: no beams in the model (no IfcBeam or beam-like IfcMember)")
+        raise ModelError(f"{Path(path)}: {_no_beams(ifc)}")
     return model
 
 
+def _count(ifc: ifcopenshell.file, cls: str) -> int:
+    try:
+        return len(ifc.by_type(cls))
+    except RuntimeError:  # class not in this schema
+        return 0
+
+
+def _no_beams(ifc: ifcopenshell.file) -> str:
+    """Why a model has no beams to check, in one line."""
+    physical = sum(_count(ifc, c) for c in LINEAR_CLASSES)
+    analysis = _count(ifc, "IfcStructuralAnalysisModel")
+    if physical == 0 and analysis:
+        curves = _count(ifc, "IfcStructuralCurveMember")
+        return (
+            f"no beams: an analysis model only ({analysis} IfcStructuralAnalysisModel, "
+            f"{curves} structural curve members) and no physical IfcBeam, IfcColumn or IfcMember; "
+            "export the physical model"
+        )
+    assemblies, plates = _count(ifc, "IfcElementAssembly"), _count(ifc, "IfcPlate")
+    if physical == 0 and (assemblies or plates):
+        return (
+            f"no beams: only {assemblies} assemblies (IfcElementAssembly) and {plates} plates "
+            "(IfcPlate), with no IfcBeam, IfcColumn or IfcMember parts; export the assemblies "
+            "with their beams and columns as parts"
+        )
+    return "no beams in the model (no IfcBeam or beam-like IfcMember)"
+
+
 class _Reader:
-    def __init__(self, ifc: ifcopenshell.file, name: str, default: Steel) -> None:
+    def __init__(
+        self,
+        ifc: ifcopenshell.file,
+        name: str,
+        default: Steel | None,
+        materials: Mapping[str, str],
+    ) -> None:
         self.ifc = ifc
         self.name = name
-        self.default = default
         self.scale = float(uunit.calculate_unit_scale(ifc, "LENGTHUNIT"))
         try:
             self.pressure_scale = float(uunit.calculate_unit_scale(ifc, "PRESSUREUNIT"))
         except Exception:  # no pressure unit assigned: SI pascal
             self.pressure_scale = 1.0
+        self.grades = GradeContext(default, dict(materials), self.pressure_scale)
         self.model = Model(
             source=name,
             schema=ifc.schema_identifier if hasattr(ifc, "schema_identifier") else ifc.schema,
@@ -156,7 +260,16 @@ class _Reader:
         self.model.storeys.sort(key=lambda s: s.elevation)
 
     def _storey(self, element: Entity) -> str:
+        """The storey an element is in, through the assemblies it is a part of."""
         container = uelement.get_container(element)
+        whole: Entity | None = element
+        while container is None:
+            whole = uelement.get_aggregate(whole) if whole is not None else None
+            if whole is None or whole.is_a("IfcSpatialElement" if self.ifc.schema != "IFC2X3"
+                                           else "IfcSpatialStructureElement"):  # fmt: skip
+                container = whole
+                break
+            container = uelement.get_container(whole)
         while container is not None and not container.is_a("IfcBuildingStorey"):
             container = uelement.get_aggregate(container)
         if container is None:
@@ -168,23 +281,31 @@ class _Reader:
         notes: list[str] = []
         predefined = (uelement.get_predefined_type(element) or "").upper()
         role = _role(element, predefined)
-        extrusion = geo.first_extrusion(element)
-        profile = self._profile(element, extrusion)
+        axis = geo.axis_points(element)
+        set_profile, set_source, set_name = self._set_profile(element)
+        extrusion = self._main_extrusion(element, axis, set_profile)
+        profile = self._profile(element, extrusion, set_profile, set_source, set_name)
         notes += profile.notes
-        line = self._centroid_line(element, profile, notes, extrusion)
+        line = self._centroid_line(element, profile, notes, extrusion, axis)
         if line is None:
             self.model.warnings.append(
                 (element.GlobalId, f"{element.is_a()} '{element.Name}' has no readable geometry")
             )
             return None
         start, end, web_up, axis_source = line
+        shape = profile.shape
+        if shape is None and profile.section is not None:
+            shape = shape_of_section(profile.section)
         material = resolve_material(
-            self.ifc, element, profile.section, self.default, self.pressure_scale,
-            self._materials,
-        )  # fmt: skip
+            self.ifc, element, shape, self.grades, profile.name, self._materials
+        )
         notes += material.notes
-        unresolved = profile.reason
-        if material.category in (MaterialCategory.CONCRETE, MaterialCategory.TIMBER):
+        unresolved = profile.reason or material.reason
+        if material.category in (
+            MaterialCategory.CONCRETE,
+            MaterialCategory.TIMBER,
+            MaterialCategory.OTHER,
+        ):
             unresolved = Reason.of(
                 NotChecked.NOT_STEEL, category=material.category.value, material=material.name
             )
@@ -209,11 +330,14 @@ class _Reader:
             notes=notes,
             unresolved=unresolved,
             envelope=(profile.depth, profile.width),
+            family=profile.family,
+            dimensions=shape.dimensions() if shape is not None else {},
         )
         return member
 
-    def _profile(self, element: Entity, extrusion) -> ResolvedProfile:
-        """Profile from the material profile set, else the swept area, else a name."""
+    def _set_profile(self, element: Entity) -> tuple[Entity | None, str, str]:
+        """The profile of the material profile set (occurrence, then type), its source
+        and the set's name."""
         select = uelement.get_material(element, should_skip_usage=True, should_inherit=False)
         source = "profile set"
         if select is None or not select.is_a("IfcMaterialProfileSet"):
@@ -223,26 +347,75 @@ class _Reader:
         if select is not None and select.is_a("IfcMaterialProfileSet"):
             profiles = [p.Profile for p in select.MaterialProfiles if p.Profile]
             if profiles:
-                resolved = section_from_profile(profiles[0], self.scale)
-                resolved.source = source
-                if resolved.section is None and select.Name:
-                    by_set_name = resolve_name(select.Name)
-                    if by_set_name is not None and by_set_name.section is not None:
-                        by_set_name.source = source
-                        return by_set_name
+                return profiles[0], source, select.Name or ""
+        return None, "", ""
+
+    def _main_extrusion(
+        self,
+        element: Entity,
+        axis: tuple[np.ndarray, np.ndarray] | None,
+        set_profile: Entity | None,
+    ) -> tuple[np.ndarray, Entity] | None:
+        """The extrusion that is the member itself, among the items of its body.
+
+        Bodies also hold stiffeners, cap plates and end plates: the member is the
+        extrusion along the Axis (when there is one), preferably the one whose
+        profile is the profile set's, else the longest.
+        """
+        found = geo.extrusions(element)
+        if len(found) <= 1:
+            return found[0] if found else None
+        t = None
+        if axis is not None and np.linalg.norm(axis[1] - axis[0]) > 0:
+            t = (axis[1] - axis[0]) / np.linalg.norm(axis[1] - axis[0])
+        set_name = (getattr(set_profile, "ProfileName", None) or "").strip().upper()
+
+        def score(item: tuple[np.ndarray, Entity]) -> tuple[bool, bool, float]:
+            direction, length = geo.extrusion_direction(*item)
+            along = t is None or abs(float(np.dot(direction, t))) > 0.999
+            area = item[1].SweptArea
+            same = set_profile is not None and (
+                area == set_profile
+                or (bool(set_name) and (area.ProfileName or "").strip().upper() == set_name)
+            )
+            return along, same, length
+
+        return max(found, key=score)
+
+    def _profile(
+        self,
+        element: Entity,
+        extrusion: tuple[np.ndarray, Entity] | None,
+        set_profile: Entity | None,
+        set_source: str,
+        set_name: str,
+    ) -> ResolvedProfile:
+        """Profile from the material profile set, else the swept area, else a name."""
+        if set_profile is not None:
+            resolved = section_from_profile(set_profile, self.scale)
+            resolved.source = set_source
+            if resolved.section is None and resolved.shape is None and set_name:
+                by_set_name = resolve_name(set_name)
+                if by_set_name is not None and by_set_name.section is not None:
+                    by_set_name.source = set_source
+                    return by_set_name
+            if resolved.section is not None or resolved.shape is not None:
                 return resolved
+            by_name = self._profile_by_name(element)
+            if by_name is not None and (by_name.section or by_name.shape):
+                return by_name
+            return resolved
         if extrusion is not None:
             resolved = section_from_profile(extrusion[1].SweptArea, self.scale)
             resolved.source = "swept area"
-            no_dimensions = resolved.reason is not None and (
-                resolved.reason.code is NotChecked.PROFILE_WITHOUT_DIMENSIONS
-            )
-            if resolved.section is not None or no_dimensions:
-                if resolved.section is None:
-                    fallback = self._profile_by_name(element)
-                    if fallback is not None and fallback.section is not None:
-                        return fallback
-                return resolved
+            if resolved.section is None:
+                fallback = self._profile_by_name(element)
+                if fallback is not None and (
+                    fallback.section is not None
+                    or (fallback.shape is not None and resolved.shape is None)
+                ):
+                    return fallback
+            return resolved
         by_name = self._profile_by_name(element)
         if by_name is not None:
             return by_name
@@ -250,26 +423,32 @@ class _Reader:
 
     def _profile_by_name(self, element: Entity) -> ResolvedProfile | None:
         el_type = uelement.get_type(element)
-        for text in (
-            getattr(el_type, "Name", None),
-            getattr(element, "ObjectType", None),
-            getattr(element, "Tag", None),
-            element.Name,
+        for text, source in (
+            (getattr(el_type, "Name", None), "type name"),
+            (getattr(element, "ObjectType", None), "name"),
+            (getattr(element, "Tag", None), "name"),
+            (element.Name, "name"),
         ):
             resolved = resolve_name(text)
             if resolved is not None:
-                resolved.source = "type name" if text is getattr(el_type, "Name", None) else "name"
+                resolved.source = source
                 return resolved
         return None
 
     def _centroid_line(
-        self, element: Entity, profile: ResolvedProfile, notes: list[str], extrusion
+        self,
+        element: Entity,
+        profile: ResolvedProfile,
+        notes: list[str],
+        extrusion: tuple[np.ndarray, Entity] | None,
+        axis: tuple[np.ndarray, np.ndarray] | None,
     ) -> tuple[np.ndarray, np.ndarray, np.ndarray, str] | None:
+        """The centroid line. An Axis representation decides the line and its length; the
+        body's extrusion along it gives the offset to the centroid and the depth direction."""
         obj = self.placements.of(element)
         ext_line = None
         if extrusion is not None:
-            ext_line = self._extrusion_line(obj, *extrusion)
-        axis = geo.axis_points(element)
+            ext_line = self._extrusion_line(obj, *extrusion, profile.up)
         if axis is not None:
             a0 = geo.transform(obj, axis[0])[0]
             a1 = geo.transform(obj, axis[1])[0]
@@ -277,10 +456,17 @@ class _Reader:
             if np.linalg.norm(t) > 0:
                 t = t / np.linalg.norm(t)
                 if ext_line is not None:
-                    s, _e, up = ext_line
-                    rel = s - a0
-                    offset = rel - np.dot(rel, t) * t
-                    return (a0 + offset) * self.scale, (a1 + offset) * self.scale, up, "axis"
+                    s, e, up = ext_line
+                    along = e - s
+                    if np.linalg.norm(along) > 0 and abs(np.dot(along, t)) > 0.999 * np.linalg.norm(
+                        along
+                    ):
+                        rel = s - a0
+                        offset = rel - np.dot(rel, t) * t
+                        return (a0 + offset) * self.scale, (a1 + offset) * self.scale, up, "axis"
+                    notes.append(
+                        "the body's extrusion does not run along the Axis: axis used alone"
+                    )
                 up, across = _section_frame(obj, t)
                 cp = self._cardinal_point(element)
                 ox, oy = geo.cardinal_offset(
@@ -296,7 +482,11 @@ class _Reader:
         return self._geometry_line(element, notes)
 
     def _extrusion_line(
-        self, obj: np.ndarray, item_matrix: np.ndarray, solid: Entity
+        self,
+        obj: np.ndarray,
+        item_matrix: np.ndarray,
+        solid: Entity,
+        up2d: tuple[float, float] | None = None,
     ) -> tuple[np.ndarray, np.ndarray, np.ndarray] | None:
         m = obj @ item_matrix @ geo.axis2_matrix(solid.Position)
         prof = solid.SweptArea
@@ -308,13 +498,16 @@ class _Reader:
             c = outline.polygon.centroid
             centre = np.array([c.x, c.y])
             pm = np.eye(4)
+        elif prof.is_a("IfcDerivedProfileDef"):
+            pm = geo.axis2_matrix(getattr(prof.ParentProfile, "Position", None))
         else:
             pm = geo.axis2_matrix(getattr(prof, "Position", None))
         p0 = geo.transform(m @ pm, np.array([centre[0], centre[1], 0.0]))[0]
         direction = np.asarray(solid.ExtrudedDirection.DirectionRatios, dtype=float)
         direction = m[:3, :3] @ (direction / np.linalg.norm(direction))
         p1 = p0 + direction * solid.Depth
-        up = (m @ pm)[:3, 1]
+        frame = m @ pm
+        up = frame[:3, 1] if up2d is None else frame[:3, 0] * up2d[0] + frame[:3, 1] * up2d[1]
         up = up - np.dot(up, direction) * direction
         return p0, p1, up / np.linalg.norm(up)
 
@@ -438,8 +631,10 @@ class _Reader:
         poly, bottom, top, _ = found
         if isinstance(poly, MultiPolygon):
             poly = max(poly.geoms, key=lambda g: g.area)
-        material = resolve_material(self.ifc, element, None, self.default, self.pressure_scale)
-        category = material.category if material.source != "default" else MaterialCategory.UNKNOWN
+        material = resolve_material(
+            self.ifc, element, None, GradeContext(pressure_scale=self.pressure_scale)
+        )
+        category = material.category
         return Wall(
             guid=element.GlobalId,
             name=element.Name or "",

@@ -39,6 +39,8 @@ def member_dict(m: Member) -> dict[str, Any]:
         "storey": m.storey,
         "profile": m.profile_name,
         "profile_source": m.profile_source,
+        "family": m.family.value if m.family is not None else None,
+        "dimensions": dict(m.dimensions),
         "grade": m.steel.grade if m.steel else None,
         "fy": m.steel.fy if m.steel else None,
         "grade_source": m.grade_source,

@@ -40,6 +40,12 @@ ADVICE: dict[NotChecked, str] = {
     NotChecked.PROFILE_NOT_IN_TABLE: "use a designation from the shape tables the tool ships, "
     "or model the profile with its dimensions (IfcIShapeProfileDef, IfcUShapeProfileDef…)",
     NotChecked.PROFILE_WITHOUT_DIMENSIONS: _PROFILE_ADVICE,
+    NotChecked.OUTLINE_NOT_RECOGNISED: "model the profile as a parametric profile "
+    "(IfcIShapeProfileDef, IfcUShapeProfileDef…) or name a standard shape in its profile or "
+    "type, since the drawn outline could not be read as one",
+    NotChecked.SHAPE_WITHOUT_PROPERTIES: "nothing to fix in the model: the shape was read with "
+    "its dimensions, but the tool does not compute this family's section properties yet; "
+    "check the member by other means",
     NotChecked.NOT_STEEL: "nothing to fix if the member is meant to be concrete or timber: "
     "only steel members are checked",
     NotChecked.NO_GRADE: "assign a steel material whose name gives the grade (e.g. A992, S355), "

@@ -177,7 +177,7 @@ def brambleford() -> ModelAuthor:
     for y in (0.0, 2500.0, 5000.0, 7500.0):
         a.beam("Level +3.500", (0.0, y, 0.0), (6000.0, y, 0.0), ipe300, material="S355JR",
                key=f"B:{y}", name=f"B{int(y)}", cardinal_point=8)  # fmt: skip
-    # a lintel modelled by outline and name only: no dimensions to check it by
+    # a lintel modelled by outline and name only (HEB160, from the European catalogue)
     a.beam("Level +3.500", (0.0, 8500.0, -1200.0), (6000.0, 8500.0, -1200.0), heb160,
            material="S355JR", key="lintel", name="L1", cardinal_point=8)  # fmt: skip
     a.slab(

@@ -306,3 +306,59 @@ def channel_from_dimensions(
         h=d - 2.0 * (t_root + r),
         mass_per_length=area * STEEL_DENSITY,
     )
+
+
+# --- Outlines of the common shapes in a canonical placement (for recognising
+# drawn outlines); fillets at the re-entrant corners as arcs of radius r.
+
+
+def i_outline(d: float, bf: float, tw: float, tf: float, r: float = 0.0) -> Polygon:
+    """Doubly symmetric I, centred on the origin, depth along y."""
+    hb, hd, hw = bf / 2.0, d / 2.0, tw / 2.0
+    sharp = Polygon(
+        [
+            (-hb, -hd), (hb, -hd), (hb, -hd + tf), (hw, -hd + tf), (hw, hd - tf),
+            (hb, hd - tf), (hb, hd), (-hb, hd), (-hb, hd - tf), (-hw, hd - tf),
+            (-hw, -hd + tf), (-hb, -hd + tf),
+        ]
+    )  # fmt: skip
+    return _close(sharp, r)
+
+
+def channel_outline(d: float, bf: float, tw: float, tf: float, r: float = 0.0) -> Polygon:
+    """Channel with the back of its web on x = 0, flanges towards +x, centred on y = 0."""
+    hd = d / 2.0
+    sharp = Polygon(
+        [(0.0, -hd), (bf, -hd), (bf, -hd + tf), (tw, -hd + tf), (tw, hd - tf), (bf, hd - tf),
+         (bf, hd), (0.0, hd)]
+    )  # fmt: skip
+    return _close(sharp, r)
+
+
+def tee_outline(d: float, bf: float, tw: float, tf: float, r: float = 0.0) -> Polygon:
+    """Tee with its flange on top (y from d − tf to d) and its stem down to y = 0, centred on x."""
+    hb, hw = bf / 2.0, tw / 2.0
+    sharp = Polygon(
+        [(-hw, 0.0), (hw, 0.0), (hw, d - tf), (hb, d - tf), (hb, d), (-hb, d), (-hb, d - tf),
+         (-hw, d - tf)]
+    )  # fmt: skip
+    return _close(sharp, r)
+
+
+def angle_outline(d: float, b: float, t: float, r: float = 0.0) -> Polygon:
+    """Angle with its heel at the origin, leg d along +y and leg b along +x."""
+    sharp = Polygon([(0.0, 0.0), (b, 0.0), (b, t), (t, t), (t, d), (0.0, d)])
+    return _close(sharp, r)
+
+
+def rounded_rectangle(d: float, b: float, radius: float = 0.0) -> Polygon:
+    """Rectangle b × d centred on the origin with corners rounded to ``radius``."""
+    if radius <= 0.0:
+        return Polygon([(-b / 2, -d / 2), (b / 2, -d / 2), (b / 2, d / 2), (-b / 2, d / 2)])
+    core = Polygon(
+        [
+            (-b / 2 + radius, -d / 2 + radius), (b / 2 - radius, -d / 2 + radius),
+            (b / 2 - radius, d / 2 - radius), (-b / 2 + radius, d / 2 - radius),
+        ]
+    )  # fmt: skip
+    return core.buffer(radius, quad_segs=32)

@@ -10,6 +10,10 @@ Strengths are in Pa. Sources:
 - S460: EN 10025-4 (thermomechanically rolled S460M/ML, the usual delivery
   condition of rolled sections) Tables 4–5, from memory; used for every S460
   quality.
+- A yield strength written out in the name ("250 MPa", "Fy=50ksi", "Fy 345",
+  "Grade 50", "Gr.50") is taken as the minimum yield strength; fu, not given,
+  is taken equal to fy (a lower bound). A bare number is read in ksi up to 100
+  and in MPa from 150 (US grades are numbered in ksi, metric grades in MPa).
 """
 
 from __future__ import annotations
@@ -123,6 +127,74 @@ def _en_grade(text: str) -> str | None:
     return f"S{m.group(1)}" if m else None
 
 
+# Minimum yield strengths that EN 10025 parts 2–6 give their grades (MPa, from memory).
+EN_GRADE_STRENGTHS = frozenset({185, 235, 275, 355, 420, 450, 460, 500, 550, 620, 690, 890, 960})
+# An EN-looking grade: S and three digits with a quality suffix (S335J0, S355J2+N, S690QL).
+_EN_TOKEN = re.compile(r"(?<![A-Z0-9])S\s*-?\s*(\d{3})(?=\s*(?:JR|J0|J2|K2|NL|ML|QL|N|M|W|Q)\b|\+)")
+
+
+def grade_problem(name: str) -> str | None:
+    """Why an EN-looking grade in a name cannot be used ("S335 is not an EN 10025
+    grade"), or None when the name has no such grade (or a usable one)."""
+    if not name:
+        return None
+    text = _clean(name)
+    if _en_grade(text) is not None or _astm_grade(text) is not None:
+        return None
+    m = _EN_TOKEN.search(text)
+    if m is None:
+        return None
+    strength = int(m.group(1))
+    if strength in EN_GRADE_STRENGTHS:
+        return f"S{strength} is an EN 10025 grade this tool does not carry"
+    return f"S{strength} is not an EN 10025 grade"
+
+
+_UNIT = r"(KSI|MPA|N\s*/\s*MM2|N\s*/\s*MM²|N/MM\^2)"
+_FY = re.compile(rf"(?<![A-Z])F\s*_?\s*Y\s*[=:]?\s*(\d+(?:[.,]\d+)?)\s*{_UNIT}?")
+_STRESS = re.compile(rf"(?<![0-9.])(\d+(?:[.,]\d+)?)\s*{_UNIT}")
+_GRADE_NUMBER = re.compile(r"(?<![A-Z])GR(?:ADE)?\s*\.?\s*(\d+)(?![0-9.])")
+_PLAUSIBLE_MPA = (150.0, 1000.0)
+_PLAUSIBLE_KSI = (25.0, 150.0)
+
+
+def _stress(value: float, unit: str | None) -> tuple[float, str] | None:
+    """(Pa, label) for a number with an optional unit; None when implausible for steel."""
+    if unit is None:
+        unit = "KSI" if value <= 100.0 else ("MPA" if value >= 150.0 else "")
+    if unit == "KSI":
+        if not _PLAUSIBLE_KSI[0] <= value <= _PLAUSIBLE_KSI[1]:
+            return None
+        return value * KSI, f"Fy {value:g} ksi"
+    if unit:
+        if not _PLAUSIBLE_MPA[0] <= value <= _PLAUSIBLE_MPA[1]:
+            return None
+        return value * MPA, f"Fy {value:g} MPa"
+    return None
+
+
+def yield_in_name(name: str) -> tuple[float, str] | None:
+    """A minimum yield strength written in a name ("250 MPa", "Fy=50ksi", "Grade 50"):
+    (fy in Pa, label), or None. Concrete and timber names give none."""
+    if not name:
+        return None
+    text = _clean(name)
+    if _CONCRETE.search(text) or _TIMBER.search(text):
+        return None
+    for pattern in (_FY, _STRESS):
+        m = pattern.search(text)
+        if m:
+            unit = m.group(2)
+            unit = None if unit is None else ("KSI" if unit == "KSI" else "MPA")
+            found = _stress(float(m.group(1).replace(",", ".")), unit)
+            if found is not None:
+                return found
+    m = _GRADE_NUMBER.search(text)
+    if m:
+        return _stress(float(m.group(1)), None)
+    return None
+
+
 def _step(value_mm: float, steps: tuple[float, ...], values: tuple[float, ...], what: str) -> float:
     for limit, v in zip(steps, values, strict=False):
         if value_mm <= limit:
@@ -186,6 +258,12 @@ def steel_from_name(
     en = _en_grade(text)
     if en is not None:
         return _en_steel(en, thickest_plate, material_name)
+    found = yield_in_name(material_name)
+    if found is not None:
+        fy, label = found
+        steel = steel_from_yield(fy, material_name)
+        note = f"{label} from '{material_name}'; fu not given, taken equal to fy"
+        return Steel(label, steel.fy, steel.fu, steel.E, steel.G, note)
     return None
 
 
