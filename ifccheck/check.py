@@ -76,7 +76,9 @@ def run_check(
     """The whole job on one model file. A settings key naming nothing in the model is a
     SettingsError unless ``strict_keys`` is False (``diff`` checks keys over both files)."""
     path = Path(model_path)
-    model = read_model(path, default_grade=settings.steel.default_grade)
+    model = read_model(
+        path, default_grade=settings.steel.default_grade, materials=settings.steel.materials
+    )
     prepare_floors(model, settings, strict_keys)
     framing = analyse_framing(model, settings.framing, settings.bracing)
     overrides = None

@@ -273,6 +273,7 @@ class Model:
     warnings: list[tuple[str, str]] = field(default_factory=list)  # (guid, message)
     geometry_fallbacks: int = 0
     levels: list[Level] = field(default_factory=list)  # set by the floors stage
+    material_names: list[str] = field(default_factory=list)  # every IfcMaterial's name
 
     def member(self, guid: str) -> Member:
         for m in self.members:

@@ -40,3 +40,9 @@ def test_levels_match_by_elevation_too(tmp_path):
                "check", str(REV_A))  # fmt: skip
     assert res.exit_code in (0, 1), res.output  # default loads: some beams fail
     assert "0 not checked" in res.output  # the roof beams got their floor load
+
+
+def test_a_material_mapping_that_names_no_material_is_refused(tmp_path):
+    res = _run(tmp_path, '[steel.materials]\n"Stell S355" = "S355"\n', "check", str(REV_B))
+    assert res.exit_code == 2
+    assert "steel.materials.'Stell S355' names nothing" in res.output

@@ -15,14 +15,17 @@ from ifccheck.report.display import DisplayUnits, utilisation_text
 from ifccheck.units import UnitSystem
 
 if TYPE_CHECKING:
+    from ifccheck.config import Settings
+    from ifccheck.model import Model
     from ifccheck.results import CheckResult
 
 
-def _read(path: str, default_grade: str = "A992"):
+def _read(path: str, settings: Settings) -> tuple[Model, float]:
     from ifccheck.ifc.reader import read_model
 
     t0 = time.perf_counter()
-    model = read_model(path, default_grade=default_grade)
+    steel = settings.steel
+    model = read_model(path, default_grade=steel.default_grade, materials=steel.materials)
     return model, time.perf_counter() - t0
 
 
@@ -44,7 +47,7 @@ def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool)
     from ifccheck.report.inspect import inspect_document, inspect_text
 
     settings = _settings(config, None)
-    model, seconds = _read(model_path, settings.steel.default_grade)
+    model, seconds = _read(model_path, settings)
     framing = demand = None
     if not read_only:
         prepare_floors(model, settings)

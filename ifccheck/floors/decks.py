@@ -113,7 +113,8 @@ def unmatched_keys(model: Model, settings: Settings) -> list[tuple[str, str]]:
     """Settings keys that name something the model does not have: (key, what it could be).
 
     Levels (``loads.storeys``, ``decks``) match by name, storey or elevation;
-    slabs (``loads.slabs``) by GUID. The second item lists the nearest names.
+    materials (``steel.materials``) by name (case and spaces aside); slabs
+    (``loads.slabs``) by GUID. The second item lists the nearest names.
     """
     import difflib
 
@@ -126,6 +127,11 @@ def unmatched_keys(model: Model, settings: Settings) -> list[tuple[str, str]]:
             if not match_levels(key, model.levels, tol):
                 near = difflib.get_close_matches(key, names, n=3, cutoff=0.4) or names[:5]
                 out.append((f"{table}.{key!r}", "levels: " + (", ".join(near) or "none")))
+    known = {" ".join(n.split()).casefold(): n for n in model.material_names}
+    for key in settings.steel.materials:
+        if " ".join(key.split()).casefold() not in known:
+            near = difflib.get_close_matches(key, list(known.values()), n=3, cutoff=0.4)
+            out.append((f"steel.materials.{key!r}", "materials: " + (", ".join(near) or "none")))
     guids = [s.guid for s in model.slabs if not s.declared]
     for key in settings.loads.slabs:
         if key not in guids:

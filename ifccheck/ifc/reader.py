@@ -226,6 +226,9 @@ class _Reader:
     # --- entry ------------------------------------------------------------------
     def read(self) -> Model:
         self._read_storeys()
+        self.model.material_names = sorted(
+            {m.Name for m in self.ifc.by_type("IfcMaterial") if m.Name}
+        )
         for element in self._elements(LINEAR_CLASSES):
             member = self._member(element)
             if member is not None:

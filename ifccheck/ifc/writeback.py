@@ -37,6 +37,7 @@ import ifcopenshell.ifcopenshell_wrapper as wrapper
 import ifcopenshell.util.unit
 
 from ifccheck.atomic import atomic_path
+from ifccheck.ifc.reader import open_ifc
 from ifccheck.results import BeamResult, CheckResult
 
 PSET_NAME = "ifccheck_SteelBeamAdequacy"
@@ -525,7 +526,7 @@ def write_checked_ifc(source_ifc: Path, result: CheckResult, path: Path) -> Path
     if path.resolve() == source_ifc.resolve():
         raise ValueError("the checked copy must not overwrite the input model")
     raw = source_ifc.read_bytes()
-    f = ifcopenshell.open(str(source_ifc))
+    f = open_ifc(source_ifc)  # as the reader opens it (IFC4X1/IFC4X2 read as IFC4)
     at = _data_end(raw) if ifcopenshell.guess_format(source_ifc) == ".ifc" else None
     if at is not None and not _has_own_psets(f):
         sink = _TextSink(f)
