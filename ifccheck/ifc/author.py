@@ -62,7 +62,7 @@ class ModelAuthor:
         self.length_unit = length_unit
         self.seed = seed
         self._counter = 0
-        self.f = ifcopenshell.file(schema=schema)
+        self.f = ifcopenshell.file(schema=schema)  # type: ignore[arg-type]
         f = self.f
         self.origin = f.createIfcCartesianPoint((0.0, 0.0, 0.0))
         self.world = f.createIfcAxis2Placement3D(self.origin, None, None)
@@ -249,7 +249,7 @@ class ModelAuthor:
             c, sn = np.cos(roll), np.sin(roll)
             x, y = c * x + sn * y, -sn * x + c * y
         st = self.storeys[storey]
-        placement = self.placement(st.ObjectPlacement, s, z, x)
+        placement = self.placement(st.ObjectPlacement, s.tolist(), z.tolist(), x.tolist())
         key = key or self._next(ifc_class)
         cx, cy = cardinal_offset(cardinal_point, profile.d, profile.bf)
         reps = []

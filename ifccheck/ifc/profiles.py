@@ -24,7 +24,7 @@ from dataclasses import dataclass, field, replace
 import ifcopenshell
 import ifcopenshell.util.element as uelement
 import numpy as np
-from shapely import affinity  # type: ignore[import-untyped]
+from shapely import affinity
 
 from ifccheck.model import MaterialCategory, Section, ShapeFamily, Steel
 from ifccheck.reasons import NotChecked, Reason

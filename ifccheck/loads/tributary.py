@@ -601,6 +601,7 @@ def _deck_span(level: str, fams: list[_Family], bm: _Beams, entry: StoreyLoads |
     override = _override_angle(entry)
     basis = ""
     chosen: int | None
+    span_angle: float | None
     source: Literal["inferred", "settings", "none"]
     if override is not None:
         chosen = _nearest_family(fams, (override + 90.0) % 180.0)

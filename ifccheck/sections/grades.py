@@ -204,6 +204,9 @@ def _step(value_mm: float, steps: tuple[float, ...], values: tuple[float, ...], 
 
 def _en_steel(grade: str, thickest_plate: float | None, name: str) -> Steel:
     t_mm = None if thickest_plate is None else thickest_plate * 1000.0
+    fy_steps: tuple[float, ...]
+    fu_steps: tuple[float, ...]
+    fu_values: tuple[float, ...]
     if grade == "S460":
         fy_steps, fu_steps, fu_values = _S460_FY_STEPS_MM, _S460_FU_STEPS_MM, _S460_FU
     else:

@@ -23,9 +23,9 @@ from collections.abc import Callable
 from dataclasses import dataclass
 
 import numpy as np
-from shapely import affinity  # type: ignore[import-untyped]
-from shapely.geometry import LineString, Polygon  # type: ignore[import-untyped]
-from shapely.geometry.polygon import orient  # type: ignore[import-untyped]
+from shapely import affinity
+from shapely.geometry import LineString, Polygon
+from shapely.geometry.polygon import orient
 
 from ifccheck.model import ShapeFamily
 from ifccheck.sections.compute import (

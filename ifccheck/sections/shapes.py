@@ -28,15 +28,15 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-from shapely import clip_by_rect  # type: ignore[import-untyped]
-from shapely.geometry import (  # type: ignore[import-untyped]
+from shapely import clip_by_rect
+from shapely.geometry import (
     LinearRing,
     MultiPolygon,
     Polygon,
     box,
 )
-from shapely.geometry.base import BaseGeometry  # type: ignore[import-untyped]
-from shapely.geometry.polygon import orient  # type: ignore[import-untyped]
+from shapely.geometry.base import BaseGeometry
+from shapely.geometry.polygon import orient
 
 from ifccheck.model import Section, ShapeFamily
 

