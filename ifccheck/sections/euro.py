@@ -165,7 +165,7 @@ def _parameters() -> dict[str, dict[str, dict[str, float]]]:
     try:
         return {c: _read_parameters(folder, m, c) for c, m in _MODULES.items()}
     except (OSError, SyntaxError, ValueError, LookupError):  # a layout this reader does not know
-        from structuralcodes.geometry import profiles  # type: ignore[import-untyped]
+        from structuralcodes.geometry import profiles
 
         return {c: getattr(profiles, c).parameters for c in _MODULES}
 
