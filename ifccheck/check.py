@@ -20,13 +20,14 @@ from pathlib import Path
 import numpy as np
 
 from ifccheck import CAUTION, __version__
+from ifccheck.adequacy import assess_bracing
 from ifccheck.config import Settings, settings_to_dict
 from ifccheck.design import get_standard
 from ifccheck.design.base import DesignStandard, segment_moments
 from ifccheck.errors import OutOfScope
 from ifccheck.floors import prepare_floors
 from ifccheck.framing import analyse_framing
-from ifccheck.framing.types import Framing, MemberFraming
+from ifccheck.framing.types import BraceAdequacy, Framing, MemberFraming
 from ifccheck.ifc.reader import read_model
 from ifccheck.loads.combinations import LIVE_DEFLECTION, TOTAL_DEFLECTION
 from ifccheck.loads.demand import BeamDemand, compute_demand, load_demand_csv
@@ -36,6 +37,7 @@ from ifccheck.model import MaterialCategory, Member, MemberRole, Model
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import (
     BeamResult,
+    BraceCheckOut,
     BracePointOut,
     CheckResult,
     LevelInfo,
@@ -88,6 +90,10 @@ def run_check(
     demand = compute_demand(model, framing, settings, overrides)
     warnings += [w for w in demand.warnings if w not in warnings]
     standard = get_standard(settings.design.standard)
+    assess_bracing(
+        model, framing, demand, standard, settings.design.method, settings.bracing.adequacy,
+        tuple(settings.bracing.moment_connections),
+    )  # fmt: skip
     beams = [
         (m, framing.members.get(m.guid), demand.beams.get(m.guid))
         for m in model.members
@@ -183,7 +189,15 @@ def _base(m: Member, mf: MemberFraming | None) -> BeamResult:
         span=span,
         supports=[{"station": s.station, "by": s.by} for s in supports],
         brace_points=[
-            BracePointOut(b.station, b.kind, b.by, b.flange, b.counts, b.reason)
+            BracePointOut(
+                b.station,
+                b.kind,
+                b.by,
+                b.flange,
+                b.counts,
+                b.reason,
+                adequacy=_adequacy_out(b.adequacy),
+            )
             for b in sorted(mf.brace_points, key=lambda b: b.station)
         ]
         if mf
@@ -192,6 +206,15 @@ def _base(m: Member, mf: MemberFraming | None) -> BeamResult:
         free_ends=list(mf.free_ends) if mf else [],
         notes=list(m.notes) + (list(mf.notes) if mf else []),
     )
+
+
+def _adequacy_out(a: BraceAdequacy | None) -> BraceCheckOut | None:
+    if a is None:
+        return None
+    return BraceCheckOut(
+        a.kind, a.required_strength, a.required_stiffness, a.provided_strength,
+        a.provided_stiffness, a.adequate, a.mr, a.lbr, a.cd, a.path, a.notes,
+    )  # fmt: skip
 
 
 def _not_checked_reason(

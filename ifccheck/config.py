@@ -49,6 +49,12 @@ class FramingSettings:
 @dataclass
 class BracingSettings:
     slab: bool = True  # a slab on the top flange braces it continuously
+    # AISC 360-16 Appendix 6 strength and stiffness of each brace: "enforce" (an
+    # inadequate brace does not count), "report" (checked and reported only) or "off"
+    adequacy: str = "enforce"
+    # bracing members (GUIDs or names) framing into the web with a moment connection:
+    # they brace torsionally (Appendix 6.3.2)
+    moment_connections: list[str] = field(default_factory=list)
 
 
 @dataclass
@@ -263,6 +269,19 @@ def _bool(value: Any, key: str) -> bool:
     return value
 
 
+def _adequacy(value: Any, key: str) -> str:
+    text = _string(value, key).lower()
+    if text not in ("enforce", "report", "off"):
+        raise _fail(key, f"{value!r} is not 'enforce', 'report' or 'off'")
+    return text
+
+
+def _names(value: Any, key: str) -> list[str]:
+    if not isinstance(value, list) or not all(isinstance(v, str) and v.strip() for v in value):
+        raise _fail(key, f"{value!r} is not a list of GUIDs or names")
+    return [v.strip() for v in value]
+
+
 def _ratio(value: Any, key: str) -> float:
     """A deflection limit as span/N: 360, 360.0, "360" or "L/360"."""
     number: Any = value
@@ -342,7 +361,7 @@ _SECTIONS: dict[str, dict[str, Callable[[Any, str], Any]]] = {
         "slab_bearing_tolerance": _quantity("length"),
         "level_tolerance": _quantity("length", strict=True),
     },
-    "bracing": {"slab": _bool},
+    "bracing": {"slab": _bool, "adequacy": _adequacy, "moment_connections": _names},
     "loads": {
         "dead": _quantity("pressure"),
         "live": _quantity("pressure"),

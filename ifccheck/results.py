@@ -44,6 +44,25 @@ class BracePointOut:
     counts: bool
     reason: Reason | None = None  # why it does not count
     by_name: str = ""  # the bracing member's name, for people (the GUID stays in ``by``)
+    adequacy: BraceCheckOut | None = None  # Appendix 6, where the brace was checked
+
+
+@dataclass(frozen=True)
+class BraceCheckOut:
+    """What a brace point needs and gets: N and N/m for a point (lateral) brace, N·m and
+    N·m/rad for a torsional one."""
+
+    kind: str  # "point" or "torsional"
+    required_strength: float
+    required_stiffness: float
+    provided_strength: float
+    provided_stiffness: float
+    adequate: bool
+    mr: float  # N·m
+    lbr: float  # m
+    cd: float
+    path: tuple[str, ...] = ()  # bracing members (GUIDs) to the anchor
+    notes: tuple[str, ...] = ()
 
 
 @dataclass

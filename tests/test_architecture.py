@@ -19,7 +19,7 @@ LAYERS: list[set[str]] = [
     {"ifc", "framing", "design"},
     {"floors"},
     {"loads"},
-    {"segments"},
+    {"segments", "adequacy"},
     {"check", "diff"},
     {"report", "samples"},
     {"service"},

@@ -35,6 +35,8 @@ from ifccheck.design.aisc360_shear import (
     PHI_V_ROLLED,
 )
 from ifccheck.design.base import (
+    AxialCapacity,
+    BraceNeed,
     DesignStandard,
     FlexureResult,
     FloatArray,
@@ -684,6 +686,34 @@ class AISC360(DesignStandard):
     """AISC 360-16 behind the design-standard interface."""
 
     name = NAME
+
+    def point_brace(
+        self, mr: float, ho: float, lbr: float, method: str = "LRFD", cd: float = 1.0
+    ) -> BraceNeed:
+        from ifccheck.design.aisc360_members import point_brace_requirement
+
+        need = point_brace_requirement(mr, ho, lbr, method, cd)
+        return BraceNeed(need.strength, need.stiffness, need.clause)
+
+    def torsional_brace(
+        self, mr: float, span: float, braces: int, cb: float, section: Section, steel: Steel,
+        method: str = "LRFD", *, compression_top: bool = True,
+    ) -> BraceNeed:  # fmt: skip
+        from ifccheck.design.aisc360_members import torsional_brace_requirement
+
+        need = torsional_brace_requirement(
+            mr, span, braces, cb, section, steel, method, compression_top=compression_top
+        )
+        return BraceNeed(need.moment, need.required_stiffness, need.clause)
+
+    def axial_strength(
+        self, section: Section, steel: Steel, length: float, method: str = "LRFD"
+    ) -> AxialCapacity:
+        from ifccheck.design.aisc360_members import compression_strength, tension_strength
+
+        c = compression_strength(section, steel, length, method)
+        t = tension_strength(section, steel, method)
+        return AxialCapacity(c.design_strength, t.design_strength, f"{c.clause}; {t.clause}")
 
     def scope(self, section: Section, steel: Steel | None = None, axis: str = "major") -> str:
         return scope(section, steel, axis)

@@ -16,6 +16,7 @@ from typing import Literal
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
+from ifccheck.errors import OutOfScope
 from ifccheck.model import Section, Steel
 
 Method = Literal["LRFD", "ASD"]
@@ -76,6 +77,29 @@ class StrengthCurve:
     limit_state: NDArray[np.object_]
 
 
+@dataclass(frozen=True)
+class BraceNeed:
+    """Required strength (N, or N·m) and stiffness (N/m, or N·m/rad) of a brace."""
+
+    strength: float
+    stiffness: float
+    clause: str
+
+
+@dataclass(frozen=True)
+class AxialCapacity:
+    """Available axial strength of a member in compression and in tension (N)."""
+
+    compression: float
+    tension: float
+    clause: str
+
+    @property
+    def either_way(self) -> float:
+        """A brace force may push or pull: the lower of the two."""
+        return min(self.compression, self.tension)
+
+
 class DesignStandard(ABC):
     """What the pipeline needs from a design standard."""
 
@@ -124,6 +148,25 @@ class DesignStandard(ABC):
     ) -> FloatArray:
         """The standard's moment-gradient factor (Cb, C1, ...) of segments [start, end]
         of a sampled moment diagram; ``cantilever`` marks segments with a free tip."""
+
+    def point_brace(
+        self, mr: float, ho: float, lbr: float, method: str = "LRFD", cd: float = 1.0
+    ) -> BraceNeed:
+        """What a point lateral brace of a beam's compression flange must provide."""
+        raise OutOfScope(f"{self.name}: brace requirements are not implemented")
+
+    def torsional_brace(
+        self, mr: float, span: float, braces: int, cb: float, section: Section, steel: Steel,
+        method: str = "LRFD", *, compression_top: bool = True,
+    ) -> BraceNeed:  # fmt: skip
+        """What a point torsional brace of a beam must provide (N·m, N·m/rad)."""
+        raise OutOfScope(f"{self.name}: torsional brace requirements are not implemented")
+
+    def axial_strength(
+        self, section: Section, steel: Steel, length: float, method: str = "LRFD"
+    ) -> AxialCapacity:
+        """Design (or allowable) axial strength of a bracing member of ``length``."""
+        raise OutOfScope(f"{self.name}: member axial strength is not implemented")
 
     def flexure_many(
         self,

@@ -31,6 +31,8 @@ class Anchorage:
     anchored: dict[int, bool] = field(default_factory=dict)
     line: dict[int, list[int]] = field(default_factory=dict)  # rows on the same line
     anchors: dict[int, list[str]] = field(default_factory=dict)  # what anchors it
+    # the bracing-line graph: ("member", row), ("column", row), ("wall", index), ("slab",)
+    graph: nx.Graph = field(default_factory=nx.Graph)
 
 
 def bracing_anchorage(
@@ -74,7 +76,7 @@ def bracing_anchorage(
         if coverage.get(row):
             g.add_edge(("member", row), SLAB)
 
-    out = Anchorage()
+    out = Anchorage(graph=g)
     for comp in nx.connected_components(g):
         rows = sorted(n[1] for n in comp if n[0] == "member")
         if not rows:

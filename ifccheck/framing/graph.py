@@ -46,7 +46,9 @@ def _fallback_note(profile: str) -> str:
 def _line_reason(geom: MemberGeometry, rows: list[int]) -> Reason:
     kind = "strut" if all(geom.members[r].role.value == "strut" for r in rows) else "bracing"
     return Reason.of(
-        NotChecked.BRACE_UNANCHORED, kind=kind, members=tuple(geom.guids[r] for r in rows)
+        NotChecked.BRACE_UNANCHORED,
+        kind=kind,
+        members=tuple(geom.members[r].name or geom.guids[r] for r in rows),
     )
 
 
@@ -202,7 +204,21 @@ def _build(
         load_levels=levels,
         cycles=cycles,
         warnings=warnings,
+        bracing_lines=_guid_lines(anchorage, geom, model),
     )
+
+
+def _guid_lines(anchorage: Anchorage, geom: MemberGeometry, model: Model) -> nx.Graph:
+    """The bracing-line graph with its nodes named by GUID."""
+
+    def name(node: tuple) -> tuple:
+        if node[0] in ("member", "column"):
+            return (node[0], geom.guids[node[1]])
+        if node[0] == "wall":
+            return ("wall", model.walls[node[1]].guid)
+        return node
+
+    return nx.relabel_nodes(anchorage.graph, name, copy=True)
 
 
 def cycle_path(cycle: list[str]) -> str:

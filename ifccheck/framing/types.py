@@ -40,6 +40,36 @@ class BracePoint:
     flange: Flange
     counts: bool = True
     reason: Reason | None = None  # why it does not count, when counts is False
+    adequacy: BraceAdequacy | None = None  # the Appendix 6 check, where it was made
+
+
+@dataclass(frozen=True)
+class BraceAdequacy:
+    """Strength and stiffness a brace point needs and gets (N and N/m; N·m and N·m/rad
+    for a torsional brace), from the design standard's bracing provisions."""
+
+    kind: Literal["point", "torsional"]
+    required_strength: float
+    required_stiffness: float
+    provided_strength: float
+    provided_stiffness: float
+    mr: float  # N·m, the moment the brace must hold (the larger of the segments beside it)
+    lbr: float  # m, the larger unbraced length beside it
+    cd: float  # Cd, 2.0 next to an inflection point
+    path: tuple[str, ...] = ()  # the members from the brace point to its anchor
+    notes: tuple[str, ...] = ()
+
+    @property
+    def strong_enough(self) -> bool:
+        return self.provided_strength >= self.required_strength
+
+    @property
+    def stiff_enough(self) -> bool:
+        return self.provided_stiffness >= self.required_stiffness
+
+    @property
+    def adequate(self) -> bool:
+        return self.strong_enough and self.stiff_enough
 
 
 @dataclass(frozen=True)
@@ -103,6 +133,9 @@ class Framing:
     # members written as beams, columns or members that brace and support nothing,
     # GUIDs by kind ("fastener", "plate or flat", "member of unknown section", ...)
     excluded: dict[str, list[str]] = field(default_factory=dict)
+    # bracing lines: nodes ("member", GUID) for struts and braces, and their anchors
+    # ("column", GUID), ("wall", GUID), ("slab",); edges where they meet or continue
+    bracing_lines: nx.Graph = field(default_factory=nx.Graph)
 
     def edges(self, by: str, host: str) -> list[FramingEdge]:
         """The edges from member ``by`` to ``host`` (none when they do not meet)."""

@@ -25,6 +25,7 @@ from ifccheck.report.wording import change_reasons, diff_names
 from ifccheck.results import (
     BeamChange,
     BeamResult,
+    BraceCheckOut,
     ChangeCause,
     CheckResult,
     DemandOut,
@@ -162,6 +163,7 @@ def beam_dict(b: BeamResult, detail: bool = False) -> dict[str, Any]:
                 "counts": bool(p.counts),
                 "reason": reason_text(p.reason),
                 "reason_code": reason_code(p.reason),
+                "adequacy": adequacy_dict(p.adequacy),
             }
             for p in b.brace_points
         ],
@@ -236,6 +238,25 @@ def results_document(result: CheckResult, detail: bool = False) -> dict[str, Any
             for s in result.slabs
         ],
         "beams": [beam_dict(b, detail) for b in result.beams],
+    }
+
+
+def adequacy_dict(a: BraceCheckOut | None) -> dict[str, Any] | None:
+    """A brace point's Appendix 6 check (SI: N and N/m, or N·m and N·m/rad), or None."""
+    if a is None:
+        return None
+    return {
+        "kind": a.kind,
+        "required_strength": num(a.required_strength),
+        "required_stiffness": num(a.required_stiffness),
+        "provided_strength": num(a.provided_strength),
+        "provided_stiffness": num(a.provided_stiffness),
+        "adequate": a.adequate,
+        "mr": num(a.mr),
+        "lbr": num(a.lbr),
+        "cd": a.cd,
+        "path": list(a.path),
+        "notes": list(a.notes),
     }
 
 

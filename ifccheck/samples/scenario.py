@@ -4,7 +4,8 @@ Quillfeather Hall is an invented two-storey steel-framed building, modelled
 in feet (IFC4): three 30 ft bays by two 30 ft bays, a composite slab on
 Level 2 with a stair opening, a cantilevered balcony beam with bottom-flange
 kickers, and a roof framed at quarter points with no modelled deck where two
-infill beams are tied to each other by a strut. Revision B drops bracing the
+infill beams are tied to each other by a strut (and one more is tied by a strut
+to the north parapet wall, an anchor). Revision B drops bracing the
 way real revisions do: a roof infill beam deleted for a duct, a new slab
 opening over a Level 2 infill beam, and a Level 2 infill beam pulled 1 ft
 short of its girder.
@@ -35,6 +36,8 @@ YS = (0.0, 30.0, 60.0)
 STOREY_HEIGHT = 14.0
 SLAB_THICKNESS = 5.5 * IN
 BALCONY_TIP = 98.0
+NORTH_WALL = 61.0  # ft, centre line of the roof's north parapet wall
+WALL_THICKNESS = 8.0 * IN
 
 
 def w_shape(name: str) -> IProfile:
@@ -153,6 +156,14 @@ def quillfeather(revision: str) -> ModelAuthor:
     a.member(
         ROOF, (15.0, 37.5, -r_infill.d / 2), (15.0, 45.0, -r_infill.d / 2), channel("C8X11.5"),
         predefined="STRUT", key="R:strut", name="R-S15",
+    )  # fmt: skip
+    # A masonry parapet wall on the north edge, and a strut tying the mid-span of the
+    # last roof infill of the first bay to it: a strut line that reaches an anchor.
+    a.wall(ROOF, (-0.5, NORTH_WALL), (90.5, NORTH_WALL), WALL_THICKNESS, 3.0, base=-2.0,
+           name="R-W-north", key="R:wall", material="Concrete masonry")  # fmt: skip
+    a.member(
+        ROOF, (15.0, 52.5, -r_infill.d / 2), (15.0, NORTH_WALL - 0.2, -r_infill.d / 2),
+        channel("C8X11.5"), predefined="STRUT", key="R:strut-wall", name="R-S15-N",
     )  # fmt: skip
     return a
 
