@@ -172,7 +172,7 @@ def run(sizes: list[int]) -> list[dict[str, float]]:
             "n": float(n),
             "floor_beams": float(nb),
             "statics": _time(lambda p=problems: analyse_beams(p)),
-            "tributary": _time(lambda m=model: compute_tributary(m, settings)),
+            "tributary": _time(lambda m=model, f=framing: compute_tributary(m, settings, f)),
             "demand": _time(lambda m=model, f=framing: compute_demand(m, f, settings)),
         }
         rows.append(row)

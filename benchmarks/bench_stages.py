@@ -20,8 +20,9 @@ import time
 from pathlib import Path
 
 from ifccheck.check import check_beam
-from ifccheck.config import Settings
+from ifccheck.config import settings_from_dict
 from ifccheck.design import get_standard
+from ifccheck.floors import prepare_floors
 from ifccheck.framing import analyse_framing
 from ifccheck.ifc.reader import read_model
 from ifccheck.loads.demand import compute_demand
@@ -33,12 +34,13 @@ STAGES = ("read", "framing", "demand", "check")
 
 def run(n: int, folder: Path) -> dict[str, float]:
     path = write_synthetic(n, folder / f"synthetic-{n}.ifc")
-    settings = Settings()
+    settings = settings_from_dict({"steel": {"default_grade": "A992"}})
     times: dict[str, float] = {}
     t = time.perf_counter()
-    model = read_model(path)
+    model = read_model(path, default_grade="A992")
     times["read"] = time.perf_counter() - t
     t = time.perf_counter()
+    prepare_floors(model, settings)
     framing = analyse_framing(model, settings.framing, settings.bracing)
     times["framing"] = time.perf_counter() - t
     t = time.perf_counter()

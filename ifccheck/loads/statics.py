@@ -321,199 +321,234 @@ def analyse_beams(
         return _analyse_beams(problems, per_span, combinations)
 
 
+@dataclass
+class _Gathered:
+    """Every beam's supports, loads and extra stations as flat arrays (beam index first)."""
+
+    length: np.ndarray  # per beam, m (1.0 where the length is bad)
+    EI: np.ndarray  # per beam, N·m² (NaN where not given)
+    cases: tuple[str, ...]
+    support_beam: np.ndarray
+    support_x: np.ndarray
+    point_beam: np.ndarray
+    point_case: np.ndarray
+    point_force: np.ndarray
+    point_x: np.ndarray
+    line_beam: np.ndarray
+    line_case: np.ndarray
+    line_w: np.ndarray
+    line_start: np.ndarray
+    line_end: np.ndarray
+    extra_beam: np.ndarray
+    extra_x: np.ndarray
+    errors: dict[int, Exception]
+
+
+def _gather(problems: Sequence[BeamProblem]) -> _Gathered:
+    """Flatten the problems into arrays; positions outside a beam are errors of that beam
+    (clipped onto it so the arrays stay usable), zero-length loads are dropped."""
+    nb = len(problems)
+    case_index: dict[str, int] = {}
+    length = np.empty(nb)
+    EI = np.empty(nb)
+    supports: tuple[list[int], list[float]] = ([], [])
+    points: tuple[list[int], list[int], list[tuple[float, float]]] = ([], [], [])
+    lines: tuple[list[int], list[int], list[tuple[float, float, float]]] = ([], [], [])
+    extras: tuple[list[int], list[float]] = ([], [])
+    for i, p in enumerate(problems):
+        length[i] = p.length
+        EI[i] = p.EI if p.EI else np.nan
+        supports[0].extend([i] * len(p.supports))
+        supports[1].extend(p.supports)
+        extras[0].extend([i] * len(p.extra_stations))
+        extras[1].extend(p.extra_stations)
+        for name, cl in p.cases.items():
+            c = case_index.setdefault(name, len(case_index))
+            points[0].extend([i] * len(cl.point))
+            points[1].extend([c] * len(cl.point))
+            points[2].extend((pl.P, pl.station) for pl in cl.point)
+            lines[0].extend([i] * len(cl.line))
+            lines[1].extend([c] * len(cl.line))
+            lines[2].extend((ll.w, ll.start, ll.end) for ll in cl.line)
+    errors: dict[int, Exception] = {}
+    bad_length = ~(np.isfinite(length) & (length > 0))
+    _fail_once(errors, np.flatnonzero(bad_length),
+               lambda b: ValueError(f"beam length must be positive, got {length[b]}"))  # fmt: skip
+    ls = np.where(bad_length, 1.0, length)
+
+    def on_beam(b: np.ndarray, x: np.ndarray, what: str) -> np.ndarray:
+        out = (x < -OUTSIDE_TOLERANCE) | (x > ls[b] + OUTSIDE_TOLERANCE) | ~np.isfinite(x)
+        for j in np.flatnonzero(out):
+            errors.setdefault(
+                int(b[j]),
+                ValueError(
+                    f"{what} at {x[j]:.4f} m lies outside the beam (length {ls[b[j]]:.4f} m)"
+                ),
+            )
+        return np.clip(np.nan_to_num(x), 0.0, ls[b])
+
+    def ints(values: list[int]) -> np.ndarray:
+        return np.asarray(values, dtype=int)
+
+    def floats(values: list, width: int) -> np.ndarray:
+        return np.asarray(values, dtype=float).reshape(-1, width)
+
+    support_beam = ints(supports[0])
+    support_x = on_beam(support_beam, np.asarray(supports[1], dtype=float), "support")
+    point_beam, point_case, pv = ints(points[0]), ints(points[1]), floats(points[2], 2)
+    point_x = on_beam(point_beam, pv[:, 1], "point load")
+    line_beam, line_case, lv = ints(lines[0]), ints(lines[1]), floats(lines[2], 3)
+    la = on_beam(line_beam, lv[:, 1], "line load")
+    lz = on_beam(line_beam, lv[:, 2], "line load")
+    la, lz = np.minimum(la, lz), np.maximum(la, lz)
+    keep = (lz - la > NODE_MERGE * ls[line_beam]) & (lv[:, 0] != 0.0)
+    extra_beam = ints(extras[0])
+    extra_x = on_beam(extra_beam, np.asarray(extras[1], dtype=float), "station")
+    return _Gathered(
+        ls, EI, tuple(case_index), support_beam, support_x, point_beam, point_case, pv[:, 0],
+        point_x, line_beam[keep], line_case[keep], lv[keep, 0], la[keep], lz[keep],
+        extra_beam, extra_x, errors,
+    )  # fmt: skip
+
+
+def _merged_supports(g: _Gathered, nb: int) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Supports closer than the tolerance merged, sorted per beam; (beam, x, count per beam).
+    A beam left with fewer than two is a mechanism (an error of that beam)."""
+    o = np.lexsort((g.support_x, g.support_beam))
+    sb, sx = g.support_beam[o], g.support_x[o]
+    new = np.ones(sb.size, dtype=bool)
+    new[1:] = (sb[1:] != sb[:-1]) | (np.diff(sx) > SUPPORT_MERGE * g.length[sb[1:]] + 1e-3)
+    sb, sx = sb[new], sx[new]
+    count = np.bincount(sb, minlength=nb)
+    _fail_once(
+        g.errors,
+        np.flatnonzero(count < 2),
+        lambda b: UnstableBeamError(
+            f"{count[b]} support{'s' if count[b] != 1 else ''}: a beam on pins needs two or more"
+        ),
+    )
+    return sb, sx, count
+
+
+@dataclass
+class _Nodes:
+    """Every solvable beam's nodes (ends, supports, point loads, load boundaries) as keys
+    2·beam + x/L in one sorted array, so that one search finds any beam's node."""
+
+    key: np.ndarray
+    beam: np.ndarray
+    xh: np.ndarray  # x / L
+    first: np.ndarray  # the first node of its beam
+    last: np.ndarray
+    start: np.ndarray  # per beam: index of its first node (-1 when not solved)
+    count: np.ndarray  # per beam: number of nodes
+
+    def nearest(self, b: np.ndarray, x: np.ndarray, length: np.ndarray) -> np.ndarray:
+        k_ = 2.0 * b + x / length[b]
+        return self.nearest_key(k_)
+
+    def nearest_key(self, k_: np.ndarray) -> np.ndarray:
+        i = np.clip(np.searchsorted(self.key, k_), 1, self.key.size - 1)
+        return np.where(np.abs(self.key[i - 1] - k_) <= np.abs(self.key[i] - k_), i - 1, i)
+
+
+def _node_table(g: _Gathered, ok: np.ndarray, sb: np.ndarray, sx: np.ndarray) -> _Nodes:
+    good = np.flatnonzero(ok)
+    ls = g.length
+    cand_b = np.concatenate((good, good, sb, g.point_beam, g.line_beam, g.line_beam))
+    cand_x = np.concatenate(
+        (np.zeros(good.size), ls[good], sx, g.point_x, g.line_start, g.line_end)
+    )
+    m = ok[cand_b]
+    nk = np.sort(2.0 * cand_b[m] + cand_x[m] / ls[cand_b[m]])
+    nbeam = np.floor(nk / 2.0).astype(int)
+    new = np.ones(nk.size, dtype=bool)
+    new[1:] = (nbeam[1:] != nbeam[:-1]) | (np.diff(nk) > NODE_MERGE)
+    nk, nbeam = nk[new], nbeam[new]
+    xh = nk - 2.0 * nbeam
+    first = np.ones(nk.size, dtype=bool)
+    first[1:] = nbeam[1:] != nbeam[:-1]
+    last = np.roll(first, -1)
+    xh[first], xh[last] = 0.0, 1.0
+    nk = 2.0 * nbeam + xh
+    start = np.full(ls.size, -1)
+    start[nbeam[first]] = np.flatnonzero(first)
+    return _Nodes(nk, nbeam, xh, first, last, start, np.bincount(nbeam, minlength=ls.size))
+
+
+def _stations_per_element(nodes: _Nodes, is_support: np.ndarray, per_span: int) -> np.ndarray:
+    """Sample stations per element: ``per_span`` over the span (or overhang) holding it."""
+    n = nodes.key.size
+    idx = np.arange(n)
+    bound = is_support | nodes.first | nodes.last
+    prev_b = np.maximum.accumulate(np.where(bound, idx, -1))
+    nxt = np.minimum.accumulate(np.where(bound, idx, n)[::-1])[::-1]
+    nxt_b = nxt[np.minimum(idx + 1, n - 1)]
+    h = np.diff(nodes.xh, append=1.0)
+    span = np.where(nodes.last, 1.0, nodes.xh[nxt_b] - nodes.xh[prev_b])
+    ratio = per_span * h / np.where(span > 0, span, 1.0)
+    return np.maximum(2, np.ceil(ratio - 1e-6).astype(int) + 1)  # robust to rounding
+
+
 def _analyse_beams(
     problems: Sequence[BeamProblem],
     per_span: int,
     combinations: Sequence[Mapping[str, float]],
 ) -> list[BeamAnalysis | Exception]:
     nb = len(problems)
-    case_index: dict[str, int] = {}
-    L = np.empty(nb)
-    EI = np.empty(nb)
-    sb: list[int] = []
-    sx: list[float] = []
-    pb: list[int] = []
-    pc: list[int] = []
-    pv: list[tuple[float, float]] = []
-    lb: list[int] = []
-    lc: list[int] = []
-    lv: list[tuple[float, float, float]] = []
-    eb: list[int] = []
-    ex: list[float] = []
-    for i, p in enumerate(problems):
-        L[i] = p.length
-        EI[i] = p.EI if p.EI else np.nan
-        sx.extend(p.supports)
-        sb.extend([i] * len(p.supports))
-        ex.extend(p.extra_stations)
-        eb.extend([i] * len(p.extra_stations))
-        for name, cl in p.cases.items():
-            c = case_index.setdefault(name, len(case_index))
-            for pl in cl.point:
-                pv.append((pl.P, pl.station))
-            pb.extend([i] * len(cl.point))
-            pc.extend([c] * len(cl.point))
-            for ll in cl.line:
-                lv.append((ll.w, ll.start, ll.end))
-            lb.extend([i] * len(cl.line))
-            lc.extend([c] * len(cl.line))
-    cases = tuple(case_index)
-    C = len(cases)
-    errors: dict[int, Exception] = {}
-    bad_len = ~(np.isfinite(L) & (L > 0))
-    _fail_once(
-        errors,
-        np.flatnonzero(bad_len),
-        lambda b: ValueError(f"beam length must be positive, got {L[b]}"),
-    )
-    Ls = np.where(bad_len, 1.0, L)
-
-    def arr(values: list, width: int) -> np.ndarray:
-        return np.asarray(values, dtype=float).reshape(-1, width)
-
-    def inside(b: np.ndarray, x: np.ndarray, what: str) -> np.ndarray:
-        out = (x < -OUTSIDE_TOLERANCE) | (x > Ls[b] + OUTSIDE_TOLERANCE) | ~np.isfinite(x)
-        for j in np.flatnonzero(out):
-            errors.setdefault(
-                int(b[j]),
-                ValueError(
-                    f"{what} at {x[j]:.4f} m lies outside the beam (length {Ls[b[j]]:.4f} m)"
-                ),
-            )
-        return np.clip(np.nan_to_num(x), 0.0, Ls[b])
-
-    sb_a = np.asarray(sb, dtype=int)
-    sx_a = inside(sb_a, np.asarray(sx, dtype=float), "support")
-    pb_a, pc_a = np.asarray(pb, dtype=int), np.asarray(pc, dtype=int)
-    pv_a = arr(pv, 2)
-    px_a = inside(pb_a, pv_a[:, 1], "point load")
-    lb_a, lc_a = np.asarray(lb, dtype=int), np.asarray(lc, dtype=int)
-    lv_a = arr(lv, 3)
-    la = inside(lb_a, lv_a[:, 1], "line load")
-    lz = inside(lb_a, lv_a[:, 2], "line load")
-    la, lz = np.minimum(la, lz), np.maximum(la, lz)
-    keep = (lz - la > NODE_MERGE * Ls[lb_a]) & (lv_a[:, 0] != 0.0)
-    lb_a, lc_a, lw, la, lz = lb_a[keep], lc_a[keep], lv_a[keep, 0], la[keep], lz[keep]
-    eb_a = np.asarray(eb, dtype=int)
-    ex_a = inside(eb_a, np.asarray(ex, dtype=float), "station")
-
-    # supports: merge those closer than the tolerance, then need two or more
-    o = np.lexsort((sx_a, sb_a))
-    sb_a, sx_a = sb_a[o], sx_a[o]
-    new = np.ones(sb_a.size, dtype=bool)
-    new[1:] = (sb_a[1:] != sb_a[:-1]) | (np.diff(sx_a) > SUPPORT_MERGE * Ls[sb_a[1:]] + 1e-3)
-    sb_a, sx_a = sb_a[new], sx_a[new]
-    nsup = np.bincount(sb_a, minlength=nb)
-    _fail_once(
-        errors,
-        np.flatnonzero(nsup < 2),
-        lambda b: UnstableBeamError(
-            f"{nsup[b]} support{'s' if nsup[b] != 1 else ''}: a beam on pins needs two or more"
-        ),
-    )
+    g = _gather(problems)
+    sb, sx, nsup = _merged_supports(g, nb)
     ok = np.ones(nb, dtype=bool)
-    ok[list(errors)] = False
+    ok[list(g.errors)] = False
+    nodes = _node_table(g, ok, sb, sx)
+    ls, C = g.length, len(g.cases)
 
-    # nodes: ends, supports, point loads and load boundaries, per beam, as keys
-    # 2·beam + x/L so that one sorted array holds every beam's nodes in order
-    def key(b: np.ndarray, x: np.ndarray) -> np.ndarray:
-        return 2.0 * b + x / Ls[b]
-
-    good = np.flatnonzero(ok)
-    cand_b = np.concatenate((good, good, sb_a, pb_a, lb_a, lb_a))
-    cand_x = np.concatenate((np.zeros(good.size), Ls[good], sx_a, px_a, la, lz))
-    m = ok[cand_b]
-    nk = np.sort(key(cand_b[m], cand_x[m]))
-    nbeam = np.floor(nk / 2.0).astype(int)
-    new = np.ones(nk.size, dtype=bool)
-    new[1:] = (nbeam[1:] != nbeam[:-1]) | (np.diff(nk) > NODE_MERGE)
-    nk, nbeam = nk[new], nbeam[new]
-    xh = nk - 2.0 * nbeam  # node positions as x / L
-    first = np.ones(nk.size, dtype=bool)
-    first[1:] = nbeam[1:] != nbeam[:-1]
-    last = np.roll(first, -1)
-    xh[first], xh[last] = 0.0, 1.0
-    nk = 2.0 * nbeam + xh
-    node_start = np.full(nb, -1)
-    node_start[nbeam[first]] = np.flatnonzero(first)
-    n_nodes = np.bincount(nbeam, minlength=nb)
-
-    def nearest_key(k_: np.ndarray) -> np.ndarray:
-        i = np.clip(np.searchsorted(nk, k_), 1, nk.size - 1)
-        return np.where(np.abs(nk[i - 1] - k_) <= np.abs(nk[i] - k_), i - 1, i)
-
-    def nearest(b: np.ndarray, x: np.ndarray) -> np.ndarray:
-        return nearest_key(key(b, x))
-
-    NN = nk.size
-    is_sup = np.zeros(NN, dtype=bool)
-    m = ok[sb_a]
-    is_sup[nearest(sb_a[m], sx_a[m])] = True
-    forces = np.zeros((NN, C))
-    m = ok[pb_a]
-    np.add.at(forces, (nearest(pb_a[m], px_a[m]), pc_a[m]), pv_a[m, 0])
-    dq = np.zeros((NN, C))
-    m = ok[lb_a]
-    np.add.at(dq, (nearest(lb_a[m], la[m]), lc_a[m]), lw[m])
-    np.add.at(dq, (nearest(lb_a[m], lz[m]), lc_a[m]), -lw[m])
+    # supports, point forces and load steps onto their nodes
+    is_support = np.zeros(nodes.key.size, dtype=bool)
+    m = ok[sb]
+    is_support[nodes.nearest(sb[m], sx[m], ls)] = True
+    forces = np.zeros((nodes.key.size, C))
+    m = ok[g.point_beam]
+    np.add.at(forces, (nodes.nearest(g.point_beam[m], g.point_x[m], ls), g.point_case[m]),
+              g.point_force[m])  # fmt: skip
+    dq = np.zeros((nodes.key.size, C))
+    m = ok[g.line_beam]
+    lb, lc, lw = g.line_beam[m], g.line_case[m], g.line_w[m]
+    np.add.at(dq, (nodes.nearest(lb, g.line_start[m], ls), lc), lw)
+    np.add.at(dq, (nodes.nearest(lb, g.line_end[m], ls), lc), -lw)
     q = np.cumsum(dq, axis=0)  # a beam's adds and removes cancel before the next beam
-
-    # stations per element: per_span over the span (or overhang) holding it
-    idx = np.arange(NN)
-    bound = is_sup | first | last
-    prev_b = np.maximum.accumulate(np.where(bound, idx, -1))
-    nxt = np.minimum.accumulate(np.where(bound, idx, NN)[::-1])[::-1]
-    nxt_b = nxt[np.minimum(idx + 1, NN - 1)]
-    h = np.diff(xh, append=1.0)
-    span = np.where(last, 1.0, xh[nxt_b] - xh[prev_b])
-    ratio = per_span * h / np.where(span > 0, span, 1.0)
-    counts = np.maximum(2, np.ceil(ratio - 1e-6).astype(int) + 1)  # robust to rounding
+    counts = _stations_per_element(nodes, is_support, per_span)
 
     # extra stations: drop those on a node, find the element of the others
-    m = ok[eb_a]
-    ek, first_of = np.unique(key(eb_a[m], ex_a[m]), return_index=True)
-    ex_exact = ex_a[m][first_of]  # the stations as given, not rebuilt from keys
-    on_node = np.abs(nk[nearest_key(ek)] - ek) <= 1e-9
+    m = ok[g.extra_beam]
+    ek, first_of = np.unique(2.0 * g.extra_beam[m] + g.extra_x[m] / ls[g.extra_beam[m]],
+                             return_index=True)  # fmt: skip
+    ex_exact = g.extra_x[m][first_of]  # the stations as given, not rebuilt from keys
+    on_node = np.abs(nodes.key[nodes.nearest_key(ek)] - ek) <= 1e-9
     ek, ex_exact = ek[~on_node], ex_exact[~on_node]
-    eb_a = np.floor(ek / 2.0).astype(int)
-    e_node = np.searchsorted(nk, ek, side="right") - 1
-    e_node = np.where(last[e_node], e_node - 1, e_node)
+    eb = np.floor(ek / 2.0).astype(int)
+    e_node = np.searchsorted(nodes.key, ek, side="right") - 1
+    e_node = np.where(nodes.last[e_node], e_node - 1, e_node)
 
-    results: list[BeamAnalysis | Exception] = [errors.get(i, ValueError()) for i in range(nb)]
+    # beams with the same node and support counts are solved as one batch
+    results: list[BeamAnalysis | Exception] = [g.errors.get(i, ValueError()) for i in range(nb)]
     groups: dict[tuple[int, int], list[int]] = {}
-    for b in good:
-        groups.setdefault((int(n_nodes[b]), int(nsup[b])), []).append(int(b))
+    for b in np.flatnonzero(ok):
+        groups.setdefault((int(nodes.count[b]), int(nsup[b])), []).append(int(b))
     pos_in_group = np.full(nb, -1)
-    F = _factor_matrix(combinations, cases) if combinations else None
+    F = _factor_matrix(combinations, g.cases) if combinations else None
     for (n, k), members in groups.items():
         G = np.asarray(members)
         pos_in_group[G] = np.arange(G.size)
-        nodes = node_start[G][:, None] + np.arange(n)[None, :]
-        sn = np.nonzero(is_sup[nodes])[1].reshape(G.size, k)
-        sel = pos_in_group[eb_a] >= 0
-        e_b = pos_in_group[eb_a[sel]]
-        e_e = e_node[sel] - node_start[eb_a[sel]]
-        e_x = ek[sel] - 2.0 * eb_a[sel]
-        e_real = ex_exact[sel]
-        for i, res in zip(
-            members,
-            _solve_group(
-                Ls[G],
-                EI[G],
-                xh[nodes],
-                sn,
-                forces[nodes],
-                q[nodes[:, :-1]],
-                counts[nodes[:, :-1]],
-                e_b,
-                e_e,
-                e_x,
-                e_real,
-                cases,
-                F,
-            ),
-            strict=True,
-        ):
+        node_ids = nodes.start[G][:, None] + np.arange(n)[None, :]
+        sn = np.nonzero(is_support[node_ids])[1].reshape(G.size, k)
+        sel = pos_in_group[eb] >= 0
+        solved = _solve_group(
+            ls[G], g.EI[G], nodes.xh[node_ids], sn, forces[node_ids], q[node_ids[:, :-1]],
+            counts[node_ids[:, :-1]], pos_in_group[eb[sel]], e_node[sel] - nodes.start[eb[sel]],
+            ek[sel] - 2.0 * eb[sel], ex_exact[sel], g.cases, F,
+        )  # fmt: skip
+        for i, res in zip(members, solved, strict=True):
             results[i] = res
         pos_in_group[G] = -1
     return results
