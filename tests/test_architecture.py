@@ -18,6 +18,7 @@ LAYERS: list[set[str]] = [
     {"ifc", "framing", "design"},
     {"loads"},
     {"segments"},
+    {"explain"},
     {"check", "diff"},
     {"report", "samples"},
     {"service"},

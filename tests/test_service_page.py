@@ -89,6 +89,10 @@ def test_sign_in_upload_and_open_the_reports(server, browser, tmp_path):
     assert "quillfeather-rev-a.ifc" in report.content()
     report.screenshot(path=str(tmp_path / "report.png"))
     assert not [m for m in console if "Content Security Policy" in m], console
+    # the report's own table script runs under the policy (its hash), nothing else may
+    assert report.locator("#beam-filters").is_visible()
+    report.select_option("#filter-outcome", "fail")
+    assert report.inner_text("#beam-count") == "0 of 64 beams"  # revision A: all pass
     # sandboxed: the report runs in an opaque origin, with no way to the page's storage
     assert (
         report.evaluate(

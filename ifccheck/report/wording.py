@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 from collections.abc import Mapping
 
 from ifccheck.reasons import NotChecked, Reason
@@ -12,8 +13,11 @@ from ifccheck.results import (
     CauseKind,
     ChangeCause,
     DiffResult,
+    ExplainCause,
+    ExplainKind,
     SegmentResult,
 )
+from ifccheck.units import to_si
 
 LIMIT_STATE_WORDS = {
     "yielding": "yielding (full plastic moment)",
@@ -85,14 +89,59 @@ def segment_midpoint(seg: SegmentResult) -> float:
     return 0.5 * (seg.start + seg.end)
 
 
+_GUID = re.compile(r"[0-9A-Za-z_$]{22}")
+
+
+def member_ref(guid: str, names: Mapping[str, str]) -> str:
+    """'L2-S1 (2Xq…22 characters)': a member by name and GUID; the GUID alone when unnamed."""
+    name = names.get(guid, "")
+    return f"{name} ({guid})" if name and name != guid else guid
+
+
+def name_guids(text: str, names: Mapping[str, str], with_guid: bool = True) -> str:
+    """The text with every known GUID in it given as its member's name (and GUID)."""
+
+    def swap(m: re.Match[str]) -> str:
+        guid = m.group(0)
+        if guid not in names or not names[guid]:
+            return guid
+        return member_ref(guid, names) if with_guid else names[guid]
+
+    return _GUID.sub(swap, text)
+
+
+def end_words(b: BeamResult, end: str) -> str:
+    """'the end at L2-G30-0' or 'the free end'."""
+    member = b.end_members[0 if end == "start" else 1]
+    return f"the end at {member}" if member else f"the free {end}"
+
+
+def station_text(b: BeamResult, station: float, du: DisplayUnits) -> str:
+    """'4.50 ft from the end at L2-G30-0': a station from the beam's nearer end."""
+    at_start = station <= b.length / 2
+    distance = station if at_start else b.length - station
+    return f"{du.text(distance, 'length')} from {end_words(b, 'start' if at_start else 'end')}"
+
+
+def span_text(b: BeamResult, a: float, e: float, du: DisplayUnits) -> str:
+    """'from 6.00 ft to 21.00 ft from the end at L2-G30-0': both from the same named end."""
+    if (a + e) / 2 <= b.length / 2:
+        lo, hi, end = a, e, "start"
+    else:
+        lo, hi, end = b.length - e, b.length - a, "end"
+    return f"from {du.text(lo, 'length')} to {du.text(hi, 'length')} from {end_words(b, end)}"
+
+
+def lb_text(seg: SegmentResult, du: DisplayUnits) -> str:
+    """'continuous (slab)' for a slab-braced length, else the unbraced length."""
+    return "continuous (slab)" if seg.continuous else du.text(seg.lb, "length")
+
+
 def segment_words(b: BeamResult, seg: SegmentResult, du: DisplayUnits) -> str:
     """Where the governing segment is and what governs it, in a sentence."""
     index = b.segments.index(seg) + 1 if seg in b.segments else 0
-    where = (
-        f"segment {index} of {len(b.segments)}, from {du.text(seg.start, 'length')} "
-        f"to {du.text(seg.end, 'length')} along the beam"
-    )
-    if seg.continuous or seg.lb == 0.0:
+    where = f"segment {index} of {len(b.segments)}, {span_text(b, seg.start, seg.end, du)}"
+    if seg.continuous:
         bracing = f"its {seg.flange} flange is braced continuously by the slab"
     else:
         bracing = (
@@ -109,20 +158,125 @@ def segment_words(b: BeamResult, seg: SegmentResult, du: DisplayUnits) -> str:
     )
 
 
+def _mass_text(kg_per_m: float, du: DisplayUnits) -> str:
+    if du.system == "imperial":
+        return f"{kg_per_m / to_si(1.0, 'lb/ft'):.0f} lb/ft"
+    return f"{kg_per_m:.1f} kg/m"
+
+
+def _family_and_depth(profile: str) -> str:
+    m = re.match(r"^([A-Z]+\d+(?:\.\d+)?)X", profile)
+    return m.group(1) if m else "shape of this family and depth"
+
+
+def cause_sentence(
+    b: BeamResult, cause: ExplainCause, du: DisplayUnits, names: Mapping[str, str]
+) -> str:
+    """One cause of a failure (or of a beam not being checked) in words."""
+    k = cause.kind
+    who = ", ".join(member_ref(g, names) for g in cause.members)
+    if k is ExplainKind.NOT_CHECKED:
+        reason = b.reason.text if b.reason else "no reason was recorded"
+        return sentence(f"not checked: {name_guids(reason, names)}")
+    if k is ExplainKind.OPENING:
+        a, e = cause.stations
+        return (
+            f"An opening in slab {who} runs over the beam {span_text(b, a, e, du)}: the slab "
+            "does not brace the top flange there, so it is free to buckle sideways."
+        )
+    if k is ExplainKind.SLAB_GAP:
+        a, e = cause.stations
+        return (
+            f"The slab does not bear on the top flange {span_text(b, a, e, du)}, so nothing "
+            "braces it there."
+        )
+    if k is ExplainKind.BRACE_NOT_COUNTING:
+        at = station_text(b, cause.stations[0], du) if cause.stations else "mid-length"
+        why = next(
+            (p.reason.text for p in b.brace_points
+             if p.by in cause.members and p.reason is not None), ""
+        )  # fmt: skip
+        why = f": {name_guids(why, names, with_guid=False)}" if why else ""
+        return f"The brace point at {at} ({who}) does not count{why}."
+    if k is ExplainKind.ASSUMED_GRADE:
+        return (
+            f"The steel grade is assumed ({cause.value}, the settings' default): the model "
+            "names none. Confirm the grade."
+        )
+    if k is ExplainKind.SHEAR_CONTROLS:
+        return (
+            f"Shear fails (utilisation {utilisation_text(b.shear_utilisation)}): bracing "
+            "does not help; a section with more web area does."
+        )
+    if k is ExplainKind.DEFLECTION_CONTROLS:
+        return (
+            f"Deflection fails (utilisation {utilisation_text(b.deflection_utilisation)}): "
+            "bracing does not help; a stiffer section or a shorter span does."
+        )
+    if k is ExplainKind.BEYOND_PLASTIC:
+        return (
+            "Even braced throughout, the moment exceeds the section's strength: no "
+            "bracing alone makes it pass."
+        )
+    raise ValueError(f"no words for cause {k!r}")
+
+
+def fix_sentences(b: BeamResult, du: DisplayUnits) -> list[str]:
+    """What would make a failing beam pass: largest Lb, new brace points, a heavier shape."""
+    e = b.explanation
+    if e is None or b.outcome != "fail":
+        return []
+    out: list[str] = []
+    seg = b.segments[e.segment] if e.segment is not None else None
+    if seg is not None and e.largest_passing_lb is not None and not seg.continuous:
+        out.append(
+            f"It would pass with an unbraced length of up to "
+            f"{du.text(e.largest_passing_lb, 'length')} there (today {lb_text(seg, du)}, "
+            f"at the same Cb = {seg.cb:.2f} and moment)."
+        )
+    if e.braces:
+        at = ", ".join(station_text(b, x.station, du) for x in e.braces)
+        n = len(e.braces)
+        flange = e.brace_flange or "compression"
+        out.append(
+            f"{'A brace' if n == 1 else f'{n} braces'} to the {flange} flange at {at} "
+            f"would make it pass in bending (each new length checked at its own Cb)."
+        )
+    elif seg is not None and not e.bracing_helps:
+        out.append("No bracing alone makes it pass.")
+    if e.lighter_shape is not None:
+        x = e.lighter_shape
+        out.append(
+            f"The lightest {_family_and_depth(b.profile)} that passes as braced today is "
+            f"{x.profile} ({_mass_text(x.mass_per_length, du)}, utilisation "
+            f"{utilisation_text(x.utilisation)})."
+        )
+    elif e.shape_checked:
+        out.append(f"No {_family_and_depth(b.profile)} in the shape table passes as braced today.")
+    return out
+
+
+def explanation_sentences(b: BeamResult, du: DisplayUnits, names: Mapping[str, str]) -> list[str]:
+    """Why the beam fails or was not checked, and what would fix it, sentence by sentence."""
+    e = b.explanation
+    if e is None:
+        return []
+    out = [cause_sentence(b, c, du, names) for c in e.causes]
+    if b.outcome == "not_checked" and b.reason is not None:
+        out.append(advice(b.reason))
+    return out + fix_sentences(b, du)
+
+
 def fix_words(b: BeamResult, du: DisplayUnits) -> str:
-    """What would make a failing beam pass."""
-    seg = b.governing
+    """What would make a failing beam pass, in one paragraph."""
+    fixes = fix_sentences(b, du)
+    if fixes:
+        return " ".join(fixes)
     if b.controlling_limit == "shear":
         return "Shear governs: use a section with a deeper or thicker web."
     if b.controlling_limit == "deflection":
         return "Deflection governs: use a stiffer (deeper) section or shorten the span."
-    if seg is not None and seg.limit_state in LTB_STATES and seg.lb > 0.0:
-        x = segment_midpoint(seg)
-        return (
-            f"Add a brace to the {seg.flange} flange near station {du.text(x, 'length')} "
-            f"(the middle of the governing unbraced length), or use a heavier section."
-        )
-    return "Bracing does not control here: use a heavier section or reduce the load."
+    return "Use a heavier section or reduce the load."
 
 
 def advice(reason: Reason | None) -> str:
@@ -144,10 +298,13 @@ def beam_issue_title(b: BeamResult) -> str:
     return f"{beam_label(b)} fails in {what},{u}"
 
 
-def beam_issue_description(b: BeamResult, du: DisplayUnits) -> str:
+def beam_issue_description(
+    b: BeamResult, du: DisplayUnits, names: Mapping[str, str] | None = None
+) -> str:
     """Why the beam is an issue and what would fix it, in plain sentences."""
+    names = names or {}
     if b.outcome == "not_checked":
-        reason = b.reason.text if b.reason else "no reason was recorded"
+        reason = name_guids(b.reason.text, names) if b.reason else "no reason was recorded"
         return f"This beam was not checked: {reason}. {advice(b.reason)}".rstrip()
     lines: list[str] = []
     u = f" (utilisation {utilisation_text(b.utilisation)})" if b.utilisation is not None else ""
@@ -168,6 +325,9 @@ def beam_issue_description(b: BeamResult, du: DisplayUnits) -> str:
             f"{du.text(b.deflection_total, 'deflection', 1)} "
             f"(limit {du.text(b.deflection_total_limit, 'deflection', 1)})."
         )
+    e = b.explanation
+    if e is not None:
+        lines += [cause_sentence(b, c, du, names) for c in e.causes]
     lines.append(fix_words(b, du))
     return " ".join(lines)
 

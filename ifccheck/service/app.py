@@ -20,6 +20,7 @@ from pydantic import BaseModel, Field
 from starlette.requests import ClientDisconnect
 
 from ifccheck import CAUTION, __version__
+from ifccheck.report.html_out import TABLE_SCRIPT_HASH
 from ifccheck.service.core import API, Service
 from ifccheck.service.jobs import FILE_NAMES, one_line
 from ifccheck.service.runners import Runner
@@ -36,8 +37,12 @@ MEDIA_TYPES = {
     ".html": "text/html; charset=utf-8",
 }
 # Served reports are our own HTML but carry names from uploaded models: shown
-# sandboxed (an opaque origin, no scripts) so nothing in them can reach the page's token.
-REPORT_CSP = "sandbox; default-src 'none'; style-src 'unsafe-inline'; img-src data:"
+# sandboxed (an opaque origin) so nothing in them can reach the page's token; the
+# only script allowed to run is the report's own beam-table script, by its hash.
+REPORT_CSP = (
+    "sandbox allow-scripts; default-src 'none'; style-src 'unsafe-inline'; img-src data:; "
+    f"script-src '{TABLE_SCRIPT_HASH}'"
+)
 PAGE_CSP = (
     "default-src 'none'; script-src 'self'; style-src 'self'; connect-src 'self'; "
     "img-src 'self' data:; form-action 'self'; frame-ancestors 'none'; base-uri 'none'"
