@@ -13,6 +13,7 @@ import pytest
 from ifccheck.check import run_check
 from ifccheck.config import load_settings
 from ifccheck.diff import diff_results
+from ifccheck.results import CauseKind
 
 FT = 0.3048
 SAMPLES = Path(__file__).parents[1] / "sample_models"
@@ -63,11 +64,27 @@ def test_diff_names_the_weakened_beams(revisions):
     # the girder the pulled-short infill left is still braced at 20 ft from the
     # other side (L2-B2-50), so it keeps every brace station
     girder = next(c for c in d.changes if c.name == "L2-G30-30")
-    assert girder.change == "strengthened" and not girder.lost_brace_points
-    assert weakened["R-B3-7.5"].utilisation_after > weakened["R-B3-7.5"].utilisation_before
+    assert not girder.lost_brace_points
+    # its demand fell only because L2-B1-50, pulled short, no longer reaches it: that load
+    # went nowhere, so the change is not an improvement (issue 10, item 7)
+    names = {x.guid: x.name for x in b.beams}
+    for name in ("L2-G30-30", "L2-G0-30"):  # the two girders the pulled beam loaded
+        c = next(c for c in d.changes if c.name == name)
+        assert c.change == "changed", (name, c.causes)
+        lost = next(x for x in c.causes if x.kind is CauseKind.DEMAND_FELL_LOST_LOAD)
+        assert [names[g] for g in lost.members] == ["L2-B1-50"]
+    roof = weakened["R-B3-7.5"]
+    assert roof.utilisation_after > roof.utilisation_before
+    # R-B3-15 deleted: infill at 7.5 ft spacing carries 7.5 ft, then 3.75 + 7.5 = 11.25 ft
+    grew = next(x for x in roof.causes if x.kind is CauseKind.TRIBUTARY_GREW)
+    assert (grew.before / FT, grew.after / FT) == pytest.approx((7.5, 11.25), abs=0.01)
+    old_names = {x.guid: x.name for x in a.beams}
+    assert [old_names[g] for g in grew.members] == ["R-B3-15"]
 
     pulled = weakened["L2-B1-50"]
     assert pulled.lost_supports and pulled.outcome_after == "not_checked"
+    # the support it lost is said once: not again as a lost brace or slab bracing beyond it
+    assert not pulled.lost_brace_points and pulled.lost_continuous_bracing == 0.0
 
 
 def test_geometry_matching_when_guids_are_regenerated(revisions):

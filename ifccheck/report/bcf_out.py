@@ -229,7 +229,8 @@ def write_diff_bcf(diff: DiffResult, path: Path, units: str | None = None) -> Pa
         if c.lost_supports:
             labels.append("lost support")
         handler = _topic(
-            bcf_file, key, change_title(c), change_description(c, du, names), diff.new.checked_at,
+            bcf_file, key, change_title(c),
+            change_description(c, du, names, new_beams.get(c.guid)), diff.new.checked_at,
             "Error", labels, "High", diff.new.model.file,
         )  # fmt: skip
         b = new_beams.get(c.guid)

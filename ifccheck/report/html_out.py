@@ -576,6 +576,13 @@ def _lb_cell(seg: SegmentResult | None, du: DisplayUnits) -> str:
     return _qty(du, seg.lb, "length")
 
 
+def _lb_value(du: DisplayUnits, lb: float | None) -> str:
+    """A governing Lb; 0 is a length braced throughout by the slab."""
+    if lb == 0.0:
+        return '<td class="num">continuous (slab)</td>'
+    return _qty(du, lb, "length")
+
+
 def _not_checked_section(result: CheckResult) -> str:
     beams = [b for b in result.beams if b.outcome == "not_checked"]
     if not beams:
@@ -853,14 +860,15 @@ def _changes_section(diff: DiffResult, du: DisplayUnits) -> str:
     order = {"weakened": 0, "changed": 1, "strengthened": 2}
     changes = sorted(diff.changes, key=lambda c: (order.get(c.change, 3), c.storey, c.name))
     names = diff_names(diff)
+    beams = {b.guid: b for b in diff.new.beams}
     stations = lambda xs: escape(", ".join(du.number(s, "length") for s in xs))  # noqa: E731
     rows = [
         [escape(c.name or c.guid), escape(c.storey), _change(c.change),
          escape(f"{c.outcome_before or '–'} → {c.outcome_after or '–'}"),
          _utilisation_cell(c.utilisation_before), _utilisation_cell(c.utilisation_after),
-         _qty(du, c.lb_before, "length"), _qty(du, c.lb_after, "length"),
+         _lb_value(du, c.lb_before), _lb_value(du, c.lb_after),
          stations(c.lost_brace_points), stations(c.added_brace_points),
-         escape("; ".join(change_reasons(c, du, names)))]
+         escape("; ".join(change_reasons(c, du, names, beams.get(c.guid))))]
         for c in changes
     ]  # fmt: skip
     lu = du.label("length")

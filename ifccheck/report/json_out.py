@@ -345,7 +345,10 @@ def results_summary(result: CheckResult) -> dict[str, Any]:
 
 
 def change_dict(
-    c: BeamChange, du: DisplayUnits | None = None, names: Mapping[str, str] | None = None
+    c: BeamChange,
+    du: DisplayUnits | None = None,
+    names: Mapping[str, str] | None = None,
+    beam: BeamResult | None = None,
 ) -> dict[str, Any]:
     """One changed beam; ``reasons`` are in words in ``du``'s units, ``causes`` in SI."""
     names = names or {}
@@ -367,7 +370,7 @@ def change_dict(
         "lost_supports": list(c.lost_supports),
         "gained_supports": list(c.gained_supports),
         "lost_continuous_bracing": num(c.lost_continuous_bracing),
-        "reasons": change_reasons(c, du, names) if du is not None else [],
+        "reasons": change_reasons(c, du, names, beam) if du is not None else [],
         "causes": [cause_dict(x) for x in c.causes],
     }
 
@@ -426,6 +429,7 @@ def diff_document(diff: DiffResult, units: str | None = None) -> dict[str, Any]:
     """
     du = DisplayUnits.for_model(diff.new.model.length_unit, units)
     names = diff_names(diff)
+    beams = {b.guid: b for b in diff.new.beams}
     changes = sorted(diff.changes, key=lambda c: (_CHANGE_ORDER.get(c.change, 3), c.guid))
     return {
         "format": DIFF_FORMAT,
@@ -443,7 +447,7 @@ def diff_document(diff: DiffResult, units: str | None = None) -> dict[str, Any]:
         "removed": list(diff.removed),
         "summary": diff_summary(diff),
         "display_units": du.system,
-        "beams": {c.guid: change_dict(c, du, names) for c in changes},
+        "beams": {c.guid: change_dict(c, du, names, beams.get(c.guid)) for c in changes},
     }
 
 

@@ -118,6 +118,10 @@ def end_words(b: BeamResult, end: str) -> str:
 
 def station_text(b: BeamResult, station: float, du: DisplayUnits) -> str:
     """'4.50 ft from the end at L2-G30-0': a station from the beam's nearer end."""
+    if station < 0.0:  # a point of the old revision, beyond this revision's beam
+        return f"{du.text(-station, 'length')} beyond {end_words(b, 'start')}"
+    if station > b.length:
+        return f"{du.text(station - b.length, 'length')} beyond {end_words(b, 'end')}"
     at_start = station <= b.length / 2
     distance = station if at_start else b.length - station
     return f"{du.text(distance, 'length')} from {end_words(b, 'start' if at_start else 'end')}"
@@ -351,8 +355,16 @@ def change_title(c: BeamChange) -> str:
     return f"{name}{where}: " + (", ".join(parts) if parts else c.change)
 
 
-def cause_words(cause: ChangeCause, du: DisplayUnits, names: Mapping[str, str]) -> str:
-    """One cause of a change in words, quantities in the display units."""
+def cause_words(
+    cause: ChangeCause,
+    du: DisplayUnits,
+    names: Mapping[str, str],
+    beam: BeamResult | None = None,
+) -> str:
+    """One cause of a change in words, quantities in the display units.
+
+    With the new revision's ``beam``, stations are given from its named ends.
+    """
 
     def length(v: float | str | None) -> str:
         return du.text(float(v), "length") if isinstance(v, int | float) else "–"
@@ -363,41 +375,91 @@ def cause_words(cause: ChangeCause, du: DisplayUnits, names: Mapping[str, str]) 
     def status(v: float | str | None) -> str:
         return OUTCOME_STATE_WORDS.get(str(v), str(v))
 
+    def where(s: float) -> str:
+        return station_text(beam, s, du) if beam is not None else du.text(s, "length")
+
     who = ", ".join(names.get(g, g) for g in cause.members)
-    at = ", ".join(du.text(s, "length") for s in cause.stations)
+    at = " and ".join(where(s) for s in cause.stations)
     n = len(cause.stations)
     k = cause.kind
     if k is CauseKind.LOST_BRACES:
-        return f"lost brace point{'s' if n != 1 else ''} at {at}"
+        return f"lost the brace point{'s' if n != 1 else ''} at {at}"
     if k is CauseKind.ADDED_BRACES:
-        return f"brace point{'s' if n != 1 else ''} added at {at}"
+        return f"gained brace point{'s' if n != 1 else ''} at {at}"
     if k is CauseKind.LOST_SUPPORTS:
-        return f"lost support on {who}"
+        return f"no longer bears on {who}"
     if k is CauseKind.GAINED_SUPPORTS:
-        return f"gained support on {who}"
+        return f"now also bears on {who}"
     if k is CauseKind.LOST_SLAB_BRACING:
-        return f"slab-braced length fell by {length(cause.after)}"
+        return f"lost {length(cause.after)} of slab bracing"
     if k is CauseKind.LB_GREW:
-        return f"governing Lb grew from {length(cause.before)} to {length(cause.after)}"
+        if cause.before == 0.0:  # the governing length was braced throughout by the slab
+            return (
+                "its governing length, braced continuously by the slab before, now has "
+                f"Lb = {length(cause.after)}"
+            )
+        return f"its governing Lb grew from {length(cause.before)} to {length(cause.after)}"
     if k in (CauseKind.OUTCOME_WORSE, CauseKind.OUTCOME_BETTER):
         return f"went from {status(cause.before)} to {status(cause.after)}"
     if k is CauseKind.UTILISATION_ROSE:
-        return f"utilisation rose from {ratio(cause.before)} to {ratio(cause.after)}"
+        return f"its utilisation rose from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.UTILISATION_FELL:
-        return f"utilisation fell from {ratio(cause.before)} to {ratio(cause.after)}"
+        return f"its utilisation fell from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.DEMAND_FELL_LOST_LOAD:
-        return f"demand fell because {who} no longer delivers its load here"
+        return (
+            f"its demand fell because {who} no longer reaches it: the load it carried has "
+            "gone nowhere, so this is not an improvement"
+        )
+    if k is CauseKind.TRIBUTARY_GREW:
+        because = f" because {who} was removed" if who else ""
+        return (
+            f"its tributary width grew from {length(cause.before)} to {length(cause.after)}"
+            f"{because}"
+        )
     raise ValueError(f"no words for change cause {k!r}")
 
 
-def change_reasons(c: BeamChange, du: DisplayUnits, names: Mapping[str, str]) -> list[str]:
-    """Every cause of a change in words."""
-    return [cause_words(x, du, names) for x in c.causes]
+# causes said together with another (so that each thing is said once)
+_FOLDED = {
+    CauseKind.LB_GREW: (CauseKind.LOST_BRACES, CauseKind.LOST_SLAB_BRACING),
+    CauseKind.OUTCOME_WORSE: (CauseKind.UTILISATION_ROSE,),
+    CauseKind.OUTCOME_BETTER: (CauseKind.UTILISATION_FELL,),
+}
+
+
+def change_reasons(
+    c: BeamChange,
+    du: DisplayUnits,
+    names: Mapping[str, str],
+    beam: BeamResult | None = None,
+) -> list[str]:
+    """Every cause of a change in words, each said once.
+
+    A longer Lb is said with the lost brace or slab bracing that made it, and
+    an outcome change with the utilisation change behind it.
+    """
+    kinds = {x.kind for x in c.causes}
+    by_kind = {x.kind: x for x in c.causes}
+    out = []
+    for x in c.causes:
+        if any(k in kinds for k in _FOLDED.get(x.kind, ())):
+            continue
+        text = cause_words(x, du, names, beam)
+        for folded, into in _FOLDED.items():
+            if x.kind in into and folded in by_kind:
+                extra = cause_words(by_kind[folded], du, names, beam)
+                joint = ", so " if folded is CauseKind.LB_GREW else " and it "
+                text += joint + extra
+                break
+        out.append(text)
+    return out
 
 
 def diff_names(diff: DiffResult) -> dict[str, str]:
-    """GUID → name of every beam in either revision (for words about changes)."""
-    return {b.guid: b.name or b.guid for b in [*diff.old.beams, *diff.new.beams]}
+    """GUID → name of every named element and beam in either revision."""
+    out = {**diff.old.names, **diff.new.names}
+    out.update({b.guid: b.name or b.guid for b in [*diff.old.beams, *diff.new.beams]})
+    return out
 
 
 def sentence(text: str) -> str:
@@ -406,32 +468,22 @@ def sentence(text: str) -> str:
 
 
 def change_description(
-    c: BeamChange, du: DisplayUnits, names: Mapping[str, str] | None = None
+    c: BeamChange,
+    du: DisplayUnits,
+    names: Mapping[str, str] | None = None,
+    beam: BeamResult | None = None,
 ) -> str:
+    """What changed about a beam between two revisions, each thing said once."""
     names = names or {}
     lines = [f"Between the two revisions this beam {_change_words(c.change)}."]
-    if c.lost_brace_points:
-        at = ", ".join(du.text(s, "length") for s in c.lost_brace_points)
-        lines.append(f"Brace points lost at station {at}.")
-    if c.added_brace_points:
-        at = ", ".join(du.text(s, "length") for s in c.added_brace_points)
-        lines.append(f"Brace points added at station {at}.")
-    if c.lost_supports:
-        lines.append(f"Supports lost: {', '.join(c.lost_supports)}.")
-    if c.gained_supports:
-        lines.append(f"Supports gained: {', '.join(c.gained_supports)}.")
-    if c.lost_continuous_bracing > 0:
-        lines.append(f"Slab-braced length lost: {du.text(c.lost_continuous_bracing, 'length')}.")
-    if c.lb_before is not None or c.lb_after is not None:
-        lines.append(
-            f"Governing Lb {du.text(c.lb_before, 'length')} → {du.text(c.lb_after, 'length')}."
-        )
-    if c.utilisation_before is not None or c.utilisation_after is not None:
-        rb, ra = utilisation_text(c.utilisation_before), utilisation_text(c.utilisation_after)
-        lines.append(f"Utilisation {rb} → {ra}.")
+    lines += [sentence(x) for x in change_reasons(c, du, names, beam)]
     if c.outcome_before or c.outcome_after:
-        lines.append(f"Outcome {c.outcome_before or '–'} → {c.outcome_after or '–'}.")
-    lines.extend(sentence(cause_words(x, du, names)) for x in c.causes)
+        lines.append(
+            f"Before: {OUTCOME_STATE_WORDS.get(c.outcome_before, c.outcome_before or '–')}"
+            f" at utilisation {utilisation_text(c.utilisation_before)}; now: "
+            f"{OUTCOME_STATE_WORDS.get(c.outcome_after, c.outcome_after or '–')} at "
+            f"utilisation {utilisation_text(c.utilisation_after)}."
+        )
     if c.lost_brace_points and c.change == "weakened":
         lines.append(
             "Restore the lost brace, or check that the longer unbraced length is intended."
