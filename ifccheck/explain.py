@@ -14,6 +14,7 @@ stays in SI; the writers put it into words.
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 from collections.abc import Mapping, Sequence
@@ -22,7 +23,7 @@ from typing import Any
 import numpy as np
 
 from ifccheck.config import Settings
-from ifccheck.design.base import DesignStandard, segment_moments
+from ifccheck.design.base import DesignStandard, FlexureResult, segment_moments
 from ifccheck.errors import OutOfScope
 from ifccheck.loads.combinations import strength_combinations
 from ifccheck.model import Member, Model, Section, ShapeFamily, Slab, Steel
@@ -49,6 +50,7 @@ MAX_NEW_BRACES = 9
 END_TOLERANCE = 0.3  # m
 # Lb found by bisection to within this.
 LB_TOLERANCE = 0.001  # m
+LB_GRID = 64  # points per refinement of the largest passing Lb
 # Shape families whose flexure the hand-check trail describes (AISC 360-16 F2/F3).
 TRAIL_FAMILIES = (ShapeFamily.I_SHAPE, ShapeFamily.CHANNEL)
 _TABLE_NAME = re.compile(r"^(W|M|S|HP)(\d+(?:\.\d+)?)X[\d.]+$")
@@ -67,6 +69,7 @@ def explain_beams(
     for s in model.slabs:
         slabs.setdefault(s.storey, []).append(s)
     method = settings.design.method
+    checked: list[tuple[BeamResult, Member]] = []
     for b in beams:
         b.end_members = (_end_member(b, 0.0, names), _end_member(b, b.length, names))
         m = members.get(b.guid)
@@ -78,12 +81,50 @@ def explain_beams(
             continue
         if m is None or m.section is None or m.steel is None:
             continue
-        b.trail = hand_check(b, m.section, m.steel, standard, method)
+        checked.append((b, m))
+    hand_checks(checked, standard, method)
+    for b, m in checked:
         if b.outcome == "fail":
             b.explanation = explain_failure(b, m, standard, method, names, slabs.get(b.storey, []))
 
 
 # --- the hand-check trail -----------------------------------------------------------
+def hand_checks(
+    checked: Sequence[tuple[BeamResult, Member]], standard: DesignStandard, method: str
+) -> None:
+    """Each beam's trail, the strengths of all governing segments in one call of the standard."""
+    todo = [
+        (b, m) for b, m in checked
+        if b.governing is not None and m.section is not None
+        and m.section.family in TRAIL_FAMILIES
+    ]  # fmt: skip
+    if not todo:
+        return
+    pairs: dict[tuple[int, int], int] = {}
+    pair_list: list[tuple[Section, Steel]] = []
+    index = []
+    for _b, m in todo:
+        assert m.section is not None and m.steel is not None
+        key = (id(m.section), id(m.steel))
+        if key not in pairs:
+            pairs[key] = len(pair_list)
+            pair_list.append((m.section, m.steel))
+        index.append(pairs[key])
+    segs = [b.governing for b, _m in todo]
+    try:
+        flex = standard.flexure_many(
+            pair_list, index, [s.lb for s in segs if s], [s.cb for s in segs if s], method
+        )
+    except OutOfScope:  # one section outside the standard: each on its own
+        for b, m in todo:
+            assert m.section is not None and m.steel is not None
+            b.trail = hand_check(b, m.section, m.steel, standard, method)
+        return
+    for i, (b, m) in enumerate(todo):
+        assert m.section is not None and m.steel is not None
+        b.trail = _trail(b, m.section, m.steel, standard, method, flex, i)
+
+
 def hand_check(
     b: BeamResult, section: Section, steel: Steel, standard: DesignStandard, method: str
 ) -> HandCheck | None:
@@ -95,6 +136,20 @@ def hand_check(
         flex = standard.flexure(section, steel, [seg.lb], [seg.cb], method)
     except OutOfScope:
         return None
+    return _trail(b, section, steel, standard, method, flex, 0)
+
+
+def _trail(
+    b: BeamResult,
+    section: Section,
+    steel: Steel,
+    standard: DesignStandard,
+    method: str,
+    flex: FlexureResult,
+    i: int,
+) -> HandCheck:
+    seg = b.governing
+    assert seg is not None
     c = torsion_constant_c(section)
     values = {
         "fy": steel.fy,
@@ -106,19 +161,19 @@ def hand_check(
         "j": section.J,
         "ho": section.ho,
         "c": c,
-        "lp": float(flex.lp[0]),
-        "lr": float(flex.lr[0]),
-        "mp": float(flex.mp[0]),
-        "mr": float(flex.mr[0]),
+        "lp": float(flex.lp[i]),
+        "lr": float(flex.lr[i]),
+        "mp": float(flex.mp[i]),
+        "mr": float(flex.mr[i]),
         "lb": seg.lb,
         "cb": seg.cb,
-        "mn": float(flex.mn[0]),
-        "design_strength": float(flex.design_strength[0]),
+        "mn": float(flex.mn[i]),
+        "design_strength": float(flex.design_strength[i]),
         "moment_demand": seg.moment_demand,
     }
     if seg.lb > 0.0:
         values["fcr"] = elastic_ltb_stress(section, steel, seg.lb, seg.cb, c)
-    state = str(flex.limit_state[0])
+    state = str(flex.limit_state[i])
     aisc = standard.name.upper().startswith("AISC 360")
     equations = _equations(state, seg, c != 1.0) if aisc else []
     symbol = "φb" if method.upper() == "LRFD" else "Ωb"
@@ -277,25 +332,24 @@ def largest_passing_lb(
 ) -> float | None:
     """The largest Lb at which the segment's strength (at its Cb) reaches its demand.
 
-    The strength never rises with Lb, so bisection finds it; None when even a
-    fully braced length (Lb = 0) falls short.
+    The strength never rises with Lb, so the last passing point of a grid
+    brackets it; a second, finer grid inside that bracket gives it to within
+    LB_TOLERANCE (two calls of the standard). None when even a fully braced
+    length (Lb = 0) falls short.
     """
-
-    def strength(lb: float) -> float:
-        return float(standard.flexure(section, steel, [lb], [seg.cb], method).design_strength[0])
-
-    if strength(0.0) < seg.moment_demand:
-        return None
     lo, hi = 0.0, max(seg.lb, seg.end - seg.start)
-    if strength(hi) >= seg.moment_demand:
-        return hi
-    while hi - lo > LB_TOLERANCE:
-        mid = 0.5 * (lo + hi)
-        if strength(mid) >= seg.moment_demand:
-            lo = mid
-        else:
-            hi = mid
-    return lo
+    while True:
+        grid = np.linspace(lo, hi, LB_GRID)
+        strength = standard.flexure(section, steel, grid, np.full(LB_GRID, seg.cb), method)
+        ok = np.asarray(strength.design_strength) >= seg.moment_demand
+        if not ok[0]:
+            return None if lo == 0.0 else lo
+        if ok[-1]:
+            return float(hi)
+        last = int(np.flatnonzero(ok)[-1])
+        lo, hi = float(grid[last]), float(grid[last + 1])
+        if hi - lo <= LB_TOLERANCE:
+            return lo
 
 
 def new_brace_stations(
@@ -310,8 +364,9 @@ def new_brace_stations(
 
     Each new length is checked at its own Cb (the standard's moment-gradient
     factor) and its own largest moment, from the governing diagram scaled up
-    where the segment's demand came from another combination. None when no
-    number of braces (at least MIN_BRACE_SPACING apart) is enough.
+    where the segment's demand came from another combination. Every count of
+    braces is tried in one call of the standard. None when no number of braces
+    (at least MIN_BRACE_SPACING apart) is enough.
     """
     d = b.diagram
     if d is None or seg.continuous or len(d.stations) < 2:
@@ -324,18 +379,23 @@ def new_brace_stations(
     scale = max(1.0, seg.moment_demand / whole) if whole > 0 else 1.0
     free_start = "start" in b.free_ends and seg.start <= END_TOLERANCE
     free_end = "end" in b.free_ends and seg.end >= b.length - END_TOLERANCE
-    span = seg.end - seg.start
-    most = min(MAX_NEW_BRACES, int(span / MIN_BRACE_SPACING) - 1)
-    for n in range(1, most + 1):
-        cuts = np.linspace(seg.start, seg.end, n + 2)
-        starts, ends = cuts[:-1], cuts[1:]
-        tips = np.zeros(starts.size, dtype=bool)
-        tips[0], tips[-1] = free_start, free_end
-        demand = segment_moments(x, compressing, starts, ends)[0] * scale
-        cb = np.asarray(standard.moment_gradient(x, moment, starts, ends, tips), dtype=float)
-        cap = standard.flexure(section, steel, ends - starts, cb, method).design_strength
-        if np.all(demand <= cap):
-            return [float(v) for v in cuts[1:-1]]
+    most = min(MAX_NEW_BRACES, int((seg.end - seg.start) / MIN_BRACE_SPACING) - 1)
+    if most < 1:
+        return None
+    cuts = [np.linspace(seg.start, seg.end, n + 2) for n in range(1, most + 1)]
+    starts = np.concatenate([c[:-1] for c in cuts])
+    ends = np.concatenate([c[1:] for c in cuts])
+    tips = np.zeros(starts.size, dtype=bool)
+    first = np.cumsum([0] + [len(c) - 1 for c in cuts])
+    tips[first[:-1]] = free_start
+    tips[first[1:] - 1] = free_end
+    demand = segment_moments(x, compressing, starts, ends)[0] * scale
+    cb = np.asarray(standard.moment_gradient(x, moment, starts, ends, tips), dtype=float)
+    cap = np.asarray(standard.flexure(section, steel, ends - starts, cb, method).design_strength)
+    for n, c in enumerate(cuts):
+        part = slice(first[n], first[n + 1])
+        if np.all(demand[part] <= cap[part]):
+            return [float(v) for v in c[1:-1]]
     return None
 
 
@@ -372,43 +432,58 @@ def lightest_passing_shape(
 ) -> tuple[ShapeOption | None, bool]:
     """The lightest table shape of the same family and nominal depth that passes as braced.
 
-    Each candidate is checked for every segment at today's Lb and Cb, for shear,
-    and for deflection (scaled by the ratio of Ix). Today's demand is kept;
-    where the candidate is heavier, its extra self-weight is added on a simple
-    span with the largest dead-load factor of the method's combinations
-    (conservative). Returns (the shape or None, whether the table was searched).
+    Each candidate is checked for every segment at today's Lb and Cb (all in one
+    call of the standard), for shear, and for deflection (scaled by the ratio of
+    Ix). Today's demand is kept; where the candidate is heavier, its extra
+    self-weight is added on a simple span with the largest dead-load factor of
+    the method's combinations (conservative). Returns (the shape or None,
+    whether the table was searched).
     """
     section, steel = m.section, m.steel
     assert section is not None and steel is not None
     match = _TABLE_NAME.match(section.name)
     if section.source != TABLE_SOURCE or match is None or not b.segments:
         return None, False
-    prefix, depth = match.group(1), match.group(2)
-    names = [n for n in designations(prefix=prefix) if (g := _TABLE_NAME.match(n)) and
-             g.group(2) == depth]  # fmt: skip
-    candidates = [s for s in (lookup(n) for n in names) if s is not None]
-    candidates.sort(key=lambda s: s.mass_per_length)
+    candidates = [c for c in _same_depth(match.group(1), match.group(2))
+                  if not standard.scope(c, steel)]  # fmt: skip
+    if not candidates:
+        return None, True
     gamma_d = max((c.factors.get("D", 0.0) for c in strength_combinations(method)), default=1.0)
-    lbs = np.array([s.lb for s in b.segments])
-    cbs = np.array([s.cb for s in b.segments])
+    k = len(b.segments)
+    lbs = np.tile([s.lb for s in b.segments], len(candidates))
+    cbs = np.tile([s.cb for s in b.segments], len(candidates))
+    index = np.repeat(np.arange(len(candidates)), k)
+    try:
+        flex = standard.flexure_many([(c, steel) for c in candidates], index, lbs, cbs, method)
+    except OutOfScope:
+        return None, True
+    cap = np.asarray(flex.design_strength).reshape(len(candidates), k)
     demand = np.array([s.moment_demand for s in b.segments])
     span = b.span or b.length
-    for cand in candidates:
-        if standard.scope(cand, steel):
-            continue
+    for i, cand in enumerate(candidates):
         extra = max(0.0, cand.mass_per_length - section.mass_per_length) * G  # N/m
-        try:
-            cap = standard.flexure(cand, steel, lbs, cbs, method).design_strength
-            shear = standard.shear(cand, steel, method).design_strength
-        except OutOfScope:
+        u = float(np.max((demand + gamma_d * extra * span**2 / 8) / cap[i]))
+        if u > 1.0:
             continue
-        u = float(np.max((demand + gamma_d * extra * span**2 / 8) / cap))
-        if b.shear_demand is not None and shear > 0:
+        if b.shear_demand is not None:
+            try:
+                shear = standard.shear(cand, steel, method).design_strength
+            except OutOfScope:
+                continue
             u = max(u, (b.shear_demand + gamma_d * extra * span / 2) / shear)
         u = max(u, _deflection_utilisation(b, section, cand, extra, steel.E, span))
         if u <= 1.0:
             return ShapeOption(cand.name, cand.mass_per_length, u), True
     return None, True
+
+
+@functools.lru_cache(maxsize=256)
+def _same_depth(prefix: str, depth: str) -> tuple[Section, ...]:
+    """Table shapes of one family prefix and nominal depth, lightest first."""
+    names = [n for n in designations(prefix=prefix) if (g := _TABLE_NAME.match(n)) and
+             g.group(2) == depth]  # fmt: skip
+    found = [s for s in (lookup(n) for n in names) if s is not None]
+    return tuple(sorted(found, key=lambda s: s.mass_per_length))
 
 
 def _deflection_utilisation(

@@ -183,3 +183,4 @@ def test_diff_warns_when_models_share_no_beams(tmp_path):
     result = run("diff", str(SAMPLES / "brambleford.ifc"),
                  str(SAMPLES / "quillfeather-rev-a.ifc"), "--out", str(tmp_path))  # fmt: skip
     assert "share no beams" in result.output and "not revisions of one model" in result.output
+    assert "share no beams" in (tmp_path / "diff.html").read_text()

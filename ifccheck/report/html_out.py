@@ -838,10 +838,17 @@ def _diff_summary_section(diff: DiffResult) -> str:
         ["Added beams", _num(s["added"], 0)],
         ["Removed beams", _num(s["removed"], 0)],
     ]
+    apart = ""
+    if diff.old.beams and diff.new.beams and not diff.matched:
+        apart = (
+            '<p class="defaults"><strong>Warning.</strong> The two files share no beams (by '
+            "GUID or by position): they are probably not revisions of one model.</p>"
+        )
     return (
         '<section id="summary"><h2>Summary</h2>'
         '<div class="caution"><strong>Caution.</strong> '
         f"{escape(diff.new.caution or CAUTION)}</div>"
+        + apart
         + _table(["", "Model", "Checked at"], rows, "revisions")
         + _table(["", "Beams"], counts, "counts")
         + f'<p class="note">{escape(diff.new.standard)} {escape(diff.new.method)}</p></section>'
