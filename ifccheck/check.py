@@ -25,6 +25,7 @@ from ifccheck.config import Settings, settings_to_dict
 from ifccheck.design import get_standard
 from ifccheck.design.base import DesignStandard, segment_moments
 from ifccheck.errors import OutOfScope
+from ifccheck.explain import explain_beams
 from ifccheck.floors import prepare_floors
 from ifccheck.framing import analyse_framing
 from ifccheck.framing.types import BraceAdequacy, Framing, MemberFraming
@@ -102,15 +103,20 @@ def run_check(
     results = check_beams(beams, standard, settings, progress)
     names = {m.guid: m.name for m in model.members if m.name}
     names.update({w.guid: w.name for w in model.walls if w.name})
+    names.update({s.guid: s.name for s in model.slabs if s.name})
     for b in results:
         for p in b.brace_points:
             p.by_name = names.get(p.by, "")
+    explain_beams(results, model, standard, settings, names)
     slabs = [
         SlabOutline(
             s.guid,
             s.storey,
             [(float(x), float(y)) for x, y in poly.exterior.coords],
             [[(float(x), float(y)) for x, y in r.coords] for r in poly.interiors],
+            thickness=s.thickness,
+            declared=s.declared,
+            diaphragm=s.braces or not s.declared,
         )
         for s in model.slabs
         for poly in getattr(s.footprint, "geoms", [s.footprint])
@@ -134,6 +140,7 @@ def run_check(
         ],
         assumptions=_assumptions(model, results, demand.deck_spans),
         excluded=dict(framing.excluded),
+        names=names,
     )
     return result, model, framing
 

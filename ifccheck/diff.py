@@ -13,7 +13,6 @@ from collections import defaultdict
 
 import numpy as np
 
-from ifccheck.reasons import NotChecked
 from ifccheck.results import (
     BeamChange,
     BeamResult,
@@ -28,6 +27,9 @@ from ifccheck.results import (
 STATION_TOLERANCE = 0.15  # m
 # Beams whose ends lie this close (and share a profile) are the same beam.
 MATCH_TOLERANCE = 0.05  # m
+# A tributary width that grew by more than this share (and TRIBUTARY_MIN) is a cause.
+TRIBUTARY_SHARE = 0.05
+TRIBUTARY_MIN = 0.05  # m
 # Utilisation changes below this are noise from load redistribution rounding.
 UTILISATION_TOLERANCE = 0.005
 OUTCOME_RANK = {"pass": 0, "fail": 1, "not_checked": 2}
@@ -122,25 +124,29 @@ def _lost_cover(old: BeamResult, new: BeamResult) -> float:
     def lines(intervals) -> MultiLineString:
         return MultiLineString([LineString([(a, 0), (b, 0)]) for a, b in intervals if b > a])
 
-    old_iv = [tuple(sorted(_to_new_stations(old, new, [a, b]))) for a, b in old.continuous_bracing]
+    # only what lay along the new beam: length beyond a beam that was shortened is not lost
+    # bracing (the lost support says what happened there)
+    old_iv = []
+    for a, b in old.continuous_bracing:
+        lo, hi = sorted(_to_new_stations(old, new, [a, b]))
+        lo, hi = max(lo, 0.0), min(hi, new.length)
+        if hi > lo:
+            old_iv.append((lo, hi))
     if not old_iv:
         return 0.0
     return float(lines(old_iv).difference(lines(new.continuous_bracing)).length)
 
 
-def compare_beam(
-    old: BeamResult, new: BeamResult, matched_by: str, unloading: frozenset[str] = frozenset()
-) -> BeamChange | None:
-    """The change of one matched beam, or None when nothing that matters changed.
-
-    ``unloading`` are the beams of the new revision that carry nothing (they lost a
-    support): a beam whose demand fell because one of them no longer loads it is
-    ``changed``, never better.
-    """
+def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChange | None:
+    """The change of one matched beam, or None when nothing that matters changed."""
     lost: set[float] = set()
     added: set[float] = set()
     for flange in FLANGES:
-        old_braces = _to_new_stations(old, new, _braces(old, flange))
+        old_braces = [
+            s
+            for s in _to_new_stations(old, new, _braces(old, flange))
+            if -STATION_TOLERANCE <= s <= new.length + STATION_TOLERANCE  # along the new beam
+        ]
         new_braces = _braces(new, flange)
         lost.update(round(s, 4) for s in _unmatched(old_braces, new_braces))
         added.update(round(s, 4) for s in _unmatched(new_braces, old_braces))
@@ -172,24 +178,32 @@ def compare_beam(
         outcome_after=new.outcome,
     )
     causes = _causes(change)
+    tributary = _tributary_growth(old, new)
+    if tributary is not None:
+        causes.insert(0, tributary)
     if not causes:
         return None
     worse = [c for c in causes if c.worse]
     change.change = "weakened" if worse else "strengthened"
     change.causes = worse or causes
-    lost_loaders = sorted((_loaders(old) - _loaders(new)) & unloading)
-    if not worse and lost_loaders:
-        change.change = "changed"
-        change.causes = [ChangeCause(CauseKind.DEMAND_FELL_LOST_LOAD, members=tuple(lost_loaders))]
     return change
 
 
-def _loaders(b: BeamResult) -> set[str]:
-    """The members whose reactions load a beam."""
-    return {p.source for p in b.demand.point_loads} if b.demand is not None else set()
+def _tributary(b: BeamResult) -> float | None:
+    d = b.demand
+    if d is None or d.source != "computed":
+        return None
+    return d.tributary_left + d.tributary_right
 
 
-UNLOADING = frozenset({NotChecked.UNSTABLE, NotChecked.UNSUPPORTED, NotChecked.NOT_IN_FRAMING})
+def _tributary_growth(old: BeamResult, new: BeamResult) -> ChangeCause | None:
+    """A cause when the beam now carries a wider strip of floor (the neighbours named later)."""
+    before, after = _tributary(old), _tributary(new)
+    if before is None or after is None:
+        return None
+    if after - before > max(TRIBUTARY_MIN, TRIBUTARY_SHARE * before):
+        return ChangeCause(CauseKind.TRIBUTARY_GREW, before=before, after=after)
+    return None
 
 
 def _causes(c: BeamChange) -> list[ChangeCause]:
@@ -225,14 +239,78 @@ def _causes(c: BeamChange) -> list[ChangeCause]:
     return out
 
 
+def _parallel_neighbours(beam: BeamResult, others: list[BeamResult], reach: float) -> list[str]:
+    """GUIDs of ``others`` on the beam's storey, parallel to it and within ``reach`` in plan."""
+    a0, a1 = np.asarray(beam.start[:2]), np.asarray(beam.end[:2])
+    axis = a1 - a0
+    length = float(np.linalg.norm(axis))
+    if length <= 0:
+        return []
+    t = axis / length
+    out = []
+    for o in others:
+        if o.storey != beam.storey:
+            continue
+        b0, b1 = np.asarray(o.start[:2]), np.asarray(o.end[:2])
+        other = b1 - b0
+        if np.linalg.norm(other) <= 0 or abs(float(t @ other)) / np.linalg.norm(other) < 0.99:
+            continue
+        mid = (b0 + b1) / 2 - a0
+        across = abs(float(t[0] * mid[1] - t[1] * mid[0]))
+        along = float(t @ mid)
+        if 0.0 < across <= reach and -0.25 * length <= along <= 1.25 * length:
+            out.append(o.guid)
+    return out
+
+
+def _name_lost_neighbours(changes: list[BeamChange], pairs, removed: list[BeamResult]) -> None:
+    """Name the removed beams beside each beam whose tributary width grew."""
+    old_of = {n.guid: o for o, n, _how in pairs}
+    for c in changes:
+        for i, cause in enumerate(c.causes):
+            if cause.kind is not CauseKind.TRIBUTARY_GREW:
+                continue
+            o = old_of.get(c.guid)
+            if o is None or o.demand is None:
+                continue
+            reach = 2 * max(o.demand.tributary_left, o.demand.tributary_right) + MATCH_TOLERANCE
+            gone = tuple(_parallel_neighbours(o, removed, reach))
+            c.causes[i] = ChangeCause(
+                cause.kind, members=gone, before=cause.before, after=cause.after
+            )
+
+
+def _lost_loads(changes: list[BeamChange], pairs, new: CheckResult) -> None:
+    """A beam whose demand fell because a member that loaded it lost its support.
+
+    Its change is "changed", never "strengthened": the load it carried has gone
+    nowhere (the member that delivered it is now unsupported or not checked).
+    """
+    new_by = {b.guid: b for b in new.beams}
+    unsettled = {b.guid for b in new.beams if b.outcome == "not_checked"}
+    unsettled |= {c.guid for c in changes if c.lost_supports}
+    old_of = {n.guid: o for o, n, _how in pairs}
+    for c in changes:
+        if not any(x.kind is CauseKind.UTILISATION_FELL for x in c.causes):
+            continue
+        o, n = old_of.get(c.guid), new_by.get(c.guid)
+        if o is None or n is None or o.demand is None or n.demand is None:
+            continue
+        before = {p.source for p in o.demand.point_loads}
+        after = {p.source for p in n.demand.point_loads}
+        lost = tuple(sorted(g for g in before - after if g in unsettled))
+        if lost:
+            c.causes.insert(0, ChangeCause(CauseKind.DEMAND_FELL_LOST_LOAD, members=lost))
+            if c.change == "strengthened":
+                c.change = "changed"
+
+
 def diff_results(old: CheckResult, new: CheckResult) -> DiffResult:
     """Match the beams of two checks and say what changed (causes in SI)."""
     pairs, added, removed = match_beams(old.beams, new.beams)
-    unloading = frozenset(
-        b.guid for b in new.beams
-        if b.outcome == "not_checked" and b.reason is not None and b.reason.code in UNLOADING
-    )  # fmt: skip
-    changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how, unloading)) is not None]
+    changes = [c for o, n, how in pairs if (c := compare_beam(o, n, how)) is not None]
+    _name_lost_neighbours(changes, pairs, removed)
+    _lost_loads(changes, pairs, new)
     changes.sort(key=lambda c: (c.change != "weakened", c.storey, c.name))
     return DiffResult(
         old=old,

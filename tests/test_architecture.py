@@ -20,6 +20,7 @@ LAYERS: list[set[str]] = [
     {"floors"},
     {"loads"},
     {"segments", "adequacy"},
+    {"explain"},
     {"check", "diff"},
     {"report", "samples"},
     {"service"},

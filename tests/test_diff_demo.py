@@ -66,18 +66,25 @@ def test_diff_names_the_weakened_beams(revisions):
     assert shaft.lb_after == pytest.approx(15 * FT, abs=0.02)
 
     # the girders the pulled-short infill loaded carry its floor through its neighbours
-    # now: L2-G30-30 is unchanged (within noise, still braced at 50 ft from the other side)
-    # and L2-G0-30's demand fell only because L2-B1-50 no longer reaches it: never better
-    assert not any(c.name == "L2-G30-30" for c in d.changes)
-    girder = next(c for c in d.changes if c.name == "L2-G0-30")
-    assert girder.change == "changed" and not girder.lost_brace_points
-    (cause,) = girder.causes
-    assert cause.kind is CauseKind.DEMAND_FELL_LOST_LOAD
-    assert [names[g] for g in cause.members] == ["L2-B1-50"]
-    assert weakened["R-B3-7.5"].utilisation_after > weakened["R-B3-7.5"].utilisation_before
+    # now (no load disappears): a girder whose demand still fell did so only because
+    # L2-B1-50 no longer reaches it, so it is "changed", never strengthened (issue 10, item 7)
+    assert not any(c.name == "L2-G30-30" for c in d.changes)  # within noise, still braced
+    c = next(c for c in d.changes if c.name == "L2-G0-30")
+    assert c.change == "changed" and not c.lost_brace_points, c.causes
+    lost = next(x for x in c.causes if x.kind is CauseKind.DEMAND_FELL_LOST_LOAD)
+    assert [names[g] for g in lost.members] == ["L2-B1-50"]
+    roof = weakened["R-B3-7.5"]
+    assert roof.utilisation_after > roof.utilisation_before
+    # R-B3-15 deleted: infill at 7.5 ft spacing carries 7.5 ft, then 3.75 + 7.5 = 11.25 ft
+    grew = next(x for x in roof.causes if x.kind is CauseKind.TRIBUTARY_GREW)
+    assert (grew.before / FT, grew.after / FT) == pytest.approx((7.5, 11.25), abs=0.01)
+    old_names = {x.guid: x.name for x in a.beams}
+    assert [old_names[g] for g in grew.members] == ["R-B3-15"]
 
     pulled = weakened["L2-B1-50"]
     assert pulled.lost_supports and pulled.outcome_after == "not_checked"
+    # the support it lost is said once: not again as a lost brace or slab bracing beyond it
+    assert not pulled.lost_brace_points and pulled.lost_continuous_bracing == 0.0
 
 
 def test_geometry_matching_when_guids_are_regenerated(revisions):

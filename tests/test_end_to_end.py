@@ -141,3 +141,51 @@ def test_asd_method_switch(tmp_path):
     assert {c.split(" (")[0] for c in combos} <= {"D", "D+L"}
     assert "1.2D+1.6L" not in combos
     assert result.exit_code in (0, 1)
+
+
+def test_summary_names_failing_and_not_checked_beams(rev_b):
+    result, _ = rev_b
+    lines = result.output.splitlines()
+    # the scenario: the shaft over L2-B2-20, the roof infill deleted beside R-G90-0,
+    # L2-B1-50 pulled short of its girder
+    assert any(x.startswith("  fail: L2-B2-20 (Level 2, W21X44): utilisation 1.11") for x in lines)
+    assert any(x.startswith("  fail: R-G90-0 (Roof") for x in lines)
+    assert any(x.startswith("  not checked: L2-B1-50 (Level 2): unstable") for x in lines)
+    assert "elastic lateral-torsional buckling over Lb = 15.00 ft" in result.output
+    # warnings name members by name and GUID
+    assert "warning: R-S15 (" in result.output and "strut line R-S15 reaches" in result.output
+    assert "note: no settings file" not in result.output  # a settings file was given
+
+
+def test_defaults_are_said_and_long_lists_are_cut(tmp_path):
+    result = run("check", str(SAMPLES / "quillfeather-rev-b.ifc"), "--out", str(tmp_path))
+    # the documented defaults (config.py): 60 psf dead, 100 psf live, the roof included
+    note = [x for x in result.output.splitlines() if x.startswith("note: ")]
+    assert len(note) == 1 and "60 psf" in note[0] and "100 psf" in note[0]
+    listed = [x for x in result.output.splitlines() if x.startswith(("  fail:", "  not checked:"))]
+    doc = json.loads((tmp_path / "quillfeather-rev-b.results.json").read_text())
+    flagged = doc["summary"]["fail"] + doc["summary"]["not_checked"]
+    assert flagged > 10 and len(listed) == 10
+    assert f"  and {flagged - 10} more (see the report)" in result.output
+
+
+def test_diff_lines_are_words_said_once(tmp_path):
+    result = run("diff", str(SAMPLES / "quillfeather-rev-a.ifc"),
+                 str(SAMPLES / "quillfeather-rev-b.ifc"), "--config",
+                 str(SAMPLES / "quillfeather.toml"), "--out", str(tmp_path))  # fmt: skip
+    out = result.output
+    assert "not_checked" not in out and "status" not in out  # words, not tokens
+    assert "  removed: R-B3-15 (Roof, W12X40)" in out  # the deleted roof infill, by name
+    assert "because R-B3-15 was removed" in out  # its neighbours' strips grew
+    assert "L2-G30-30" in out and "no longer reaches it" in out  # not shown as improved
+    for line in out.splitlines():
+        if line.startswith("  weakened:") or line.startswith("  changed:"):
+            parts = line.split(": ", 2)[2].split("; ")
+            assert len(parts) == len(set(parts))
+
+
+def test_diff_warns_when_models_share_no_beams(tmp_path):
+    result = run("diff", str(SAMPLES / "brambleford.ifc"),
+                 str(SAMPLES / "quillfeather-rev-a.ifc"), "--out", str(tmp_path))  # fmt: skip
+    assert "share no beams" in result.output and "not revisions of one model" in result.output
+    assert "share no beams" in (tmp_path / "diff.html").read_text()

@@ -57,8 +57,10 @@ def test_topic_words_say_where_why_and_what_to_do(tmp_path):
     assert "7.50 ft to 22.50 ft" in text  # the governing segment's stations
     assert "Lb = 15.00 ft" in text
     assert "utilisation 1.31" in text and "1.2D + 1.6L" in text
-    assert "near station 15.00 ft" in text  # the middle of the 7.5–22.5 ft segment
-    assert "heavier section" in text
+    # a brace at the middle of the 7.5–22.5 ft segment, given from the named end
+    assert "at 15.00 ft from the end at J3 would make it pass" in text
+    assert "The lightest W16 that passes as braced today is W16X31" in text
+    assert "S1" in text and "does not count" in text  # the strut, by name
     assert "fail" in fail.labels
     nc = topics[g["b3"]].topic
     assert "not checked" in nc.title

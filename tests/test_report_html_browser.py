@@ -77,3 +77,76 @@ def test_diff_renders_crosses_at_lost_brace_points(browser, tmp_path):
     crosses = page.locator("svg.plan path.lost-brace").count()
     assert crosses == sum(len(c.lost_brace_points) for c in diff.changes)
     page.close()
+
+
+def _visible_names(page) -> list[str]:
+    return page.evaluate(
+        """() => [...document.querySelectorAll('#beam-table tbody tr')]
+             .filter(r => !r.hidden).map(r => r.dataset.name)"""
+    )
+
+
+def test_beam_table_sorts_filters_and_finds(browser, tmp_path):
+    result = rf.check_result()
+    path = write_report_html(result, tmp_path / "m.report.html", "imperial")
+    page, requests = _open(browser, path)
+    assert requests == [path.as_uri()]
+    assert page.locator("#beam-filters").is_visible()  # the script ran: the filters show
+    assert page.inner_text("#beam-count") == "4 of 4 beams"
+    by_u = sorted((b for b in result.beams if b.utilisation is not None),
+                  key=lambda b: b.utilisation)  # fmt: skip
+    page.click("button.sort[data-key=utilisation]")
+    names = _visible_names(page)
+    assert names[0] == "B-3"  # not checked: no utilisation, sorted first
+    assert names[1:] == [b.name for b in by_u]
+    page.click("button.sort[data-key=utilisation]")
+    assert _visible_names(page)[:3] == [b.name for b in reversed(by_u)]
+    page.select_option("#filter-storey", "Level 3")
+    assert sorted(_visible_names(page)) == ["B-3", "B-4"]
+    assert page.inner_text("#beam-count") == "2 of 4 beams"
+    page.select_option("#filter-storey", "")
+    page.select_option("#filter-outcome", "fail")
+    assert _visible_names(page) == ["B-2"]
+    page.select_option("#filter-outcome", "")
+    page.fill("#filter-text", rf.guids()["b4"][:10].lower())  # a GUID, in any case
+    assert _visible_names(page) == ["B-4"]
+    page.fill("#filter-text", "w24")  # a profile
+    assert _visible_names(page) == ["B-1"]
+    page.fill("#filter-text", "")
+    # a failing beam on the plan leads to its details
+    line = page.locator(f"svg.plan a[href='#beam-{rf.guids()['b2']}'] line.beam")
+    line.evaluate("e => e.scrollIntoView({block: 'center'})")
+    box = line.evaluate("e => { const r = e.getBoundingClientRect(); "
+                        "return [r.left + 0.3 * r.width, r.top + r.height / 2]; }")  # fmt: skip
+    page.mouse.click(*box)  # on the drawn line (a zero-height box to the browser)
+    assert page.evaluate("location.hash") == f"#beam-{rf.guids()['b2']}"
+    page.close()
+
+
+def test_no_label_is_clipped_on_the_demo(browser, tmp_path):
+    from ifccheck.check import run_check
+    from ifccheck.config import load_settings
+
+    samples = Path(__file__).parents[1] / "sample_models"
+    result, _, _ = run_check(samples / "quillfeather-rev-b.ifc", load_settings(None))
+    path = write_report_html(result, tmp_path / "demo.report.html", "imperial")
+    page, _ = _open(browser, path)
+    outside = page.evaluate(
+        """() => [...document.querySelectorAll('svg.plan text, svg.chart text')].filter(t => {
+             const s = t.ownerSVGElement.getBoundingClientRect(), r = t.getBoundingClientRect();
+             return r.left < s.left - 0.5 || r.top < s.top - 0.5 ||
+                    r.right > s.right + 0.5 || r.bottom > s.bottom + 0.5;
+           }).map(t => t.textContent)"""
+    )
+    assert outside == []
+    labels = page.evaluate("() => [...document.querySelectorAll('svg.plan text.label')].length")
+    flagged = sum(b.outcome != "pass" for b in result.beams)
+    assert labels == flagged  # every failing and not-checked beam is labelled
+    # names show on hover: every beam shape carries a title starting with its name
+    titles = page.evaluate(
+        """() => [...document.querySelectorAll('svg.plan line.beam')]
+             .map(e => e.querySelector('title').textContent)"""
+    )
+    assert sorted(t.split(" · ")[0] for t in titles) == sorted(b.name for b in result.beams)
+    page.screenshot(path=str(tmp_path / "demo.png"), full_page=True)
+    page.close()

@@ -73,7 +73,12 @@ def test_results_carry_the_contract_keys_and_summary():
                 "method", "checked_at", "warnings", "caution"):  # fmt: skip
         assert key in doc
     assert set(doc["model"]) >= {"file", "schema", "sha256"}
-    assert doc["summary"] == {"pass": 2, "fail": 1, "not_checked": 1, "total": 4}
+    s = doc["summary"]
+    assert {k: s[k] for k in ("pass", "fail", "not_checked", "total")} == {
+        "pass": 2, "fail": 1, "not_checked": 1, "total": 4
+    }  # fmt: skip
+    assert s["not_checked_by_reason"] == {"profile_not_in_table": 1}
+    assert s["load_balance"] == [] and s["assumed_grade"] is None
     for b in doc["beams"]:
         assert BRIEF_BEAM_KEYS <= set(b)
         for s in b["segments"]:

@@ -76,6 +76,19 @@ def test_sign_in_upload_and_open_the_reports(server, browser, tmp_path):
     newest, oldest = rows.nth(0), rows.nth(1)
     assert "64 beams: 64 pass" in oldest.inner_text()
     assert "weakened since the previous revision" in newest.inner_text()
+    # "Compared with" names the earlier revision by its file, not by a raw id
+    compared = newest.locator("td.compared")
+    assert "quillfeather-rev-a.ifc" in compared.inner_text()
+    assert oldest.get_attribute("data-id") not in compared.inner_text()
+    # each file is offered once: the reports open, the others download
+    files = newest.locator("td.files button")
+    offered = [files.nth(i).get_attribute("data-file") for i in range(files.count())]
+    assert sorted(offered) == sorted(set(offered))
+    assert newest.locator("button.download[data-file='report.html']").count() == 0
+    # the state is not drawn in a reassuring green beside beams that fail
+    colour = newest.locator(".status-finished").evaluate("e => getComputedStyle(e).color")
+    r, g, b = (int(v) for v in colour[colour.index("(") + 1 : -1].split(",")[:3])
+    assert not (g > r + 40 and g > b + 40), colour
     page.screenshot(path=str(tmp_path / "page.png"), full_page=True)
 
     with page.expect_popup() as popup_info:
@@ -89,6 +102,10 @@ def test_sign_in_upload_and_open_the_reports(server, browser, tmp_path):
     assert "quillfeather-rev-a.ifc" in report.content()
     report.screenshot(path=str(tmp_path / "report.png"))
     assert not [m for m in console if "Content Security Policy" in m], console
+    # the report's own table script runs under the policy (its hash), nothing else may
+    assert report.locator("#beam-filters").is_visible()
+    report.select_option("#filter-outcome", "fail")
+    assert report.inner_text("#beam-count") == "0 of 64 beams"  # revision A: all pass
     # sandboxed: the report runs in an opaque origin, with no way to the page's storage
     assert (
         report.evaluate(

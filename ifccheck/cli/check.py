@@ -93,31 +93,25 @@ def _units(units: str | None, length_unit: str) -> UnitSystem:
     return DisplayUnits.for_model(length_unit, units).system
 
 
-def _summary_line(result: CheckResult, units: UnitSystem) -> str:
-    from ifccheck.units import format_length, format_moment
+LISTED = 10  # failing and not-checked beams named in the summary, then "and N more"
 
+
+def _summary_line(result: CheckResult, units: UnitSystem) -> str:
+    """The count line; where every beam passes, the most highly utilised one."""
     s = result.summary()
     line = (
         f"{result.model.file}: {s['total']} beams checked to {result.standard} "
         f"{result.method}: {s['pass']} pass, {s['fail']} fail, {s['not_checked']} not checked"
     )
+    if s["fail"] or s["not_checked"]:
+        return line
     worst = max(
         (b for b in result.beams if b.utilisation is not None),
         key=lambda b: b.utilisation or 0.0,
         default=None,
     )
     if worst is not None:
-        u = utilisation_text(worst.utilisation)
-        line += f"; highest utilisation {u} at {worst.name or worst.guid} ({worst.profile}"
-        gov = worst.governing
-        if worst.controlling_limit == "flexure" and gov is not None:
-            line += (
-                f", {gov.limit_state.replace('_', ' ')} over Lb = {format_length(gov.lb, units)}, "
-                f"Mu = {format_moment(gov.moment_demand, units)}"
-            )
-        elif worst.controlling_limit:
-            line += f", {worst.controlling_limit}"
-        line += ")"
+        line += f"; highest utilisation: {_beam_words(worst, DisplayUnits(units))}"
     return line
 
 
@@ -137,6 +131,49 @@ def _check_keys_over_revisions(settings, old_model, new_model) -> None:
     for key in sorted(set(old) ^ set(new)):
         where = new_model.source if key in new else old_model.source
         click.echo(f"warning: settings {key} names nothing in {where}", err=True)
+
+
+def _beam_words(b, du: DisplayUnits) -> str:
+    """'L2-B2-20 (Level 2, W21X44): utilisation 1.11, elastic lateral-torsional buckling
+    over Lb = 15.00 ft'."""
+    from ifccheck.report.wording import CHECK_WORDS, lb_text, limit_state_words
+
+    head = f"{b.name or b.guid} ({', '.join(p for p in (b.storey, b.profile) if p)})"
+    text = f"{head}: utilisation {utilisation_text(b.utilisation)}"
+    gov = b.governing
+    if b.controlling_limit == "flexure" and gov is not None:
+        text += f", {limit_state_words(gov.limit_state)} over Lb = {lb_text(gov, du)}"
+    elif b.controlling_limit:
+        text += f", {CHECK_WORDS.get(b.controlling_limit, b.controlling_limit)}"
+    return text
+
+
+def _attention_lines(result: CheckResult, du: DisplayUnits) -> list[str]:
+    """The failing beams (worst first) and the not-checked ones, up to LISTED."""
+    from ifccheck.report.wording import name_guids
+
+    fails = sorted(
+        (b for b in result.beams if b.outcome == "fail"), key=lambda b: -(b.utilisation or 0.0)
+    )
+    nots = [b for b in result.beams if b.outcome == "not_checked"]
+    lines = [f"  fail: {_beam_words(b, du)}" for b in fails]
+    for b in nots:
+        reason = name_guids(b.reason.text, result.names, False) if b.reason else "no reason"
+        lines.append(f"  not checked: {b.name or b.guid} ({b.storey}): {reason}")
+    if len(lines) > LISTED:
+        lines = [*lines[:LISTED], f"  and {len(lines) - LISTED} more (see the report)"]
+    return lines
+
+
+def _warning_lines(warnings, names) -> list[str]:
+    """One line per warning, members by name and GUID."""
+    from ifccheck.report.wording import member_ref, name_guids
+
+    out = []
+    for guid, message in warnings:
+        who = f"{member_ref(guid, names)}: " if guid else ""
+        out.append(f"warning: {who}{name_guids(message, names, with_guid=False)}")
+    return out
 
 
 def _output_options(command):
@@ -187,16 +224,21 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
     """
     from ifccheck.check import run_check
     from ifccheck.report import write_all
+    from ifccheck.report.basis import defaults_line
 
     settings = _settings(config, method)
     result, model, _ = run_check(model_path, settings, demands, _progress())
     chosen = _units(units, model.length_unit)
     written = write_all(result, Path(model_path), Path(out_dir), chosen)
-    names = {m.guid: m.name or m.guid for m in model.members}
-    for guid, message in result.warnings:
-        who = names.get(guid, guid)
-        click.echo(f"warning: {who}: {message}" if who else f"warning: {message}", err=True)
+    for line in _warning_lines(result.warnings, result.names):
+        click.echo(line, err=True)
+    du = DisplayUnits(chosen)
+    defaults = defaults_line(result, du)
+    if defaults:
+        click.echo(f"note: {defaults}", err=True)
     click.echo(_summary_line(result, chosen))
+    for line in _attention_lines(result, du):
+        click.echo(line)
     files = ", ".join(p.name for p in written.values())
     click.echo(f"results written to {Path(out_dir)}: {files}")
     click.echo(CAUTION)
@@ -231,18 +273,30 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     result = diff_results(old, new)
     written = write_diff_all(result, Path(out_dir), chosen)
     weakened = result.weakened
+    if old.beams and new.beams and not result.matched:
+        click.echo(
+            f"warning: {old.model.file} and {new.model.file} share no beams (by GUID or by "
+            "position): they are probably not revisions of one model",
+            err=True,
+        )
     click.echo(
         f"{old.model.file} → {new.model.file}: {result.matched} beams matched, "
         f"{len(result.added)} added, {len(result.removed)} removed; "
         f"{len(weakened)} weakened"
     )
     du, names = DisplayUnits(chosen), diff_names(result)
-    for c in weakened:
-        click.echo(f"  {c.name or c.guid} ({c.storey}): " + "; ".join(change_reasons(c, du, names)))
-    for c in result.changes:
-        if c.change == "changed":
-            click.echo(f"warning: {c.name or c.guid}: " + "; ".join(change_reasons(c, du, names)),
-                       err=True)  # fmt: skip
+    beams = {b.guid: b for b in new.beams}
+    for c in sorted(result.changes, key=lambda c: (c.change != "weakened", c.storey, c.name)):
+        if c.change == "strengthened":
+            continue
+        reasons = "; ".join(change_reasons(c, du, names, beams.get(c.guid)))
+        click.echo(f"  {c.change}: {c.name or c.guid} ({c.storey}): {reasons}")
+    olds = {b.guid: b for b in old.beams}
+    for label, guids, where in (("removed", result.removed, olds), ("added", result.added, beams)):
+        for g in guids:
+            b = where.get(g)
+            what = ", ".join(p for p in ((b.storey, b.profile) if b else ()) if p)
+            click.echo(f"  {label}: {(b.name if b else '') or g}" + (f" ({what})" if what else ""))
     files = ", ".join(p.name for p in written.values())
     click.echo(f"diff written to {Path(out_dir)}: {files}")
     click.echo(CAUTION)

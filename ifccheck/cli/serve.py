@@ -3,6 +3,8 @@
 from __future__ import annotations
 
 import ipaddress
+import os
+import socket
 from pathlib import Path
 
 import click
@@ -92,13 +94,14 @@ def serve(
 
     from ifccheck.service.app import create_app
 
+    data = usable_data_dir(Path(data_dir))
     if scheduler:
         try:
             import distributed  # noqa: F401
         except ImportError:
             raise UsageError("--scheduler needs the 'distributed' package") from None
     config = ServiceConfig(
-        data_dir=Path(data_dir),
+        data_dir=data,
         workers=workers,
         max_upload=max_upload,
         job_timeout=job_timeout,
@@ -107,26 +110,77 @@ def serve(
         callback_retries=callback_retries,
         scheduler=scheduler,
     )
+    sock = listening_socket(host, port)
     if not _loopback(host):
         click.echo(
             f"warning: listening on {host}: tokens cross the network in the clear; "
             "put a TLS reverse proxy in front of the service",
             err=True,
         )
+    real_port = sock.getsockname()[1]  # the port the system chose, for --port 0
     runner = f"Dask scheduler {scheduler}" if scheduler else f"{workers} local worker(s)"
+    shown = f"[{host.strip('[]')}]" if ":" in host else host
     click.echo(
-        f"ifccheck service on http://{host}:{port}/ — data in {Path(data_dir).resolve()}, {runner}",
+        f"ifccheck service on http://{shown}:{real_port}/ — data in {data}, {runner}",
         err=True,
     )
     click.echo(CAUTION, err=True)
-    uvicorn.run(
-        create_app(config),
-        host=host,
-        port=port,
-        log_level=log_level,
-        timeout_graceful_shutdown=5,
-        server_header=False,
+    server = uvicorn.Server(
+        uvicorn.Config(
+            create_app(config),
+            host=host,
+            port=real_port,
+            log_level=log_level,
+            timeout_graceful_shutdown=5,
+            server_header=False,
+        )
     )
+    try:
+        server.run(sockets=[sock])
+    finally:
+        sock.close()
+
+
+def usable_data_dir(path: Path) -> Path:
+    """The data directory, made if need be; UsageError (one line) when it cannot be used."""
+    import sqlite3
+
+    from ifccheck.service.store import Store
+
+    if path.exists() and not path.is_dir():
+        raise UsageError(f"--data {path}: not a directory")
+    try:
+        path.mkdir(parents=True, exist_ok=True)
+        probe = path / f".write-test-{os.getpid()}"
+        probe.write_bytes(b"")
+        probe.unlink()
+    except OSError as exc:
+        raise UsageError(f"--data {path}: cannot be written ({exc.strerror or exc})") from None
+    try:
+        Store(path).close()
+    except (sqlite3.Error, OSError) as exc:
+        raise UsageError(f"--data {path}: its database cannot be opened ({exc})") from None
+    return path.resolve()
+
+
+def listening_socket(host: str, port: int) -> socket.socket:
+    """A socket bound to ``host:port`` (port 0: any free one); UsageError when it cannot be."""
+    try:
+        infos = socket.getaddrinfo(
+            host.strip("[]"), port, type=socket.SOCK_STREAM, flags=socket.AI_PASSIVE
+        )
+    except socket.gaierror as exc:
+        raise UsageError(f"--host {host}: {exc.strerror or exc}") from None
+    family, kind, proto, _, address = infos[0]
+    sock = socket.socket(family, kind, proto)
+    sock.setsockopt(socket.SOL_SOCKET, socket.SO_REUSEADDR, 1)
+    try:
+        sock.bind(address)
+    except OSError as exc:
+        sock.close()
+        raise UsageError(f"cannot listen on {host}:{port}: {exc.strerror or exc}") from None
+    sock.set_inheritable(True)
+    return sock
 
 
 @click.group()
@@ -137,7 +191,7 @@ def token() -> None:
 def _store(data_dir: str):
     from ifccheck.service.store import Store
 
-    return Store(Path(data_dir))
+    return Store(usable_data_dir(Path(data_dir)))
 
 
 @token.command("create")

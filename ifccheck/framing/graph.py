@@ -162,7 +162,8 @@ def _build(
     linked = np.zeros((nm, 2), dtype=bool)
     at_end = links.end >= 0
     linked[links.conn[at_end], links.end[at_end]] = True
-    levels_with_slab = {s.level or s.storey for s in model.slabs}
+    # a diaphragm ties the framing: a modelled slab, or a declared deck that braces
+    levels_with_slab = {s.level or s.storey for s in model.slabs if s.braces or not s.declared}
     by_station = attrgetter("station", "by")
     bp_order = attrgetter("station", "kind", "by")
     for i, mf in framings.items():

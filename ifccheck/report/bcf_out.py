@@ -195,12 +195,15 @@ def write_issues_bcf(result: CheckResult, path: Path, units: str | None = None) 
             if seg is not None and b.controlling_limit == "flexure":
                 labels.append(limit_state_words(seg.limit_state))
                 lines.append((_at(b, seg.start), _at(b, seg.end)))
-                mid = _at(b, segment_midpoint(seg))
-                lines.append((mid, (mid[0], mid[1], mid[2] + 1.0)))
+                e = b.explanation
+                stations = [x.station for x in e.braces] if e is not None and e.braces else []
+                for station in stations or [segment_midpoint(seg)]:
+                    at = _at(b, station)
+                    lines.append((at, (at[0], at[1], at[2] + 1.0)))  # a brace goes here
             elif b.controlling_limit:
                 labels.append(b.controlling_limit)
         handler = _topic(
-            bcf_file, key, beam_issue_title(b), beam_issue_description(b, du),
+            bcf_file, key, beam_issue_title(b), beam_issue_description(b, du, result.names),
             result.checked_at,
             "Error" if b.outcome == "fail" else "Request",
             labels, "High" if b.outcome == "fail" else "Normal", result.model.file,
@@ -226,7 +229,8 @@ def write_diff_bcf(diff: DiffResult, path: Path, units: str | None = None) -> Pa
         if c.lost_supports:
             labels.append("lost support")
         handler = _topic(
-            bcf_file, key, change_title(c), change_description(c, du, names), diff.new.checked_at,
+            bcf_file, key, change_title(c),
+            change_description(c, du, names, new_beams.get(c.guid)), diff.new.checked_at,
             "Error", labels, "High", diff.new.model.file,
         )  # fmt: skip
         b = new_beams.get(c.guid)

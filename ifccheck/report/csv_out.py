@@ -2,7 +2,8 @@
 
 Dimensional columns carry their unit in the name (``lb_ft`` / ``lb_m``,
 ``moment_demand_kip_ft`` / ``moment_demand_kN_m``), values in the chosen
-unit system; utilisations and Cb are plain numbers. Empty cells are values that
+unit system (six significant digits; stresses with the trade's digits: 345 MPa,
+50 ksi); utilisations and Cb are plain numbers. Empty cells are values that
 do not exist (a not-checked beam has no utilisation).
 """
 
@@ -127,9 +128,25 @@ def _table(rows: Sequence[Any], columns: Sequence[Column], units: str) -> str:
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
     w.writerow(column_names(columns, du))
+    # stresses as the trade writes them (345 MPa, 50 ksi), not 344.738
+    trade = [kind in TRADE_KINDS for _, kind, _ in columns]
     for row in rows:
-        w.writerow([_cell(get(row), f) for get, f in zip(getters, factors, strict=True)])
+        w.writerow(
+            [
+                _trade_cell(get(row), du, kind) if t else _cell(get(row), f)
+                for get, f, t, (_, kind, _) in zip(getters, factors, trade, columns, strict=True)
+            ]
+        )
     return buf.getvalue()
+
+
+TRADE_KINDS = frozenset({"stress"})
+
+
+def _trade_cell(value: Any, du: DisplayUnits, kind: str | None) -> str:
+    if value is None or kind is None or not math.isfinite(float(value)):
+        return ""
+    return du.trade_number(float(value), kind)
 
 
 def beams_csv(result: CheckResult, units: str) -> str:
@@ -142,7 +159,8 @@ def diff_csv(diff: DiffResult, units: str) -> str:
     order = {"weakened": 0, "changed": 1, "strengthened": 2}
     changes: list[BeamChange] = sorted(diff.changes, key=lambda c: (order.get(c.change, 3), c.guid))
     du, names = DisplayUnits(check_system(units)), diff_names(diff)
-    reasons: Column = ("reasons", None, lambda c: change_reasons(c, du, names))
+    beams = {b.guid: b for b in diff.new.beams}
+    reasons: Column = ("reasons", None, lambda c: change_reasons(c, du, names, beams.get(c.guid)))
     return _table(changes, (*DIFF_COLUMNS, reasons), units)
 
 

@@ -18,7 +18,38 @@ from ifccheck.units import (
     display_label,
     display_suffix,
     system_for,
+    to_si,
 )
+
+# (kind, system) → (decimals, drop trailing zeros): the digits the trade writes
+# (common practice: 345 MPa, 50 ksi, 60 psf, 2.87 kPa, 5.5 in, 140 mm)
+TRADE_DIGITS: dict[tuple[str, str], tuple[int, bool]] = {
+    ("stress", "si"): (0, False),
+    ("stress", "imperial"): (1, True),
+    ("pressure", "si"): (2, False),
+    ("pressure", "imperial"): (0, False),
+    ("thickness", "si"): (0, False),
+    ("thickness", "imperial"): (2, True),
+    ("deflection", "si"): (1, False),
+    ("deflection", "imperial"): (2, False),
+    ("line load", "si"): (2, False),
+    ("line load", "imperial"): (3, False),
+    ("force", "si"): (1, False),
+    ("force", "imperial"): (1, False),
+    ("moment", "si"): (1, False),
+    ("moment", "imperial"): (1, False),
+    ("length", "si"): (2, False),
+    ("length", "imperial"): (2, False),
+}
+
+
+# section properties for the hand-check trail: kind → {system: (SI metres per unit, label)}
+_INCH = to_si(1.0, "inch")
+SECTION_KINDS: dict[str, dict[str, tuple[float, str]]] = {
+    "section length": {"si": (1e-3, "mm"), "imperial": (_INCH, "in")},
+    "modulus": {"si": (1e-6, "10³ mm³"), "imperial": (_INCH**3, "in³")},
+    "inertia": {"si": (1e-6, "10⁶ mm⁴"), "imperial": (_INCH**4, "in⁴")},
+}
 
 
 @dataclass(frozen=True)
@@ -57,9 +88,42 @@ class DisplayUnits:
             return "–"
         return f"{v:.{digits}f} {self.label(kind)}"
 
+    def trade(self, si: float | None, kind: str) -> str:
+        """A value with the digits the trade writes ('345 MPa', '50 ksi', '5.5 in')."""
+        v = self.value(si, kind)
+        if v is None:
+            return "–"
+        return f"{self.trade_number(si, kind)} {self.label(kind)}"
+
+    def trade_number(self, si: float | None, kind: str) -> str:
+        """The number of :meth:`trade`, without its unit."""
+        v = self.value(si, kind)
+        if v is None:
+            return "–"
+        digits, strip = TRADE_DIGITS.get((kind, self.system), (2, False))
+        text = f"{v:.{digits}f}"
+        if strip and "." in text:
+            text = text.rstrip("0").rstrip(".")
+        return "0" if text in ("-0", "") else text
+
+    def section(self, si: float | None, kind: str, digits: int = 3) -> str:
+        """A section property in the trade's units: '4.45 in', '81.6 in³', '10³ mm³'."""
+        if si is None or not math.isfinite(si):
+            return "–"
+        per, label = SECTION_KINDS[kind][self.system]
+        return f"{significant(si / per, digits)} {label}"
+
     def number(self, si: float | None, kind: str, digits: int = 2) -> str:
         v = self.value(si, kind)
         return "–" if v is None else f"{v:.{digits}f}"
+
+
+def significant(v: float, digits: int = 3) -> str:
+    """``v`` to ``digits`` significant digits, never in exponent form ('1340', '0.770')."""
+    if v == 0 or not math.isfinite(v):
+        return f"{v:g}"
+    decimals = max(0, digits - 1 - math.floor(math.log10(abs(v))))
+    return f"{v:.{decimals}f}"
 
 
 def utilisation_text(u: float | None, digits: int = 2) -> str:

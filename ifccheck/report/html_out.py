@@ -1,13 +1,17 @@
 """The readable reports: ``<stem>.report.html`` and ``diff.html``.
 
-One self-contained page each: inline CSS and SVG, no scripts, no fonts or
-images from elsewhere, so it opens offline and can be mailed or archived as
-is. Per-beam detail sections are capped (every failing beam up to a limit,
-plus the most highly utilised others) and the page says how many are shown.
+One self-contained page each: inline CSS, SVG and (in the check report) one
+small inline script that sorts and filters the beam table; no fonts, images
+or scripts from elsewhere, so it opens offline and can be mailed or archived
+as is. Without the script the page reads the same, the table unsorted.
+Per-beam detail sections are capped (every failing beam up to a limit, plus
+the most highly utilised others) and the page says how many are shown.
 """
 
 from __future__ import annotations
 
+import base64
+import hashlib
 from collections import defaultdict
 from collections.abc import Iterable, Sequence
 from html import escape
@@ -17,6 +21,18 @@ from ifccheck import CAUTION
 from ifccheck.atomic import write_text
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import reason_text
+from ifccheck.report.basis import (
+    ASSUMED_WORDS,
+    assumed_grade,
+    assumptions,
+    combinations,
+    defaults_line,
+    density_text,
+    level_loads,
+    load_source_text,
+    setting_text,
+    settings_list,
+)
 from ifccheck.report.colours import (
     CHANGE_COLOURS,
     NOT_CHECKED,
@@ -35,17 +51,91 @@ from ifccheck.report.svg import (
     strength_curve_svg,
 )
 from ifccheck.report.wording import (
+    CHECK_WORDS,
     advice,
     change_reasons,
     diff_names,
+    end_words,
+    explanation_sentences,
     fix_words,
     limit_state_words,
+    member_ref,
+    name_guids,
+    sentence,
+    station_text,
 )
-from ifccheck.results import BeamResult, CheckResult, DiffResult, SlabOutline
+from ifccheck.results import BeamResult, CheckResult, DiffResult, SegmentResult, SlabOutline
 
 DETAIL_OTHERS = 200  # most highly utilised non-failing beams given a detail section
 DETAIL_FAILS = 500  # failing beams given a detail section, at most (worst first)
 NO_STOREY = "(no storey)"
+TOLERANCE_WORDS = {
+    "gap": "Connection gap (an end may stop this short of its host)",
+    "elevation_tolerance": "Elevation tolerance beyond the depth overlap",
+    "slab_bearing_tolerance": "Slab bearing tolerance (underside to top of steel)",
+}
+DECK_SOURCE_WORDS = {
+    "inferred": "the framing (beams framing into beams at both ends)",
+    "settings": "the settings",
+    "none": "not found",
+}
+
+# Sorts and filters the beam table; the rows carry their values in data- attributes.
+TABLE_SCRIPT = """
+(() => {
+  "use strict";
+  const table = document.getElementById("beam-table");
+  const form = document.getElementById("beam-filters");
+  if (!table || !form) return;
+  const body = table.tBodies[0];
+  const rows = Array.from(body.rows);
+  const storey = document.getElementById("filter-storey");
+  const outcome = document.getElementById("filter-outcome");
+  const text = document.getElementById("filter-text");
+  const count = document.getElementById("beam-count");
+  form.hidden = false;
+  form.addEventListener("submit", (e) => e.preventDefault());
+  function apply() {
+    const s = storey.value, o = outcome.value, q = text.value.trim().toLowerCase();
+    let shown = 0;
+    for (const r of rows) {
+      const d = r.dataset;
+      const found = !q || [d.name, d.guid, d.profile].some((v) => v.toLowerCase().includes(q));
+      const ok = (!s || d.storey === s) && (!o || d.outcome === o) && found;
+      r.hidden = !ok;
+      if (ok) shown += 1;
+    }
+    count.textContent = shown + " of " + rows.length + " beams";
+  }
+  storey.addEventListener("change", apply);
+  outcome.addEventListener("change", apply);
+  text.addEventListener("input", apply);
+  let key = null, dir = 1;
+  for (const button of table.querySelectorAll("button.sort")) {
+    button.addEventListener("click", () => {
+      dir = key === button.dataset.key ? -dir : 1;
+      key = button.dataset.key;
+      const number = button.dataset.kind === "number";
+      const value = (r) => {
+        const v = r.dataset[key] || "";
+        return number ? (v === "" ? -Infinity : parseFloat(v)) : v.toLowerCase();
+      };
+      rows.sort((a, b) => {
+        const x = value(a), y = value(b);
+        return (x < y ? -1 : x > y ? 1 : 0) * dir;
+      });
+      body.append(...rows);
+      for (const th of table.tHead.rows[0].cells) th.removeAttribute("aria-sort");
+      button.parentElement.setAttribute("aria-sort", dir > 0 ? "ascending" : "descending");
+    });
+  }
+  apply();
+})();
+"""
+# For a Content-Security-Policy that lets this script, and nothing else, run.
+TABLE_SCRIPT_HASH = "sha256-" + base64.b64encode(
+    hashlib.sha256(TABLE_SCRIPT.encode("utf-8")).digest()
+).decode("ascii")
 
 CSS = """
 body{font-family:system-ui,-apple-system,"Segoe UI",Roboto,sans-serif;margin:0;color:#1d1d1d;
@@ -61,7 +151,7 @@ th{background:#f0f0f0}
 td.num{text-align:right;font-variant-numeric:tabular-nums}
 .caution{border-left:5px solid #444;background:#fff;padding:8px 12px;margin:1em 0}
 .outcome{display:inline-block;padding:0 6px;border-radius:3px;font-size:.9em}
-.outcome-fail{background:#1a1a1a;color:#fff}
+.outcome-fail{background:#ed492c;color:#000;font-weight:600}
 .outcome-pass{background:#e6e6e6}
 .outcome-not_checked{border:1px dashed #777}
 figure{margin:1em 0;background:#fff;border:1px solid #ddd;padding:8px;overflow-x:auto}
@@ -75,10 +165,30 @@ tr.governing td{font-weight:600}
 .swatch{display:inline-block;width:.9em;height:.9em;margin-right:.35em;vertical-align:-.1em;
 border:1px solid #0003}
 td.utilisation{white-space:nowrap}
+.lead{font-size:1.08em}
+.side-by-side{display:flex;gap:24px;flex-wrap:wrap;align-items:flex-start}
+.attention{flex:1;min-width:320px}
+.attention h3{margin-top:.4em}
+.defaults{border-left:5px solid #b36b00;background:#fff;padding:6px 12px}
+.why{background:#fff6f4;border-left:5px solid #ed492c;padding:4px 12px;margin:.6em 0}
+.why h4{margin:.4em 0}
+details.trail{margin:.8em 0}
+details summary{cursor:pointer;font-weight:600}
+form.filters{display:flex;gap:14px;flex-wrap:wrap;align-items:center;margin:.6em 0}
+form.filters input,form.filters select{font:inherit;padding:2px 4px}
+button.sort{font:inherit;font-weight:600;border:0;background:none;padding:0;cursor:pointer;
+text-align:left}
+button.sort::after{content:" ↕";color:#888}
+th[aria-sort=ascending] button.sort::after{content:" ↑";color:#000}
+th[aria-sort=descending] button.sort::after{content:" ↓";color:#000}
+td.guid code{font-size:.85em}
+tr[hidden]{display:none}
 """
 
 
-def _page(title: str, heading: str, subtitle: str, sections: Iterable[str]) -> str:
+def _page(
+    title: str, heading: str, subtitle: str, sections: Iterable[str], script: str = ""
+) -> str:
     return (
         "<!DOCTYPE html>\n"
         '<html lang="en"><head><meta charset="utf-8">'
@@ -86,7 +196,9 @@ def _page(title: str, heading: str, subtitle: str, sections: Iterable[str]) -> s
         f"<title>{escape(title)}</title><style>{CSS}</style></head><body>"
         f"<header><h1>{escape(heading)}</h1><p>{escape(subtitle)}</p></header><main>"
         + "".join(sections)
-        + "</main></body></html>\n"
+        + "</main>"
+        + (f"<script>{script}</script>" if script else "")
+        + "</body></html>\n"
     )
 
 
@@ -97,9 +209,10 @@ def _table(
 
     Row ``marked`` (an index) gets the class "governing".
     """
-    out = [f'<table class="{cls}"><thead><tr>']
-    out += [f"<th>{escape(h)}</th>" for h in head]
-    out.append("</tr></thead><tbody>")
+    out = [f'<table class="{cls}">']
+    if any(head):
+        out += ["<thead><tr>", *(f"<th>{escape(h)}</th>" for h in head), "</tr></thead>"]
+    out.append("<tbody>")
     for i, row in enumerate(rows):
         out.append('<tr class="governing">' if i == marked else "<tr>")
         out.append("".join(c if c.startswith("<td") else f"<td>{c}</td>" for c in row))
@@ -171,18 +284,9 @@ def detail_beams(result: CheckResult) -> tuple[list[BeamResult], str]:
 
 
 # --- check report ---------------------------------------------------------------
-def _summary_section(result: CheckResult) -> str:
+def _summary_section(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
     s = result.summary()
     m = result.model
-    facts = [
-        ("Model", escape(m.file)),
-        ("IFC schema", escape(m.schema)),
-        ("Model SHA-256", f"<code>{escape(m.sha256)}</code>"),
-        ("Standard", escape(result.standard)),
-        ("Method", escape(result.method)),
-        ("Checked at", escape(result.checked_at)),
-        ("Tool", escape(f"{result.tool} {result.version}")),
-    ]
     counts = _table(
         ["Outcome", "Beams"],
         [
@@ -197,18 +301,183 @@ def _summary_section(result: CheckResult) -> str:
     out.append(
         f'<div class="caution"><strong>Caution.</strong> {escape(result.caution or CAUTION)}</div>'
     )
-    out.append(counts)
-    out.append(_table(["", ""], [[f"<strong>{k}</strong>", v] for k, v in facts], "facts"))
+    out.append(
+        f'<p class="lead">{escape(result.project or m.file)}: {s["total"]} beams checked to '
+        f"{escape(result.standard)} {escape(result.method)}, {s['pass']} pass, "
+        f"{s['fail']} fail, {s['not_checked']} not checked.</p>"
+    )
+    out.append('<div class="side-by-side">' + counts + _attention_list(result, linked) + "</div>")
+    line = defaults_line(result, du)
+    if line:
+        out.append(f'<p class="defaults"><strong>Defaults.</strong> {escape(sentence(line))}</p>')
     if result.warnings:
         shown = result.warnings[:50]
+        names = result.names
         out.append("<h3>Warnings</h3><ul>")
-        out += [f"<li>{escape(msg)} <code>{escape(g)}</code></li>" for g, msg in shown]
+        for g, msg in shown:
+            who = f"{escape(member_ref(g, names))}: " if g else ""
+            out.append(f"<li>{who}{escape(name_guids(msg, names, with_guid=False))}</li>")
         out.append("</ul>")
         if len(result.warnings) > len(shown):
             out.append(f'<p class="note">and {len(result.warnings) - len(shown)} more '
                        "(all are in the JSON results).</p>")  # fmt: skip
     out.append("</section>")
     return "".join(out)
+
+
+def _attention_list(result: CheckResult, linked: set[str], limit: int = 12) -> str:
+    """The failing beams (worst first) and the not-checked ones, linked to their details."""
+    fails = sorted((b for b in result.beams if b.outcome == "fail"), key=_most_utilised)
+    nots = [b for b in result.beams if b.outcome == "not_checked"]
+    if not fails and not nots:
+        return '<p class="attention">Every checked beam passes.</p>'
+    items = []
+    for b in [*fails, *nots][:limit]:
+        name = escape(b.name or b.guid)
+        if b.guid in linked:
+            name = f'<a href="#beam-{attr(b.guid)}">{name}</a>'
+        elif b.outcome == "not_checked":
+            name = f'<a href="#not-checked">{name}</a>'
+        what = (
+            f"fails, utilisation {utilisation_text(b.utilisation)} in "
+            f"{escape(_controlling_words(b))}"
+            if b.outcome == "fail"
+            else f"not checked: {escape(b.reason.text if b.reason else 'no reason recorded')}"
+        )
+        items.append(f"<li>{name} ({escape(b.storey)}): {what}</li>")
+    more = len(fails) + len(nots) - limit
+    tail = f"<li>and {more} more (see the beam table)</li>" if more > 0 else ""
+    return (
+        '<div class="attention"><h3>Needs attention</h3><ul>'
+        + "".join(items)
+        + tail
+        + "</ul></div>"
+    )
+
+
+def _controlling_words(b: BeamResult) -> str:
+    seg = b.governing
+    if b.controlling_limit == "flexure" and seg is not None:
+        return limit_state_words(seg.limit_state)
+    return CHECK_WORDS.get(b.controlling_limit, b.controlling_limit)
+
+
+def _basis_section(result: CheckResult, du: DisplayUnits) -> str:
+    """What the check assumed and ran with: the design basis, first after the summary."""
+    m = result.model
+    s = result.settings
+    out = ['<section id="basis"><h2>Design basis</h2>']
+    source = s.get("source")
+    facts = [
+        ("Project", escape(result.project or m.file)),
+        ("Model", f"{escape(m.file)} ({escape(m.schema)}, length unit {escape(m.length_unit)})"),
+        ("Model SHA-256", f"<code>{escape(m.sha256)}</code>"),
+        ("Standard and method", escape(f"{result.standard}, {result.method}")),
+        ("Settings", escape(source) if source else "none given: the documented defaults"),
+        ("Checked at", escape(result.checked_at)),
+        ("Tool", escape(f"{result.tool} {result.version}")),
+    ]
+    out.append(_table(["", ""], [[f"<strong>{k}</strong>", v] for k, v in facts], "facts"))
+    loads = level_loads(result)
+    if loads:
+        out.append("<h3>Loads per level</h3>")
+        out.append(
+            _table(
+                ["Level", "Case", "Load", f"Pressure ({du.label('pressure')})", "From"],
+                [[escape(x.level), escape(x.case), escape(x.what),
+                  f'<td class="num">{du.trade_number(x.pressure, "pressure")}</td>',
+                  escape(load_source_text(du, x, result))] for x in loads],
+                "loads",
+            )
+        )  # fmt: skip
+        density = float(s.get("loads", {}).get("steel_density", 7850.0))
+        out.append(
+            f'<p class="note">Steel self-weight is added on every beam from its section area '
+            f"at {escape(density_text(du, density))}.</p>"
+        )
+    out.append("<h3>Load combinations</h3>")
+    out.append(
+        _table(
+            ["Combination", "Used for", "Source"],
+            [[escape(c.name), escape("strength" if c.purpose == "strength" else
+                                     "deflection (serviceability)"), escape(c.source)]
+             for c in combinations(result.method)],
+            "combinations",
+        )
+    )  # fmt: skip
+    deflection = s.get("deflection", {})
+    framing = s.get("framing", {})
+    limits = [
+        ("Live-load deflection", f"span / {float(deflection.get('live', 360)):g}"),
+        ("Total-load deflection", f"span / {float(deflection.get('total', 240)):g}"),
+        ("Cantilevers", "twice the overhang length in place of the span"),
+    ] + [
+        (TOLERANCE_WORDS.get(k, k), du.trade(float(v), "thickness"))
+        for k, v in framing.items()
+        if isinstance(v, int | float)
+    ]
+    out.append("<h3>Deflection limits and tolerances</h3>")
+    out.append(_table(["", ""], [[escape(k), escape(v)] for k, v in limits], "limits"))
+    out.append("<h3>Assumptions</h3><ul>")
+    out += [f"<li>{escape(text)}</li>" for _code, text in assumptions(result)]
+    out.append("</ul>")
+    if result.levels:
+        out.append("<h3>Deck direction per level</h3>")
+        out.append(
+            _table(
+                ["Level", "Deck spans", "Found from", "Typical beam spacing"],
+                [[escape(lv.name),
+                  escape("–" if lv.deck_angle is None else f"{lv.deck_angle:.0f}° from x"),
+                  escape(DECK_SOURCE_WORDS.get(lv.deck_source, lv.deck_source)),
+                  escape(du.text(lv.typical_spacing, "length"))] for lv in result.levels],
+            )
+        )  # fmt: skip
+    assumed = [
+        (ASSUMED_WORDS.get(k, k.replace("_", " ")), n) for k, n in result.assumptions.items()
+    ]
+    grade = assumed_grade(result)
+    out.append("<h3>What was assumed</h3>")
+    out.append(
+        _table(["Assumed rather than read from the model", "Count"],
+               [[escape(w), _num(n, 0)] for w, n in assumed], "assumed")
+    )  # fmt: skip
+    if grade:
+        out.append(
+            f'<p class="note">{grade["count"]} beams were checked on grade '
+            f"{escape(grade['grade'])}, the settings' default: the model names no grade for "
+            "them.</p>"
+        )
+    if result.load_balance:
+        out.append("<h3>Load balance</h3><p class='note'>Floor load applied to each level and "
+                   "delivered to the members that carry it, per load case.</p>")  # fmt: skip
+        out.append(
+            _table(
+                ["Level", "Case", f"Applied ({du.label('force')})",
+                 f"Delivered ({du.label('force')})", "Difference"],
+                [[escape(x.level), escape(x.case), _qty(du, x.applied, "force", 1),
+                  _qty(du, x.delivered, "force", 1),
+                  _pct(x.delivered - x.applied, x.applied)] for x in result.load_balance],
+                "balance",
+            )
+        )  # fmt: skip
+    settings = settings_list(s)
+    out.append("<details><summary>Every setting the check ran with</summary>")
+    out.append(
+        _table(
+            ["Setting", "Value", ""],
+            [[f"<code>{escape(x.key)}</code>", escape(setting_text(du, x)),
+              "default" if x.default else "set in the settings file"] for x in settings],
+            "settings",
+        )
+    )  # fmt: skip
+    out.append("</details></section>")
+    return "".join(out)
+
+
+def _pct(diff: float, base: float) -> str:
+    if not base:
+        return '<td class="num">–</td>'
+    return f'<td class="num">{100 * diff / base:+.2f} %</td>'
 
 
 def _plans_section(
@@ -238,34 +507,90 @@ def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
         name = escape(b.name or b.guid)
         if b.guid in linked:
             name = f'<a href="#beam-{attr(b.guid)}">{name}</a>'
-        rows.append([
-            name, escape(b.storey), escape(b.profile), _outcome(b.outcome),
-            _utilisation_cell(b.utilisation), escape(b.controlling_limit),
-            _qty(du, seg.lb if seg else None, "length"), _num(seg.cb if seg else None),
-            escape(limit_state_words(seg.limit_state)) if seg else "",
-            _qty(du, seg.moment_demand if seg else None, "moment", 1),
-            _qty(du, seg.moment_capacity if seg else None, "moment", 1),
-        ])  # fmt: skip
+        u = "" if b.utilisation is None else f"{b.utilisation:.6f}"
+        lb = "" if seg is None else ("0" if seg.continuous else f"{seg.lb:.6f}")
+        rows.append(
+            f'<tr data-guid="{attr(b.guid)}" data-name="{attr(b.name)}" '
+            f'data-storey="{attr(b.storey or NO_STOREY)}" data-outcome="{attr(b.outcome)}" '
+            f'data-profile="{attr(b.profile)}" data-utilisation="{u}" data-lb="{lb}">'
+            + "".join(
+                c if c.startswith("<td") else f"<td>{c}</td>"
+                for c in [
+                    name, escape(b.storey), escape(b.profile), _outcome(b.outcome),
+                    _utilisation_cell(b.utilisation), escape(_controlling_words(b)),
+                    _lb_cell(seg, du), _num(seg.cb if seg else None),
+                    _qty(du, seg.moment_demand if seg else None, "moment", 1),
+                    _qty(du, seg.moment_capacity if seg else None, "moment", 1),
+                    f'<td class="guid"><code>{escape(b.guid)}</code></td>',
+                ]
+            )
+            + "</tr>"
+        )  # fmt: skip
     head = [
-        "Beam", "Storey", "Profile", "Outcome", "Utilisation", "Controlling limit",
-        f"Lb ({du.label('length')})", "Cb", "Limit state",
-        f"Moment ({du.label('moment')})", f"{strength} ({du.label('moment')})",
+        ("Beam", "name", "text"), ("Storey", "storey", "text"), ("Profile", "profile", "text"),
+        ("Outcome", "outcome", "text"), ("Utilisation", "utilisation", "number"),
+        ("Controlling limit", "", ""), (f"Lb ({du.label('length')})", "lb", "number"),
+        ("Cb", "", ""), (f"Moment ({du.label('moment')})", "", ""),
+        (f"{strength} ({du.label('moment')})", "", ""), ("GUID", "guid", "text"),
     ]  # fmt: skip
+    cells = []
+    for label, key, kind in head:
+        if key:
+            cells.append(
+                f'<th><button type="button" class="sort" data-key="{key}" data-kind="{kind}">'
+                f"{escape(label)}</button></th>"
+            )
+        else:
+            cells.append(f"<th>{escape(label)}</th>")
+    storeys = _storey_order(result.storeys, {b.storey or NO_STOREY for b in result.beams})
+    storey_options = "".join(f'<option value="{attr(n)}">{escape(n)}</option>' for n in storeys)
+    controls = (
+        '<form class="filters" id="beam-filters" hidden>'
+        '<label>Storey <select id="filter-storey"><option value="">all</option>'
+        f"{storey_options}</select></label>"
+        '<label>Outcome <select id="filter-outcome"><option value="">all</option>'
+        '<option value="fail">fail</option><option value="pass">pass</option>'
+        '<option value="not_checked">not checked</option></select></label>'
+        '<label>Find <input type="search" id="filter-text" '
+        'placeholder="name, GUID or profile" autocomplete="off"></label>'
+        f'<span id="beam-count" class="note">{len(beams)} of {len(beams)} beams</span></form>'
+    )
     return (
         '<section id="beams"><h2>Beams</h2><p>Every beam, failing first, then by utilisation. '
-        "Lb, Cb and moments are those of the governing unbraced segment.</p>"
-        + _table(head, rows, "beams")
-        + "</section>"
+        "Lb, Cb and moments are those of the governing unbraced segment. Select a column "
+        "heading to sort by it; narrow the list by storey, outcome or a name.</p>"
+        + controls
+        + '<table class="beams" id="beam-table"><thead><tr>'
+        + "".join(cells)
+        + "</tr></thead><tbody>"
+        + "".join(rows)
+        + "</tbody></table></section>"
     )
+
+
+def _lb_cell(seg: SegmentResult | None, du: DisplayUnits) -> str:
+    if seg is None:
+        return '<td class="num">–</td>'
+    if seg.continuous:
+        return '<td class="num">continuous (slab)</td>'
+    return _qty(du, seg.lb, "length")
+
+
+def _lb_value(du: DisplayUnits, lb: float | None) -> str:
+    """A governing Lb; 0 is a length braced throughout by the slab."""
+    if lb == 0.0:
+        return '<td class="num">continuous (slab)</td>'
+    return _qty(du, lb, "length")
 
 
 def _not_checked_section(result: CheckResult) -> str:
     beams = [b for b in result.beams if b.outcome == "not_checked"]
     if not beams:
         return ""
+    names = result.names
     rows = [
         [escape(b.name or b.guid), escape(b.storey), escape(b.profile),
-         escape(reason_text(b.reason)), escape(advice(b.reason)),
+         escape(name_guids(reason_text(b.reason), names)), escape(advice(b.reason)),
          f"<code>{escape(b.guid)}</code>"]
         for b in beams
     ]  # fmt: skip
@@ -276,7 +601,7 @@ def _not_checked_section(result: CheckResult) -> str:
     )
 
 
-def _demand_html(b: BeamResult, du: DisplayUnits) -> str:
+def _demand_html(b: BeamResult, du: DisplayUnits, names: dict[str, str]) -> str:
     d = b.demand
     if d is None:
         return ""
@@ -292,7 +617,8 @@ def _demand_html(b: BeamResult, du: DisplayUnits) -> str:
             _table(
                 ["Case", f"Line load ({du.label('line load')})", "From", "To", "Source"],
                 [[escape(ll.case), _qty(du, ll.intensity, "line load", 3),
-                  _qty(du, ll.start, "length"), _qty(du, ll.end, "length"), escape(ll.source)]
+                  _qty(du, ll.start, "length"), _qty(du, ll.end, "length"),
+                  escape(name_guids(ll.source, names))]
                  for ll in d.line_loads],
             )
         )  # fmt: skip
@@ -301,13 +627,62 @@ def _demand_html(b: BeamResult, du: DisplayUnits) -> str:
             _table(
                 ["Case", f"Point load ({du.label('force')})", "Station", "Delivered by"],
                 [[escape(p.case), _qty(du, p.force, "force", 2), _qty(du, p.station, "length"),
-                  f"<code>{escape(p.source)}</code>"] for p in d.point_loads],
+                  escape(member_ref(p.source, names))] for p in d.point_loads],
             )
         )  # fmt: skip
     return "".join(out)
 
 
-def _beam_article(b: BeamResult, du: DisplayUnits, method: str) -> str:
+def _trail_html(b: BeamResult, du: DisplayUnits, method: str) -> str:
+    """The hand-check trail: the figures of the governing segment's strength, with equations."""
+    t = b.trail
+    if t is None:
+        return ""
+    v = t.values
+    seg = b.governing
+    strength = _strength_label(method)
+    rows = [
+        ("Fy", du.trade(v["fy"], "stress"), "yield stress of the grade"),
+        ("E", du.trade(v["e"], "stress"), "modulus of elasticity"),
+        ("Zx", du.section(v["zx"], "modulus"), "plastic modulus"),
+        ("Sx", du.section(v["sx"], "modulus"), "elastic modulus"),
+        ("ry", du.section(v["ry"], "section length"), "radius of gyration, minor axis"),
+        ("rts", du.section(v["rts"], "section length"), "effective radius of gyration, F2-7"),
+        ("J", du.section(v["j"], "inertia"), "torsional constant"),
+        ("ho", du.section(v["ho"], "section length"), "distance between flange centroids"),
+        ("c", f"{v['c']:.3f}", "F2-8a (I-shape) or F2-8b (channel)"),
+        ("Mp", du.text(v["mp"], "moment", 1), "Fy Zx, F2-1"),
+        ("0.7 Fy Sx", du.text(v["mr"], "moment", 1), "moment at Lr"),
+        ("Lp", du.text(v["lp"], "length"), "F2-5"),
+        ("Lr", du.text(v["lr"], "length"), "F2-6"),
+        ("Lb", "continuous (slab)" if seg is not None and seg.continuous
+         else du.text(v["lb"], "length"), "the governing segment"),
+        ("Cb", f"{v['cb']:.3f}", "F1-1" if seg is not None and not seg.continuous else "1.0"),
+    ]  # fmt: skip
+    if "fcr" in v:
+        rows.append(("Fcr", du.trade(v["fcr"], "stress"), "F2-4 at this Lb and Cb"))
+    rows += [
+        ("Mn", du.text(v["mn"], "moment", 1), limit_state_words(t.limit_state)),
+        (t.factor_symbol, f"{t.factor:.2f}", "resistance factor" if method.upper() == "LRFD"
+         else "safety factor"),
+        (strength, du.text(v["design_strength"], "moment", 1), "design strength"),
+        ("Mu" if method.upper() == "LRFD" else "Ma", du.text(v["moment_demand"], "moment", 1),
+         "moment demand, governing combination"),
+    ]  # fmt: skip
+    return (
+        '<details class="trail"><summary>Hand-check trail</summary>'
+        + _table(
+            ["Quantity", "Value", "Note"],
+            [[escape(a), escape(x), escape(n)] for a, x, n in rows],
+            "trail",
+        )
+        + "<p class='note'>Equations used:</p><ul class='equations'>"
+        + "".join(f"<li>{escape(e)}</li>" for e in t.equations)
+        + "</ul></details>"
+    )
+
+
+def _beam_article(b: BeamResult, du: DisplayUnits, method: str, names: dict[str, str]) -> str:
     strength = _strength_label(method)
     out = [f'<article class="beam" id="beam-{attr(b.guid)}">']
     out.append(
@@ -318,19 +693,31 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str) -> str:
     facts = _table(
         [f"Span ({du.label('length')})", f"Fy ({du.label('stress')})", "Utilisation",
          "Strength", "Flexure", "Shear", "Deflection", "Controlling limit"],
-        [[_qty(du, b.span, "length"), _qty(du, b.fy, "stress", 1),
+        [[_qty(du, b.span, "length"), f'<td class="num">{du.trade_number(b.fy, "stress")}</td>',
           _utilisation_cell(b.utilisation), _utilisation_cell(b.strength_utilisation),
           _utilisation_cell(b.flexure_utilisation), _utilisation_cell(b.shear_utilisation),
-          _utilisation_cell(b.deflection_utilisation), escape(b.controlling_limit)]],
+          _utilisation_cell(b.deflection_utilisation), escape(_controlling_words(b))]],
     )  # fmt: skip
     out.append(facts)
     if b.outcome == "fail":
-        out.append(f'<p class="fix">{escape(fix_words(b, du))}</p>')
+        why = explanation_sentences(b, du, names)
+        if why:
+            out.append(
+                '<div class="why"><h4>Why it fails and what would make it pass</h4><ul>'
+                + "".join(f"<li>{escape(x)}</li>" for x in why)
+                + "</ul></div>"
+            )
+        else:
+            out.append(f'<p class="fix">{escape(fix_words(b, du))}</p>')
+    ends = (
+        f"Stations are measured from {escape(end_words(b, 'start'))} "
+        f"(the beam's start) towards {escape(end_words(b, 'end'))}."
+    )
     rows = []
     for i, s in enumerate(b.segments):
         cells = [
             _num(i + 1, 0), _qty(du, s.start, "length"), _qty(du, s.end, "length"),
-            _qty(du, s.lb, "length"), _num(s.cb),
+            _lb_cell(s, du), _num(s.cb),
             escape(s.flange + (" (slab)" if s.continuous else "")),
             _qty(du, s.moment_demand, "moment", 1), _qty(du, s.moment_capacity, "moment", 1),
             _utilisation_cell(s.utilisation), escape(limit_state_words(s.limit_state)),
@@ -345,7 +732,7 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str) -> str:
             "Limit state", "Load combination",
         ]  # fmt: skip
         table = _table(head, rows, "segments", marked=b.governing_segment)
-        out.append("<h4>Unbraced segments</h4>" + table)
+        out.append(f"<h4>Unbraced segments</h4><p class='note'>{ends}</p>" + table)
     charts = []
     moment = moment_diagram_svg(b, du)
     if moment:
@@ -358,25 +745,31 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str) -> str:
     if curve:
         charts.append(
             f"<figure>{curve}<figcaption>Design strength {strength} against unbraced length "
-            "for this section and the governing segment's Cb; the marker is the governing "
-            "segment at its Lb and moment (a cross where it fails).</figcaption></figure>"
+            "for this section and the governing segment's Cb, with Lp and Lr marked; the "
+            "marker is the governing segment at its Lb and moment (a cross where it fails)."
+            "</figcaption></figure>"
         )
     out += charts
+    out.append(_trail_html(b, du, method))
     if b.brace_points:
         out.append(
             "<h4>Brace points</h4>"
             + _table(
-                [f"Station ({du.label('length')})", "Kind", "Flange", "Counts", "By", "Why not"],
-                [[_qty(du, p.station, "length"), escape(p.kind), escape(p.flange),
-                  "yes" if p.counts else "no",
-                  (f"{escape(p.by_name)} " if p.by_name else "") + f"<code>{escape(p.by)}</code>",
-                  escape(reason_text(p.reason))]
+                [f"Station ({du.label('length')})", "From the nearer end", "Kind", "Flange",
+                 "Counts", "By", "Why not"],
+                [[_qty(du, p.station, "length"), escape(station_text(b, p.station, du)),
+                  escape(p.kind), escape(p.flange), "yes" if p.counts else "no",
+                  escape(member_ref(p.by, {p.by: p.by_name} if p.by_name else names)),
+                  escape(name_guids(reason_text(p.reason), names, with_guid=False))]
                  for p in sorted(b.brace_points, key=lambda p: p.station)],
             )
         )  # fmt: skip
-    out.append(_demand_html(b, du))
+    out.append(_demand_html(b, du, names))
     if b.notes:
-        out.append("<h4>Notes</h4><ul>" + "".join(f"<li>{escape(n)}</li>" for n in b.notes))
+        out.append(
+            "<h4>Notes</h4><ul>"
+            + "".join(f"<li>{escape(name_guids(n, names))}</li>" for n in b.notes)
+        )
         out.append("</ul>")
     out.append("</article>")
     return "".join(out)
@@ -389,32 +782,36 @@ def report_html(result: CheckResult, units: str) -> str:
     linked = {b.guid for b in details}
     beams_by = _by_storey(result.beams, lambda b: b.storey)
     slabs_by = _by_storey(result.slabs, lambda s: s.storey)
+    names = result.names
 
     def draw(name, beams, slabs):
         return check_plan_svg(beams, slabs, du, linked, f"Plan of {name}")
 
     intro = (
         "Beams coloured by their utilisation (demand over strength) in steps; failing beams "
-        "are red with a dark casing and a label, beams not checked are grey and dashed. "
-        "Dots are brace points, hollow where a brace does not count; blue bands mark "
-        "lengths braced by a slab. "
-        "Select a beam for its details."
+        "are red with a dark casing and a label, beams not checked are grey, dashed and "
+        "labelled. Dots are brace points, hollow where a brace does not count; blue bands "
+        "mark lengths braced by a slab. Hover over a beam for its name and figures; select "
+        "it for its details."
     )
     sections = [
-        _summary_section(result),
+        _summary_section(result, du, linked),
+        _basis_section(result, du),
         _plans_section(result.storeys, beams_by, slabs_by, draw, check_legend_svg(), intro),
         _beam_table(result, du, linked),
         _not_checked_section(result),
         f'<section id="details"><h2>Beam details</h2><p class="note">{escape(note)}</p>'
-        + "".join(_beam_article(b, du, result.method) for b in details)
+        + "".join(_beam_article(b, du, result.method, names) for b in details)
         + "</section>",
         f'<footer><p class="note">{escape(result.caution or CAUTION)}</p></footer>',
     ]
     return _page(
         f"Beam check: {result.model.file}",
         "Beam check report",
-        f"{result.model.file} · {result.standard} {result.method} · {result.checked_at}",
+        f"{result.project or result.model.file} · {result.standard} {result.method} · "
+        f"{result.checked_at}",
         sections,
+        script=TABLE_SCRIPT,
     )
 
 
@@ -441,10 +838,17 @@ def _diff_summary_section(diff: DiffResult) -> str:
         ["Added beams", _num(s["added"], 0)],
         ["Removed beams", _num(s["removed"], 0)],
     ]
+    apart = ""
+    if diff.old.beams and diff.new.beams and not diff.matched:
+        apart = (
+            '<p class="defaults"><strong>Warning.</strong> The two files share no beams (by '
+            "GUID or by position): they are probably not revisions of one model.</p>"
+        )
     return (
         '<section id="summary"><h2>Summary</h2>'
         '<div class="caution"><strong>Caution.</strong> '
         f"{escape(diff.new.caution or CAUTION)}</div>"
+        + apart
         + _table(["", "Model", "Checked at"], rows, "revisions")
         + _table(["", "Beams"], counts, "counts")
         + f'<p class="note">{escape(diff.new.standard)} {escape(diff.new.method)}</p></section>'
@@ -463,14 +867,15 @@ def _changes_section(diff: DiffResult, du: DisplayUnits) -> str:
     order = {"weakened": 0, "changed": 1, "strengthened": 2}
     changes = sorted(diff.changes, key=lambda c: (order.get(c.change, 3), c.storey, c.name))
     names = diff_names(diff)
+    beams = {b.guid: b for b in diff.new.beams}
     stations = lambda xs: escape(", ".join(du.number(s, "length") for s in xs))  # noqa: E731
     rows = [
         [escape(c.name or c.guid), escape(c.storey), _change(c.change),
          escape(f"{c.outcome_before or '–'} → {c.outcome_after or '–'}"),
          _utilisation_cell(c.utilisation_before), _utilisation_cell(c.utilisation_after),
-         _qty(du, c.lb_before, "length"), _qty(du, c.lb_after, "length"),
+         _lb_value(du, c.lb_before), _lb_value(du, c.lb_after),
          stations(c.lost_brace_points), stations(c.added_brace_points),
-         escape("; ".join(change_reasons(c, du, names)))]
+         escape("; ".join(change_reasons(c, du, names, beams.get(c.guid))))]
         for c in changes
     ]  # fmt: skip
     lu = du.label("length")

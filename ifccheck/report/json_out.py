@@ -20,8 +20,14 @@ from typing import Any
 from ifccheck.atomic import write_text
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import reason_code, reason_text
+from ifccheck.report.basis import assumed_grade, basis_document
 from ifccheck.report.display import DisplayUnits
-from ifccheck.report.wording import change_reasons, diff_names
+from ifccheck.report.wording import (
+    cause_sentence,
+    change_reasons,
+    diff_names,
+    explanation_sentences,
+)
 from ifccheck.results import (
     BeamChange,
     BeamResult,
@@ -138,8 +144,77 @@ def demand_dict(d: DemandOut | None) -> dict[str, Any] | None:
     }
 
 
-def beam_dict(b: BeamResult, detail: bool = False) -> dict[str, Any]:
-    """One beam of the results document; ``detail`` adds the diagram and the curve."""
+def explanation_dict(
+    b: BeamResult, du: DisplayUnits | None = None, names: Mapping[str, str] | None = None
+) -> dict[str, Any] | None:
+    """Why a beam fails or is not checked and what would fix it: SI, plus the words."""
+    e = b.explanation
+    if e is None:
+        return None
+    names = names or {}
+    shape = e.lighter_shape
+    return {
+        "causes": [
+            {
+                "kind": c.kind.value,
+                "members": list(c.members),
+                "stations": [num(v) for v in c.stations],
+                "code": c.code,
+                "value": c.value,
+                "text": cause_sentence(b, c, du, names) if du is not None else "",
+            }
+            for c in e.causes
+        ],
+        "segment": e.segment,
+        "largest_passing_lb": num(e.largest_passing_lb),
+        "brace_flange": e.brace_flange,
+        "braces": [
+            {
+                "station": num(x.station),
+                "distance": num(x.distance),
+                "from_end": x.end,
+                "member": x.member,
+                "member_name": x.member_name,
+            }
+            for x in e.braces
+        ],
+        "bracing_helps": e.bracing_helps,
+        "lighter_shape": None
+        if shape is None
+        else {
+            "profile": shape.profile,
+            "mass_per_length": num(shape.mass_per_length),
+            "utilisation": num(shape.utilisation),
+        },
+        "shape_table_searched": e.shape_checked,
+        "text": explanation_sentences(b, du, names) if du is not None else [],
+    }
+
+
+def trail_dict(b: BeamResult) -> dict[str, Any] | None:
+    """The hand-check trail of the governing segment (SI)."""
+    t = b.trail
+    if t is None:
+        return None
+    return {
+        "values": {k: num(v) for k, v in t.values.items()},
+        "limit_state": t.limit_state,
+        "factor": num(t.factor),
+        "factor_symbol": t.factor_symbol,
+        "equations": list(t.equations),
+    }
+
+
+def beam_dict(
+    b: BeamResult,
+    detail: bool = False,
+    du: DisplayUnits | None = None,
+    names: Mapping[str, str] | None = None,
+) -> dict[str, Any]:
+    """One beam of the results document; ``detail`` adds the diagram and the curve.
+
+    ``du`` and ``names`` word the explanation (its numbers stay SI).
+    """
     out: dict[str, Any] = {
         "guid": b.guid,
         "name": b.name,
@@ -147,12 +222,14 @@ def beam_dict(b: BeamResult, detail: bool = False) -> dict[str, Any]:
         "ifc_class": b.ifc_class,
         "profile": b.profile,
         "grade": b.grade,
+        "grade_source": b.grade_source,
         "fy": num(b.fy),
         "start": _point(b.start),
         "end": _point(b.end),
         "length": num(b.length),
         "span": num(b.span),
         "supports": [{"station": num(s.get("station")), "by": s.get("by")} for s in b.supports],
+        "end_members": list(b.end_members),
         "free_ends": list(b.free_ends),
         "brace_points": [
             {
@@ -187,6 +264,8 @@ def beam_dict(b: BeamResult, detail: bool = False) -> dict[str, Any]:
         "reason_code": reason_code(b.reason),
         "notes": list(b.notes),
         "demand": demand_dict(b.demand),
+        "explanation": explanation_dict(b, du, names),
+        "trail": trail_dict(b),
     }
     if detail:
         d = b.diagram
@@ -206,8 +285,14 @@ def beam_dict(b: BeamResult, detail: bool = False) -> dict[str, Any]:
 
 
 def results_document(result: CheckResult, detail: bool = False) -> dict[str, Any]:
-    """The results document as plain JSON data (see docs/outputs.md)."""
+    """The results document as plain JSON data (see docs/outputs.md).
+
+    Quantities are SI; the explanations' sentences are worded in the model's own
+    unit system (``display_units``).
+    """
     m = result.model
+    du = DisplayUnits.for_model(m.length_unit)
+    names = result.names
     return {
         "format": RESULTS_FORMAT,
         "format_version": FORMAT_VERSION,
@@ -224,8 +309,10 @@ def results_document(result: CheckResult, detail: bool = False) -> dict[str, Any
         "checked_at": result.checked_at,
         "units": dict(UNITS),
         "caution": result.caution,
+        "display_units": du.system,
         "settings": jsonable(result.settings),
-        "summary": result.summary(),
+        "summary": results_summary(result),
+        "basis": basis_document(result),
         "storeys": [{"name": n, "elevation": num(z)} for n, z in result.storeys],
         "warnings": [{"guid": g, "message": msg} for g, msg in result.warnings],
         "slabs": [
@@ -237,7 +324,25 @@ def results_document(result: CheckResult, detail: bool = False) -> dict[str, Any
             }
             for s in result.slabs
         ],
-        "beams": [beam_dict(b, detail) for b in result.beams],
+        "beams": [beam_dict(b, detail, du, names) for b in result.beams],
+    }
+
+
+def results_summary(result: CheckResult) -> dict[str, Any]:
+    """Counts by outcome, not-checked beams by reason code, the load balance, the grade assumed."""
+    return {
+        **result.summary(),
+        "not_checked_by_reason": result.not_checked_by_reason(),
+        "load_balance": [
+            {
+                "level": x.level,
+                "case": x.case,
+                "applied": num(x.applied),
+                "delivered": num(x.delivered),
+            }
+            for x in result.load_balance
+        ],
+        "assumed_grade": assumed_grade(result),
     }
 
 
@@ -261,7 +366,10 @@ def adequacy_dict(a: BraceCheckOut | None) -> dict[str, Any] | None:
 
 
 def change_dict(
-    c: BeamChange, du: DisplayUnits | None = None, names: Mapping[str, str] | None = None
+    c: BeamChange,
+    du: DisplayUnits | None = None,
+    names: Mapping[str, str] | None = None,
+    beam: BeamResult | None = None,
 ) -> dict[str, Any]:
     """One changed beam; ``reasons`` are in words in ``du``'s units, ``causes`` in SI."""
     names = names or {}
@@ -283,7 +391,7 @@ def change_dict(
         "lost_supports": list(c.lost_supports),
         "gained_supports": list(c.gained_supports),
         "lost_continuous_bracing": num(c.lost_continuous_bracing),
-        "reasons": change_reasons(c, du, names) if du is not None else [],
+        "reasons": change_reasons(c, du, names, beam) if du is not None else [],
         "causes": [cause_dict(x) for x in c.causes],
     }
 
@@ -342,6 +450,7 @@ def diff_document(diff: DiffResult, units: str | None = None) -> dict[str, Any]:
     """
     du = DisplayUnits.for_model(diff.new.model.length_unit, units)
     names = diff_names(diff)
+    beams = {b.guid: b for b in diff.new.beams}
     changes = sorted(diff.changes, key=lambda c: (_CHANGE_ORDER.get(c.change, 3), c.guid))
     return {
         "format": DIFF_FORMAT,
@@ -359,7 +468,7 @@ def diff_document(diff: DiffResult, units: str | None = None) -> dict[str, Any]:
         "removed": list(diff.removed),
         "summary": diff_summary(diff),
         "display_units": du.system,
-        "beams": {c.guid: change_dict(c, du, names) for c in changes},
+        "beams": {c.guid: change_dict(c, du, names, beams.get(c.guid)) for c in changes},
     }
 
 

@@ -25,6 +25,7 @@ from ifccheck.report.colours import (
     utilisation_colour,
 )
 from ifccheck.report.display import DisplayUnits, utilisation_text
+from ifccheck.report.wording import lb_text, station_text
 from ifccheck.results import BeamChange, BeamResult, SlabOutline
 
 Point2 = tuple[float, float]
@@ -100,24 +101,43 @@ def _line(frame: Frame, a: Point2, b: Point2, extra: str) -> str:
     return f'<line x1="{_f(x1)}" y1="{_f(y1)}" x2="{_f(x2)}" y2="{_f(y2)}" {extra}/>'
 
 
-def _label(frame: Frame, b: BeamResult, text: str, colour: str = "#000") -> str:
+LABEL_CHAR = 6.6  # px per character of an 11 px label (a generous average, so labels fit)
+
+
+def _label(frame: Frame, b: BeamResult, text: str, colour: str = "#000", cls: str = "label") -> str:
+    """A label beside the beam's midpoint, kept wholly inside the drawing."""
     mx, my = frame.px(*_along(b, b.length / 2))
+    (x0, y0), (x1, y1) = frame.px(b.start[0], b.start[1]), frame.px(b.end[0], b.end[1])
+    w = LABEL_CHAR * len(text)
+    if abs(x1 - x0) >= abs(y1 - y0):  # along x: above the line, centred
+        x = min(max(mx, w / 2 + 2), frame.width - w / 2 - 2)
+        y = my - 7 if my - 7 >= 12 else my + 15
+        anchor = "middle"
+    elif mx + 6 + w <= frame.width - 2:  # along y: to the right
+        x, y, anchor = mx + 6, my + 4, "start"
+    else:  # to the left, where the right would run off the drawing
+        x, y, anchor = max(mx - 6, w + 2), my + 4, "end"
+    y = min(max(y, 12.0), frame.height - 4)
     return (
-        f'<text class="label" x="{_f(mx + 4)}" y="{_f(my - 6)}" fill="{colour}" '
+        f'<text class="{cls}" x="{_f(x)}" y="{_f(y)}" text-anchor="{anchor}" fill="{colour}" '
         f'stroke="#fff" stroke-width="3" paint-order="stroke" font-size="11">'
         f"{escape(text)}</text>"
     )
 
 
-def _brace_marks(frame: Frame, b: BeamResult) -> list[str]:
+def _brace_marks(frame: Frame, b: BeamResult, du: DisplayUnits) -> list[str]:
     out = []
     for p in b.brace_points:
         x, y = frame.px(*_along(b, p.station))
         fill = "#222" if p.counts else "#fff"
         cls = "brace" if p.counts else "brace brace-void"
+        by = f"{p.by_name} ({p.by})" if p.by_name else p.by
+        tip = f"{b.name or b.guid}: {p.kind} brace at {station_text(b, p.station, du)} by {by}"
+        if not p.counts:
+            tip += f"; does not count: {p.reason.text if p.reason else 'no reason recorded'}"
         out.append(
             f'<circle class="{cls}" cx="{_f(x)}" cy="{_f(y)}" r="3.2" fill="{fill}" '
-            f'stroke="#222" stroke-width="1.2"/>'
+            f'stroke="#222" stroke-width="1.2"><title>{escape(tip)}</title></circle>'
         )
     return out
 
@@ -128,7 +148,7 @@ def beam_tooltip(b: BeamResult, du: DisplayUnits) -> str:
         parts.append(f"utilisation {utilisation_text(b.utilisation)}")
     seg = b.governing
     if seg is not None:
-        parts.append(f"Lb {du.text(seg.lb, 'length')}")
+        parts.append(f"Lb {lb_text(seg, du)}")
     if b.reason is not None:
         parts.append(b.reason.text)
     return " · ".join(p for p in parts if p)
@@ -167,6 +187,9 @@ def check_plan_svg(
                       'stroke-linecap="round"')
             )  # fmt: skip
         if b.outcome == "not_checked":
+            labels.append(
+                _label(frame, b, f"{b.name or b.guid} (not checked)", "#444", "label nc-label")
+            )
             style = f'stroke="{NOT_CHECKED}" stroke-width="2.5" stroke-dasharray="6 4"'
         else:
             colour = utilisation_colour(b.utilisation)
@@ -181,7 +204,7 @@ def check_plan_svg(
         if b.guid in linked:
             shape = f'<a href="#beam-{attr(b.guid)}">{shape}</a>'
         lines.append(shape)
-        marks.extend(_brace_marks(frame, b))
+        marks.extend(_brace_marks(frame, b, du))
     body += bands + casings + lines + marks + labels
     return _svg(frame.width, frame.height, title, body, "plan")
 
@@ -469,7 +492,7 @@ def moment_diagram_svg(b: BeamResult, du: DisplayUnits) -> str | None:
         x, y = ax.px((gov.start + gov.end) / 2 * fx, yt[-1])
         body.append(
             f'<text x="{_f(x)}" y="{_f(y + 14)}" font-size="11" text-anchor="middle">'
-            f"governing: Lb {escape(du.text(gov.lb, 'length'))}</text>"
+            f"governing: Lb {escape(lb_text(gov, du))}</text>"
         )
     return _svg(ax.width, ax.height, f"Moment diagram of {b.name or b.guid}", body, "chart")
 
@@ -498,6 +521,22 @@ def strength_curve_svg(b: BeamResult, du: DisplayUnits, method: str) -> str | No
         + " ".join(f"{_f(x)},{_f(y)}" for x, y in (ax.px(*p) for p in pts))
         + '"/>'
     )
+    t = b.trail
+    if t is not None:
+        _, ytop = ax.px(0.0, yt[-1])
+        _, ybot = ax.px(0.0, 0.0)
+        for name in ("lp", "lr"):
+            lx = t.values.get(name, 0.0) * fx
+            if not 0.0 < lx <= xt[-1]:
+                continue
+            px, _ = ax.px(lx, 0.0)
+            label = "Lp" if name == "lp" else "Lr"
+            body.append(
+                f'<line class="{name}-mark" x1="{_f(px)}" y1="{_f(ybot)}" x2="{_f(px)}" '
+                f'y2="{_f(ytop)}" stroke="#777" stroke-dasharray="2 3"/>'
+                f'<text x="{_f(px + 3)}" y="{_f(ytop + 12)}" font-size="11" fill="#444">'
+                f"{label} = {escape(du.text(lx / fx, 'length'))}</text>"
+            )
     if mark is not None and gov is not None:
         x, y = ax.px(*mark)
         _, yb = ax.px(mark[0], 0.0)
@@ -511,9 +550,14 @@ def strength_curve_svg(b: BeamResult, du: DisplayUnits, method: str) -> str | No
             body.append(
                 f'<circle class="segment-mark" cx="{_f(x)}" cy="{_f(y)}" r="5" fill="#222"/>'
             )
+        text = f"governing segment: utilisation {utilisation_text(gov.utilisation)}"
+        w = LABEL_CHAR * len(text)
+        right = x + 8 + w <= ax.width - 4
+        tx = x + 8 if right else x - 8
+        ty = y - 8 if y - 8 >= 14 else y + 18
         body.append(
-            f'<text x="{_f(x + 8)}" y="{_f(y - 8)}" font-size="11" stroke="#fff" '
-            f'stroke-width="3" paint-order="stroke">governing segment: utilisation '
-            f"{utilisation_text(gov.utilisation)}</text>"
+            f'<text class="segment-label" x="{_f(tx)}" y="{_f(ty)}" font-size="11" '
+            f'text-anchor="{"start" if right else "end"}" stroke="#fff" stroke-width="3" '
+            f'paint-order="stroke">{escape(text)}</text>'
         )
     return _svg(ax.width, ax.height, f"Strength against Lb for {b.name or b.guid}", body, "chart")

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 from collections.abc import Mapping
 
 from ifccheck.reasons import NotChecked, Reason
@@ -12,8 +13,11 @@ from ifccheck.results import (
     CauseKind,
     ChangeCause,
     DiffResult,
+    ExplainCause,
+    ExplainKind,
     SegmentResult,
 )
+from ifccheck.units import to_si
 
 LIMIT_STATE_WORDS = {
     "yielding": "yielding (full plastic moment)",
@@ -91,14 +95,63 @@ def segment_midpoint(seg: SegmentResult) -> float:
     return 0.5 * (seg.start + seg.end)
 
 
+_GUID = re.compile(r"[0-9A-Za-z_$]{22}")
+
+
+def member_ref(guid: str, names: Mapping[str, str]) -> str:
+    """'L2-S1 (2Xq…22 characters)': a member by name and GUID; the GUID alone when unnamed."""
+    name = names.get(guid, "")
+    return f"{name} ({guid})" if name and name != guid else guid
+
+
+def name_guids(text: str, names: Mapping[str, str], with_guid: bool = True) -> str:
+    """The text with every known GUID in it given as its member's name (and GUID)."""
+
+    def swap(m: re.Match[str]) -> str:
+        guid = m.group(0)
+        if guid not in names or not names[guid]:
+            return guid
+        return member_ref(guid, names) if with_guid else names[guid]
+
+    return _GUID.sub(swap, text)
+
+
+def end_words(b: BeamResult, end: str) -> str:
+    """'the end at L2-G30-0' or 'the free end'."""
+    member = b.end_members[0 if end == "start" else 1]
+    return f"the end at {member}" if member else f"the free {end}"
+
+
+def station_text(b: BeamResult, station: float, du: DisplayUnits) -> str:
+    """'4.50 ft from the end at L2-G30-0': a station from the beam's nearer end."""
+    if station < 0.0:  # a point of the old revision, beyond this revision's beam
+        return f"{du.text(-station, 'length')} beyond {end_words(b, 'start')}"
+    if station > b.length:
+        return f"{du.text(station - b.length, 'length')} beyond {end_words(b, 'end')}"
+    at_start = station <= b.length / 2
+    distance = station if at_start else b.length - station
+    return f"{du.text(distance, 'length')} from {end_words(b, 'start' if at_start else 'end')}"
+
+
+def span_text(b: BeamResult, a: float, e: float, du: DisplayUnits) -> str:
+    """'from 6.00 ft to 21.00 ft from the end at L2-G30-0': both from the same named end."""
+    if (a + e) / 2 <= b.length / 2:
+        lo, hi, end = a, e, "start"
+    else:
+        lo, hi, end = b.length - e, b.length - a, "end"
+    return f"from {du.text(lo, 'length')} to {du.text(hi, 'length')} from {end_words(b, end)}"
+
+
+def lb_text(seg: SegmentResult, du: DisplayUnits) -> str:
+    """'continuous (slab)' for a slab-braced length, else the unbraced length."""
+    return "continuous (slab)" if seg.continuous else du.text(seg.lb, "length")
+
+
 def segment_words(b: BeamResult, seg: SegmentResult, du: DisplayUnits) -> str:
     """Where the governing segment is and what governs it, in a sentence."""
     index = b.segments.index(seg) + 1 if seg in b.segments else 0
-    where = (
-        f"segment {index} of {len(b.segments)}, from {du.text(seg.start, 'length')} "
-        f"to {du.text(seg.end, 'length')} along the beam"
-    )
-    if seg.continuous or seg.lb == 0.0:
+    where = f"segment {index} of {len(b.segments)}, {span_text(b, seg.start, seg.end, du)}"
+    if seg.continuous:
         bracing = f"its {seg.flange} flange is braced continuously by the slab"
     else:
         bracing = (
@@ -115,20 +168,125 @@ def segment_words(b: BeamResult, seg: SegmentResult, du: DisplayUnits) -> str:
     )
 
 
+def _mass_text(kg_per_m: float, du: DisplayUnits) -> str:
+    if du.system == "imperial":
+        return f"{kg_per_m / to_si(1.0, 'lb/ft'):.0f} lb/ft"
+    return f"{kg_per_m:.1f} kg/m"
+
+
+def _family_and_depth(profile: str) -> str:
+    m = re.match(r"^([A-Z]+\d+(?:\.\d+)?)X", profile)
+    return m.group(1) if m else "shape of this family and depth"
+
+
+def cause_sentence(
+    b: BeamResult, cause: ExplainCause, du: DisplayUnits, names: Mapping[str, str]
+) -> str:
+    """One cause of a failure (or of a beam not being checked) in words."""
+    k = cause.kind
+    who = ", ".join(member_ref(g, names) for g in cause.members)
+    if k is ExplainKind.NOT_CHECKED:
+        reason = b.reason.text if b.reason else "no reason was recorded"
+        return sentence(f"not checked: {name_guids(reason, names)}")
+    if k is ExplainKind.OPENING:
+        a, e = cause.stations
+        return (
+            f"An opening in slab {who} runs over the beam {span_text(b, a, e, du)}: the slab "
+            "does not brace the top flange there, so it is free to buckle sideways."
+        )
+    if k is ExplainKind.SLAB_GAP:
+        a, e = cause.stations
+        return (
+            f"The slab does not bear on the top flange {span_text(b, a, e, du)}, so nothing "
+            "braces it there."
+        )
+    if k is ExplainKind.BRACE_NOT_COUNTING:
+        at = station_text(b, cause.stations[0], du) if cause.stations else "mid-length"
+        why = next(
+            (p.reason.text for p in b.brace_points
+             if p.by in cause.members and p.reason is not None), ""
+        )  # fmt: skip
+        why = f": {name_guids(why, names, with_guid=False)}" if why else ""
+        return f"The brace point at {at} ({who}) does not count{why}."
+    if k is ExplainKind.ASSUMED_GRADE:
+        return (
+            f"The steel grade is assumed ({cause.value}, the settings' default): the model "
+            "names none. Confirm the grade."
+        )
+    if k is ExplainKind.SHEAR_CONTROLS:
+        return (
+            f"Shear fails (utilisation {utilisation_text(b.shear_utilisation)}): bracing "
+            "does not help; a section with more web area does."
+        )
+    if k is ExplainKind.DEFLECTION_CONTROLS:
+        return (
+            f"Deflection fails (utilisation {utilisation_text(b.deflection_utilisation)}): "
+            "bracing does not help; a stiffer section or a shorter span does."
+        )
+    if k is ExplainKind.BEYOND_PLASTIC:
+        return (
+            "Even braced throughout, the moment exceeds the section's strength: no "
+            "bracing alone makes it pass."
+        )
+    raise ValueError(f"no words for cause {k!r}")
+
+
+def fix_sentences(b: BeamResult, du: DisplayUnits) -> list[str]:
+    """What would make a failing beam pass: largest Lb, new brace points, a heavier shape."""
+    e = b.explanation
+    if e is None or b.outcome != "fail":
+        return []
+    out: list[str] = []
+    seg = b.segments[e.segment] if e.segment is not None else None
+    if seg is not None and e.largest_passing_lb is not None and not seg.continuous:
+        out.append(
+            f"It would pass with an unbraced length of up to "
+            f"{du.text(e.largest_passing_lb, 'length')} there (today {lb_text(seg, du)}, "
+            f"at the same Cb = {seg.cb:.2f} and moment)."
+        )
+    if e.braces:
+        at = ", ".join(station_text(b, x.station, du) for x in e.braces)
+        n = len(e.braces)
+        flange = e.brace_flange or "compression"
+        out.append(
+            f"{'A brace' if n == 1 else f'{n} braces'} to the {flange} flange at {at} "
+            f"would make it pass in bending (each new length checked at its own Cb)."
+        )
+    elif seg is not None and not e.bracing_helps:
+        out.append("No bracing alone makes it pass.")
+    if e.lighter_shape is not None:
+        x = e.lighter_shape
+        out.append(
+            f"The lightest {_family_and_depth(b.profile)} that passes as braced today is "
+            f"{x.profile} ({_mass_text(x.mass_per_length, du)}, utilisation "
+            f"{utilisation_text(x.utilisation)})."
+        )
+    elif e.shape_checked:
+        out.append(f"No {_family_and_depth(b.profile)} in the shape table passes as braced today.")
+    return out
+
+
+def explanation_sentences(b: BeamResult, du: DisplayUnits, names: Mapping[str, str]) -> list[str]:
+    """Why the beam fails or was not checked, and what would fix it, sentence by sentence."""
+    e = b.explanation
+    if e is None:
+        return []
+    out = [cause_sentence(b, c, du, names) for c in e.causes]
+    if b.outcome == "not_checked" and b.reason is not None:
+        out.append(advice(b.reason))
+    return out + fix_sentences(b, du)
+
+
 def fix_words(b: BeamResult, du: DisplayUnits) -> str:
-    """What would make a failing beam pass."""
-    seg = b.governing
+    """What would make a failing beam pass, in one paragraph."""
+    fixes = fix_sentences(b, du)
+    if fixes:
+        return " ".join(fixes)
     if b.controlling_limit == "shear":
         return "Shear governs: use a section with a deeper or thicker web."
     if b.controlling_limit == "deflection":
         return "Deflection governs: use a stiffer (deeper) section or shorten the span."
-    if seg is not None and seg.limit_state in LTB_STATES and seg.lb > 0.0:
-        x = segment_midpoint(seg)
-        return (
-            f"Add a brace to the {seg.flange} flange near station {du.text(x, 'length')} "
-            f"(the middle of the governing unbraced length), or use a heavier section."
-        )
-    return "Bracing does not control here: use a heavier section or reduce the load."
+    return "Use a heavier section or reduce the load."
 
 
 def advice(reason: Reason | None) -> str:
@@ -150,10 +308,13 @@ def beam_issue_title(b: BeamResult) -> str:
     return f"{beam_label(b)} fails in {what},{u}"
 
 
-def beam_issue_description(b: BeamResult, du: DisplayUnits) -> str:
+def beam_issue_description(
+    b: BeamResult, du: DisplayUnits, names: Mapping[str, str] | None = None
+) -> str:
     """Why the beam is an issue and what would fix it, in plain sentences."""
+    names = names or {}
     if b.outcome == "not_checked":
-        reason = b.reason.text if b.reason else "no reason was recorded"
+        reason = name_guids(b.reason.text, names) if b.reason else "no reason was recorded"
         return f"This beam was not checked: {reason}. {advice(b.reason)}".rstrip()
     lines: list[str] = []
     u = f" (utilisation {utilisation_text(b.utilisation)})" if b.utilisation is not None else ""
@@ -174,6 +335,9 @@ def beam_issue_description(b: BeamResult, du: DisplayUnits) -> str:
             f"{du.text(b.deflection_total, 'deflection', 1)} "
             f"(limit {du.text(b.deflection_total_limit, 'deflection', 1)})."
         )
+    e = b.explanation
+    if e is not None:
+        lines += [cause_sentence(b, c, du, names) for c in e.causes]
     lines.append(fix_words(b, du))
     return " ".join(lines)
 
@@ -197,8 +361,16 @@ def change_title(c: BeamChange) -> str:
     return f"{name}{where}: " + (", ".join(parts) if parts else c.change)
 
 
-def cause_words(cause: ChangeCause, du: DisplayUnits, names: Mapping[str, str]) -> str:
-    """One cause of a change in words, quantities in the display units."""
+def cause_words(
+    cause: ChangeCause,
+    du: DisplayUnits,
+    names: Mapping[str, str],
+    beam: BeamResult | None = None,
+) -> str:
+    """One cause of a change in words, quantities in the display units.
+
+    With the new revision's ``beam``, stations are given from its named ends.
+    """
 
     def length(v: float | str | None) -> str:
         return du.text(float(v), "length") if isinstance(v, int | float) else "–"
@@ -209,41 +381,91 @@ def cause_words(cause: ChangeCause, du: DisplayUnits, names: Mapping[str, str]) 
     def status(v: float | str | None) -> str:
         return OUTCOME_STATE_WORDS.get(str(v), str(v))
 
+    def where(s: float) -> str:
+        return station_text(beam, s, du) if beam is not None else du.text(s, "length")
+
     who = ", ".join(names.get(g, g) for g in cause.members)
-    at = ", ".join(du.text(s, "length") for s in cause.stations)
+    at = " and ".join(where(s) for s in cause.stations)
     n = len(cause.stations)
     k = cause.kind
     if k is CauseKind.LOST_BRACES:
-        return f"lost brace point{'s' if n != 1 else ''} at {at}"
+        return f"lost the brace point{'s' if n != 1 else ''} at {at}"
     if k is CauseKind.ADDED_BRACES:
-        return f"brace point{'s' if n != 1 else ''} added at {at}"
+        return f"gained brace point{'s' if n != 1 else ''} at {at}"
     if k is CauseKind.LOST_SUPPORTS:
-        return f"lost support on {who}"
+        return f"no longer bears on {who}"
     if k is CauseKind.GAINED_SUPPORTS:
-        return f"gained support on {who}"
+        return f"now also bears on {who}"
     if k is CauseKind.LOST_SLAB_BRACING:
-        return f"slab-braced length fell by {length(cause.after)}"
+        return f"lost {length(cause.after)} of slab bracing"
     if k is CauseKind.LB_GREW:
-        return f"governing Lb grew from {length(cause.before)} to {length(cause.after)}"
+        if cause.before == 0.0:  # the governing length was braced throughout by the slab
+            return (
+                "its governing length, braced continuously by the slab before, now has "
+                f"Lb = {length(cause.after)}"
+            )
+        return f"its governing Lb grew from {length(cause.before)} to {length(cause.after)}"
     if k in (CauseKind.OUTCOME_WORSE, CauseKind.OUTCOME_BETTER):
         return f"went from {status(cause.before)} to {status(cause.after)}"
     if k is CauseKind.UTILISATION_ROSE:
-        return f"utilisation rose from {ratio(cause.before)} to {ratio(cause.after)}"
+        return f"its utilisation rose from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.UTILISATION_FELL:
-        return f"utilisation fell from {ratio(cause.before)} to {ratio(cause.after)}"
+        return f"its utilisation fell from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.DEMAND_FELL_LOST_LOAD:
-        return f"demand fell because {who} no longer delivers its load here"
+        return (
+            f"its demand fell because {who} no longer reaches it: the load it carried has "
+            "gone nowhere, so this is not an improvement"
+        )
+    if k is CauseKind.TRIBUTARY_GREW:
+        because = f" because {who} was removed" if who else ""
+        return (
+            f"its tributary width grew from {length(cause.before)} to {length(cause.after)}"
+            f"{because}"
+        )
     raise ValueError(f"no words for change cause {k!r}")
 
 
-def change_reasons(c: BeamChange, du: DisplayUnits, names: Mapping[str, str]) -> list[str]:
-    """Every cause of a change in words."""
-    return [cause_words(x, du, names) for x in c.causes]
+# causes said together with another (so that each thing is said once)
+_FOLDED = {
+    CauseKind.LB_GREW: (CauseKind.LOST_BRACES, CauseKind.LOST_SLAB_BRACING),
+    CauseKind.OUTCOME_WORSE: (CauseKind.UTILISATION_ROSE,),
+    CauseKind.OUTCOME_BETTER: (CauseKind.UTILISATION_FELL,),
+}
+
+
+def change_reasons(
+    c: BeamChange,
+    du: DisplayUnits,
+    names: Mapping[str, str],
+    beam: BeamResult | None = None,
+) -> list[str]:
+    """Every cause of a change in words, each said once.
+
+    A longer Lb is said with the lost brace or slab bracing that made it, and
+    an outcome change with the utilisation change behind it.
+    """
+    kinds = {x.kind for x in c.causes}
+    by_kind = {x.kind: x for x in c.causes}
+    out = []
+    for x in c.causes:
+        if any(k in kinds for k in _FOLDED.get(x.kind, ())):
+            continue
+        text = cause_words(x, du, names, beam)
+        for folded, into in _FOLDED.items():
+            if x.kind in into and folded in by_kind:
+                extra = cause_words(by_kind[folded], du, names, beam)
+                joint = ", so " if folded is CauseKind.LB_GREW else " and it "
+                text += joint + extra
+                break
+        out.append(text)
+    return out
 
 
 def diff_names(diff: DiffResult) -> dict[str, str]:
-    """GUID → name of every beam in either revision (for words about changes)."""
-    return {b.guid: b.name or b.guid for b in [*diff.old.beams, *diff.new.beams]}
+    """GUID → name of every named element and beam in either revision."""
+    out = {**diff.old.names, **diff.new.names}
+    out.update({b.guid: b.name or b.guid for b in [*diff.old.beams, *diff.new.beams]})
+    return out
 
 
 def sentence(text: str) -> str:
@@ -252,32 +474,22 @@ def sentence(text: str) -> str:
 
 
 def change_description(
-    c: BeamChange, du: DisplayUnits, names: Mapping[str, str] | None = None
+    c: BeamChange,
+    du: DisplayUnits,
+    names: Mapping[str, str] | None = None,
+    beam: BeamResult | None = None,
 ) -> str:
+    """What changed about a beam between two revisions, each thing said once."""
     names = names or {}
     lines = [f"Between the two revisions this beam {_change_words(c.change)}."]
-    if c.lost_brace_points:
-        at = ", ".join(du.text(s, "length") for s in c.lost_brace_points)
-        lines.append(f"Brace points lost at station {at}.")
-    if c.added_brace_points:
-        at = ", ".join(du.text(s, "length") for s in c.added_brace_points)
-        lines.append(f"Brace points added at station {at}.")
-    if c.lost_supports:
-        lines.append(f"Supports lost: {', '.join(c.lost_supports)}.")
-    if c.gained_supports:
-        lines.append(f"Supports gained: {', '.join(c.gained_supports)}.")
-    if c.lost_continuous_bracing > 0:
-        lines.append(f"Slab-braced length lost: {du.text(c.lost_continuous_bracing, 'length')}.")
-    if c.lb_before is not None or c.lb_after is not None:
-        lines.append(
-            f"Governing Lb {du.text(c.lb_before, 'length')} → {du.text(c.lb_after, 'length')}."
-        )
-    if c.utilisation_before is not None or c.utilisation_after is not None:
-        rb, ra = utilisation_text(c.utilisation_before), utilisation_text(c.utilisation_after)
-        lines.append(f"Utilisation {rb} → {ra}.")
+    lines += [sentence(x) for x in change_reasons(c, du, names, beam)]
     if c.outcome_before or c.outcome_after:
-        lines.append(f"Outcome {c.outcome_before or '–'} → {c.outcome_after or '–'}.")
-    lines.extend(sentence(cause_words(x, du, names)) for x in c.causes)
+        lines.append(
+            f"Before: {OUTCOME_STATE_WORDS.get(c.outcome_before, c.outcome_before or '–')}"
+            f" at utilisation {utilisation_text(c.utilisation_before)}; now: "
+            f"{OUTCOME_STATE_WORDS.get(c.outcome_after, c.outcome_after or '–')} at "
+            f"utilisation {utilisation_text(c.utilisation_after)}."
+        )
     if c.lost_brace_points and c.change == "weakened":
         lines.append(
             "Restore the lost brace, or check that the longer unbraced length is intended."

@@ -99,6 +99,7 @@
       return td;
     }
     const names = Object.keys(check.files);
+    const opened = ["report.html", "diff.html"];
     for (const [name, label] of [["report.html", "Open report"], ["diff.html", "Open diff"]]) {
       if (names.includes(name)) {
         const b = el("button", label, "open");
@@ -108,8 +109,10 @@
         td.append(b);
       }
     }
-    if (names.length) td.append(el("div", "Download:", "label"));
-    for (const name of names) {
+    // the reports open with the buttons above; the other files download (each listed once)
+    const downloads = names.filter((n) => !opened.includes(n));
+    if (downloads.length) td.append(el("div", "Download:", "label"));
+    for (const name of downloads) {
       const b = el("button", name, "download");
       b.type = "button";
       b.title = `Download ${name}`;
@@ -120,7 +123,19 @@
     return td;
   }
 
-  function row(check) {
+  function comparedWith(check, byId) {
+    const td = el("td", null, "compared");
+    if (!check.compared_with) return td;
+    const earlier = byId.get(check.compared_with);
+    const text = earlier
+      ? `${earlier.model_file}, submitted ${new Date(earlier.created_at).toLocaleString()}`
+      : "the previous revision";
+    td.append(el("span", text));
+    td.title = `submission ${check.compared_with}`;
+    return td;
+  }
+
+  function row(check, byId) {
     const tr = el("tr");
     tr.dataset.id = check.id;
     tr.dataset.status = check.status;
@@ -139,7 +154,7 @@
     const beams = el("td", summaryText(check));
     if (check.summary && check.summary.fail > 0) beams.classList.add("failures");
     tr.append(beams);
-    tr.append(el("td", check.compared_with || ""));
+    tr.append(comparedWith(check, byId));
     tr.append(fileCell(check));
     return tr;
   }
@@ -154,7 +169,8 @@
       const response = await api(`${API}/submissions${query}`);
       if (response.ok) {
         const { submissions } = await response.json();
-        $("submissions").tBodies[0].replaceChildren(...submissions.map(row));
+        const byId = new Map(submissions.map((c) => [c.id, c]));
+        $("submissions").tBodies[0].replaceChildren(...submissions.map((c) => row(c, byId)));
         $("empty").hidden = submissions.length > 0;
         active = submissions.some((c) => c.status === "received" || c.status === "checking");
       }

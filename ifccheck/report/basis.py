@@ -1,0 +1,315 @@
+"""The design basis of a check: what it assumed and ran with, as data and in words.
+
+One source for the report's "Design basis" section, ``basis`` in
+``results.json`` and the command line's note on defaults: the project and
+model, the standard and method, every effective setting (defaults marked),
+the loads per level and case, the load combinations with their equation
+numbers, the deflection limits and tolerances, the bracing, anchorage and
+load-path assumptions, and how much was assumed rather than read.
+Quantities stay SI here; :func:`setting_text` and :func:`load_text` word them.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Mapping
+from dataclasses import dataclass
+from typing import Any
+
+from ifccheck.loads.combinations import SERVICE, Combination, strength_combinations
+from ifccheck.report.display import DisplayUnits
+from ifccheck.results import CheckResult
+from ifccheck.units import G, to_si
+
+# load setting → (load case, words); keys the settings may carry per level
+LOAD_KEYS: dict[str, tuple[str, str]] = {
+    "dead": ("D", "superimposed dead"),
+    "live": ("L", "live"),
+    "partitions": ("L", "partition allowance"),
+    "roof_live": ("Lr", "roof live"),
+    "snow": ("S", "snow"),
+    "wind_uplift": ("W", "wind uplift"),
+}
+DENSITY_KEYS = ("concrete_density", "steel_density")
+# what each assumption of the check says (code → words)
+ASSUMPTIONS: dict[str, str] = {
+    "slab_braces_top_flange": "A slab bearing on a beam's top flange braces that flange "
+    "continuously over the length it covers, openings excluded; it never braces the "
+    "bottom flange.",
+    "slab_bracing_off": "Slabs are not taken to brace the top flange (bracing.slab = false).",
+    "composite_ignored": "Composite action between slab and steel is ignored: every beam "
+    "is checked as a bare steel section.",
+    "framing_anchored": "Floor framing that frames in and carries the floor counts as an "
+    "anchored brace, the floor being tied into the lateral system (common practice).",
+    "no_diaphragm": "Levels with no slab or other diaphragm in the model: {levels}. Their "
+    "framing braces are assumed anchored; the beams say so in their notes.",
+    "struts_need_anchor": "Struts, braces and kickers count only when their line reaches an "
+    "anchor (a column, wall, slab or braced bay); hardware never braces or supports.",
+    "ends_restrained": "Beam ends are restrained against twist at their supports "
+    "(common practice).",
+    "load_path": "Floor load goes from the deck to the beams it spans between (tributary "
+    "widths to the neighbouring parallel beams), infill beams deliver their reactions to "
+    "the girders they frame into, girders to the columns; spans run between support "
+    "centrelines.",
+}
+ASSUMED_WORDS = {
+    "default_grade": "beams checked on the default steel grade",
+    "inferred_deck_direction": "levels whose deck span direction was inferred from the framing",
+    "inferred_role": "members whose role (column, brace, strut) was inferred from geometry",
+}
+
+
+@dataclass(frozen=True)
+class Setting:
+    key: str  # dotted, as in the settings file
+    value: Any  # SI
+    kind: str  # display kind: pressure, density, tolerance, span ratio, or "" for plain
+    default: bool
+
+
+@dataclass(frozen=True)
+class LevelLoad:
+    level: str
+    case: str
+    what: str
+    pressure: float  # Pa
+    source: str  # the setting's key, or how the value was found
+    default: bool
+
+
+def _is_default(explicit: Iterable[str], key: str) -> bool:
+    return not any(k == key or k.startswith(key + ".") for k in explicit)
+
+
+def _kind(key: str) -> str:
+    leaf = key.rsplit(".", 1)[-1]
+    if key.startswith("loads.") and leaf in LOAD_KEYS:
+        return "pressure"
+    if leaf in DENSITY_KEYS:
+        return "density"
+    if key.startswith("framing."):
+        return "tolerance"
+    if key.startswith("deflection."):
+        return "span ratio"
+    return ""
+
+
+_NAMED = ("loads.storeys", "loads.slabs", "decks")  # tables keyed by a name or GUID
+
+
+def settings_list(settings: Mapping[str, Any]) -> list[Setting]:
+    """Every effective setting as a dotted key with its value, defaults marked."""
+    explicit = list(settings.get("explicit", []))
+    out: list[Setting] = []
+
+    def walk(d: Mapping[str, Any], prefix: str, shown: str) -> None:
+        for k, v in d.items():
+            key = f"{prefix}.{k}" if prefix else str(k)
+            # names under a table of names (storeys, slabs) are quoted, as TOML writes them
+            part = f'"{k}"' if prefix in _NAMED else str(k)
+            label = f"{shown}.{part}" if shown else part
+            if isinstance(v, Mapping):
+                walk(v, key, label)
+            elif v is not None:
+                out.append(Setting(label, v, _kind(key), _is_default(explicit, key)))
+
+    walk({k: v for k, v in settings.items() if k not in ("source", "explicit")}, "", "")
+    return out
+
+
+def level_names(result: CheckResult) -> list[str]:
+    """The levels the loads were applied to: the load path's, else the storeys."""
+    names = [lv.name for lv in result.levels] or [n for n, _ in result.storeys]
+    return list(dict.fromkeys(names))
+
+
+def level_loads(result: CheckResult) -> list[LevelLoad]:
+    """The area loads on every level, by case: settings, slab and steel self-weight."""
+    s = result.settings
+    loads: Mapping[str, Any] = s.get("loads", {})
+    explicit = list(s.get("explicit", []))
+    storeys: Mapping[str, Any] = loads.get("storeys", {}) or {}
+    out: list[LevelLoad] = []
+    density = float(loads.get("concrete_density", 2400.0))
+    for level in level_names(result):
+        override = storeys.get(level, {}) or {}
+        for key, (case, what) in LOAD_KEYS.items():
+            value = override.get(key)
+            dotted = f'loads.storeys."{level}".{key}'
+            if value is None:
+                value, dotted = loads.get(key), f"loads.{key}"
+            if not isinstance(value, int | float):
+                continue
+            default = _is_default(explicit, dotted.replace('"', ""))
+            out.append(LevelLoad(level, case, what, float(value), dotted, default))
+        thicknesses = sorted({round(sl.thickness, 4) for sl in result.slabs
+                              if sl.storey == level and sl.thickness > 0})  # fmt: skip
+        for t in thicknesses:
+            out.append(
+                LevelLoad(level, "D", "slab self-weight", t * density * G,
+                          f"slab:{t}", _is_default(explicit, "loads.concrete_density"))
+            )  # fmt: skip
+    return out
+
+
+def combinations(method: str) -> list[Combination]:
+    """The strength combinations of the method, then the serviceability ones."""
+    return [*strength_combinations(method), *SERVICE]
+
+
+def levels_without_slab(result: CheckResult) -> list[str]:
+    with_slab = {sl.storey for sl in result.slabs if sl.diaphragm}
+    beams_on = {b.storey for b in result.beams}
+    return [n for n in level_names(result) if n in beams_on and n not in with_slab]
+
+
+def assumptions(result: CheckResult) -> list[tuple[str, str]]:
+    """(code, words) of every bracing, anchorage and load-path assumption of the check."""
+    bracing = result.settings.get("bracing", {})
+    out = []
+    if bracing.get("slab", True):
+        out.append(("slab_braces_top_flange", ASSUMPTIONS["slab_braces_top_flange"]))
+    else:
+        out.append(("slab_bracing_off", ASSUMPTIONS["slab_bracing_off"]))
+    out.append(("composite_ignored", ASSUMPTIONS["composite_ignored"]))
+    out.append(("framing_anchored", ASSUMPTIONS["framing_anchored"]))
+    bare = levels_without_slab(result)
+    if bare:
+        out.append(("no_diaphragm", ASSUMPTIONS["no_diaphragm"].format(levels=", ".join(bare))))
+    for code in ("struts_need_anchor", "ends_restrained", "load_path"):
+        out.append((code, ASSUMPTIONS[code]))
+    return out
+
+
+def assumed_grade(result: CheckResult) -> dict[str, Any] | None:
+    """{"grade", "count"} when beams were checked on the default grade, else None."""
+    n = result.assumptions.get("default_grade", 0)
+    if not n:
+        return None
+    grade = result.settings.get("steel", {}).get("default_grade", "")
+    return {"grade": grade, "count": n}
+
+
+def basis_document(result: CheckResult) -> dict[str, Any]:
+    """The design basis as plain JSON data, SI (``basis`` in results.json)."""
+    from ifccheck.report.json_out import num
+
+    s = result.settings
+
+    def value(v: Any) -> Any:
+        return num(v) if isinstance(v, float) else v
+
+    return {
+        "project": result.project or result.model.file,
+        "model": {"file": result.model.file, "sha256": result.model.sha256},
+        "standard": result.standard,
+        "method": result.method,
+        "settings_file": s.get("source"),
+        "settings": [
+            {
+                "key": x.key,
+                "value": value(x.value),
+                "unit": _SI_UNIT.get(x.kind, ""),
+                "default": x.default,
+            }
+            for x in settings_list(s)
+        ],
+        "loads": [
+            {
+                "level": x.level,
+                "case": x.case,
+                "load": x.what,
+                "pressure": num(x.pressure),
+                "source": x.source,
+                "default": x.default,
+            }
+            for x in level_loads(result)
+        ],
+        "steel_self_weight": "from each section's area at loads.steel_density",
+        "combinations": [
+            {
+                "name": c.name,
+                "purpose": c.purpose,
+                "source": c.source,
+                "factors": {k: num(v) for k, v in c.factors.items()},
+            }
+            for c in combinations(result.method)
+        ],
+        "deflection_limits": {
+            "live": num(s.get("deflection", {}).get("live")),
+            "total": num(s.get("deflection", {}).get("total")),
+            "cantilever": "twice the overhang length in place of the span",
+        },
+        "tolerances": {k: num(v) for k, v in s.get("framing", {}).items()},
+        "levels": [
+            {
+                "name": lv.name,
+                "elevation": num(lv.elevation),
+                "deck_angle": num(lv.deck_angle),
+                "deck_source": lv.deck_source,
+                "deck_evidence": lv.deck_evidence,
+                "typical_spacing": num(lv.typical_spacing),
+            }
+            for lv in result.levels
+        ],
+        "assumptions": [{"code": c, "text": t} for c, t in assumptions(result)],
+        "assumed": dict(result.assumptions),
+    }
+
+
+_SI_UNIT = {"pressure": "Pa", "density": "kg/m³", "tolerance": "m", "span ratio": "L/N"}
+
+
+# --- words ------------------------------------------------------------------------
+def density_text(du: DisplayUnits, value: float) -> str:
+    if du.system == "imperial":
+        return f"{value / to_si(1.0, 'pcf'):.0f} pcf"
+    return f"{value:.0f} kg/m³"
+
+
+def setting_text(du: DisplayUnits, x: Setting) -> str:
+    """A setting's value in the trade's units."""
+    if isinstance(x.value, bool) or not isinstance(x.value, int | float):
+        return ("true" if x.value else "false") if isinstance(x.value, bool) else str(x.value)
+    if x.kind == "pressure":
+        return du.trade(float(x.value), "pressure")
+    if x.kind == "density":
+        return density_text(du, float(x.value))
+    if x.kind == "tolerance":
+        return du.trade(float(x.value), "thickness")
+    if x.kind == "span ratio":
+        return f"L/{float(x.value):g}"
+    return f"{x.value:g}"
+
+
+def load_source_text(du: DisplayUnits, x: LevelLoad, result: CheckResult) -> str:
+    """Where a level's load came from, in words."""
+    if x.source.startswith("slab:"):
+        t = float(x.source.split(":", 1)[1])
+        density = float(result.settings.get("loads", {}).get("concrete_density", 2400.0))
+        return f"modelled slab {du.trade(t, 'thickness')} thick at {density_text(du, density)}" + (
+            " (default density)" if x.default else ""
+        )
+    return x.source + (" (default)" if x.default else "")
+
+
+def defaults_line(result: CheckResult, du: DisplayUnits) -> str | None:
+    """One line saying which default loads were used, when no settings file was given."""
+    if result.settings.get("source") is not None:
+        return None
+    loads = result.settings.get("loads", {})
+    parts = [
+        f"{what} {du.trade(float(loads[key]), 'pressure')}"
+        for key, (_case, what) in LOAD_KEYS.items()
+        if isinstance(loads.get(key), int | float) and loads.get(key)
+    ]
+    grade = result.settings.get("steel", {}).get("default_grade", "")
+    text = (
+        "no settings file (--config): default loads used, "
+        + " and ".join(parts)
+        + " on every level, the roof included"
+    )
+    if grade:
+        text += f"; grade {grade} where the model names none"
+    else:
+        text += "; no default grade: a beam whose grade the model does not give is not checked"
+    return text
