@@ -215,3 +215,23 @@ def test_hardware_braces_and_supports_nothing_a_kicker_still_braces(tmp_path):
     e0 = framing.members[m["E0"].guid]
     kicks = [b for b in e0.brace_points if b.by == m["K1"].guid]
     assert kicks and all(b.counts and b.flange == "bottom" for b in kicks)
+
+
+def test_the_excluded_hardware_is_one_bcf_topic(tmp_path):
+    from bcf.v2.bcfxml import BcfXml
+
+    from ifccheck.check import run_check
+    from ifccheck.report.bcf_out import write_issues_bcf
+
+    result, model, _ = run_check(bay(tmp_path, hardware=True), settings(steel={"default_grade":
+                                                                             "A992"}))  # fmt: skip
+    path = write_issues_bcf(result, tmp_path / "issues.bcf")
+    hardware = {m.guid for m in model.members if m.name in ("Hex nut M20", "PL 10x200 plate",
+                                                             "Fire board", "Rod 2in")}  # fmt: skip
+    bcf = BcfXml.load(path)
+    topics = [t for t in bcf.topics.values() if "brace and support nothing" in
+              t.markup.topic.title]  # fmt: skip
+    assert len(topics) == 1  # one topic for all of them, not one per element
+    selected = {g for vp in topics[0].viewpoints.values() for g in vp.get_selected_guids()}
+    bcf.close()
+    assert selected == hardware

@@ -124,6 +124,35 @@ def _viewpoint(
     return VisualizationInfoHandler(info, xml_handler=xml_handler)
 
 
+def selection_viewpoint(
+    guids: Sequence[str], key: str, xml_handler, around: Sequence[BeamResult]
+) -> VisualizationInfoHandler:
+    """A viewpoint with many elements selected, looking at the model from above a corner."""
+    pts = [p for b in around for p in (b.start, b.end)] or [(0.0, 0.0, 0.0)]
+    lo = [min(p[i] for p in pts) for i in range(3)]
+    hi = [max(p[i] for p in pts) for i in range(3)]
+    centre = [(a + b) / 2 for a, b in zip(lo, hi, strict=True)]
+    reach = max(max(b - a for a, b in zip(lo, hi, strict=True)), 1.0)
+    pos = (centre[0] - reach, centre[1] - reach, centre[2] + reach)
+    direction = _unit([centre[i] - pos[i] for i in range(3)])
+    up = _unit([-direction[0] * direction[2], -direction[1] * direction[2],
+                1 - direction[2] ** 2])  # fmt: skip
+    info = mdl.VisualizationInfo(
+        guid=_uuid("viewpoint", key),
+        components=mdl.Components(
+            selection=mdl.ComponentSelection(
+                component=[mdl.Component(ifc_guid=g, originating_system=None) for g in guids]
+            ),
+            visibility=mdl.ComponentVisibility(default_visibility=True),
+        ),
+        perspective_camera=mdl.PerspectiveCamera(
+            camera_view_point=_point(pos), camera_direction=_direction(direction),
+            camera_up_vector=_direction(up), field_of_view=60.0,
+        ),
+    )  # fmt: skip
+    return VisualizationInfoHandler(info, xml_handler=xml_handler)
+
+
 def _topic(
     bcf_file: BcfXml, key: str, title: str, description: str, created: str,
     topic_type: str, labels: list[str], priority: str, model_file: str,
@@ -209,7 +238,32 @@ def write_issues_bcf(result: CheckResult, path: Path, units: str | None = None) 
             labels, "High" if b.outcome == "fail" else "Normal", result.model.file,
         )  # fmt: skip
         handler.add_visinfo_handler(_viewpoint(b, key, bcf_file._xml_handler, lines))
+    _excluded_topic(bcf_file, result)
     return _save(bcf_file, path)
+
+
+def _excluded_topic(bcf_file: BcfXml, result: CheckResult) -> None:
+    """One topic for every element written as a beam, column or member that braces and
+    supports nothing (hardware, members of unknown section, stubs), all selected."""
+    guids = sorted({g for gs in result.excluded.values() for g in gs})
+    if not guids:
+        return
+    key = f"{result.model.sha256}|excluded"
+    counts = ", ".join(f"{len(v)} {k}" for k, v in result.excluded.items())
+    description = (
+        f"These {len(guids)} elements are modelled as beams, columns or members but brace and "
+        f"support nothing in the check ({counts}): hardware, pieces shorter than the member "
+        "they touch, or members whose section could not be read. Model fasteners as "
+        "IfcMechanicalFastener and plates as IfcPlate, or give structural members a readable "
+        "profile."
+    )
+    handler = _topic(
+        bcf_file, key, f"{len(guids)} elements brace and support nothing", description,
+        result.checked_at, "Request", [AUTHOR, "not structural"], "Normal", result.model.file,
+    )  # fmt: skip
+    handler.add_visinfo_handler(
+        selection_viewpoint(guids, key, bcf_file._xml_handler, result.beams)
+    )
 
 
 def write_diff_bcf(diff: DiffResult, path: Path, units: str | None = None) -> Path:

@@ -52,6 +52,7 @@ from ifccheck.report.svg import (
 )
 from ifccheck.report.wording import (
     CHECK_WORDS,
+    adequacy_words,
     advice,
     change_reasons,
     diff_names,
@@ -756,10 +757,11 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str, names: dict[str,
             "<h4>Brace points</h4>"
             + _table(
                 [f"Station ({du.label('length')})", "From the nearer end", "Kind", "Flange",
-                 "Counts", "By", "Why not"],
+                 "Counts", "By", "Appendix 6 (needed / provided)", "Why not"],
                 [[_qty(du, p.station, "length"), escape(station_text(b, p.station, du)),
                   escape(p.kind), escape(p.flange), "yes" if p.counts else "no",
                   escape(member_ref(p.by, {p.by: p.by_name} if p.by_name else names)),
+                  escape(adequacy_words(p.adequacy, du)),
                   escape(name_guids(reason_text(p.reason), names, with_guid=False))]
                  for p in sorted(b.brace_points, key=lambda p: p.station)],
             )

@@ -10,6 +10,7 @@ from ifccheck.report.display import DisplayUnits, utilisation_text
 from ifccheck.results import (
     BeamChange,
     BeamResult,
+    BraceCheckOut,
     CauseKind,
     ChangeCause,
     DiffResult,
@@ -499,3 +500,25 @@ def change_description(
 
 def _change_words(change: str) -> str:
     return {"weakened": "was weakened", "strengthened": "was strengthened"}.get(change, "changed")
+
+
+def adequacy_words(a: BraceCheckOut | None, du: DisplayUnits) -> str:
+    """'strength 3.94 kip needed, 3.65 kip provided; stiffness 14.6 kip/in needed, 226.7
+    kip/in provided: not adequate' — '' where the brace was not checked."""
+    if a is None:
+        return ""
+    if a.kind == "torsional":
+        strength = (du.text(a.required_strength, "moment", 1),
+                    du.text(a.provided_strength, "moment", 1))  # fmt: skip
+        stiffness = (f"{du.text(a.required_stiffness, 'moment', 0)}/rad",
+                     f"{du.text(a.provided_stiffness, 'moment', 0)}/rad")  # fmt: skip
+    else:
+        strength = (du.text(a.required_strength, "force", 2),
+                    du.text(a.provided_strength, "force", 2))  # fmt: skip
+        stiffness = (du.text(a.required_stiffness, "stiffness", 1),
+                     du.text(a.provided_stiffness, "stiffness", 1))  # fmt: skip
+    verdict = "adequate" if a.adequate else "not adequate"
+    return (
+        f"strength {strength[0]} needed, {strength[1]} provided; stiffness {stiffness[0]} "
+        f"needed, {stiffness[1]} provided: {verdict}"
+    )
