@@ -415,6 +415,14 @@ def _finish(p: _Pending, flex, standard: DesignStandard, settings: Settings) -> 
     out.controlling_limit = max(checks, key=lambda k: checks[k])
     out.utilisation = checks[out.controlling_limit]
     out.outcome = "pass" if out.utilisation <= 1.0 else "fail"
+    out.fails_on = [
+        kind
+        for kind, u in (
+            ("strength", out.strength_utilisation),
+            ("serviceability", checks["deflection"]),
+        )
+        if u > 1.0
+    ]
     gov_name = bd.governing_moment or (p.diagrams[-1][0] if p.diagrams else "")
     gov = dict(p.diagrams).get(gov_name)
     if gov is not None:

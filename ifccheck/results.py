@@ -205,6 +205,9 @@ class BeamResult:
     deflection_total_limit: float | None = None  # m
     deflection_utilisation: float | None = None
     strength_utilisation: float | None = None  # the worse of flexure and shear
+    # what a failing beam fails on: "strength" (flexure or shear), "serviceability"
+    # (deflection), or both; empty when it passes or was not checked
+    fails_on: list[str] = field(default_factory=list)
     utilisation: float | None = None  # the worst of flexure, shear and deflection
     controlling_limit: str = ""  # "flexure", "shear", "deflection"
     outcome: Outcome = "not_checked"

@@ -103,6 +103,10 @@ def _summary_line(result: CheckResult, units: UnitSystem) -> str:
         f"{result.model.file}: {s['total']} beams checked to {result.standard} "
         f"{result.method}: {s['pass']} pass, {s['fail']} fail, {s['not_checked']} not checked"
     )
+    if s["fail"]:
+        strength = sum(1 for b in result.beams if "strength" in b.fails_on)
+        service = sum(1 for b in result.beams if "serviceability" in b.fails_on)
+        line += f" ({strength} on strength, {service} on serviceability)"
     if s["fail"] or s["not_checked"]:
         return line
     worst = max(

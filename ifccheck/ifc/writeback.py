@@ -337,6 +337,8 @@ class _PsetWriter:
                 props.append(self._prop(name, ratio, float(v)))
         if b.controlling_limit:
             props.append(self._prop("ControllingLimit", label, b.controlling_limit))
+        if b.fails_on:
+            props.append(self._prop("FailsOn", label, " ".join(b.fails_on)))
         seg = b.governing
         if seg is not None:
             props.append(self._prop("LimitState", label, seg.limit_state))

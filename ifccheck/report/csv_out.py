@@ -45,6 +45,7 @@ BEAM_COLUMNS: tuple[Column, ...] = (
     ("storey", None, lambda b: b.storey),
     ("outcome", None, lambda b: b.outcome),
     ("controlling_limit", None, lambda b: b.controlling_limit),
+    ("fails_on", None, lambda b: " ".join(b.fails_on)),
     ("utilisation", None, lambda b: b.utilisation),
     ("strength_utilisation", None, lambda b: b.strength_utilisation),
     ("flexure_utilisation", None, lambda b: b.flexure_utilisation),

@@ -251,6 +251,7 @@ def beam_dict(
         "utilisation": num(b.utilisation),
         "controlling_limit": b.controlling_limit,
         "strength_utilisation": num(b.strength_utilisation),
+        "fails_on": list(b.fails_on),
         "flexure_utilisation": num(b.flexure_utilisation),
         "shear_demand": num(b.shear_demand),
         "shear_capacity": num(b.shear_capacity),
