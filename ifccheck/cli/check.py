@@ -118,7 +118,9 @@ def _summary_line(result: CheckResult, units: UnitSystem) -> str:
         elif worst.controlling_limit:
             line += f", {worst.controlling_limit}"
         line += ")"
-    return line
+    from ifccheck.report.requirements import summary_clause
+
+    return line + summary_clause(result)
 
 
 def _check_keys_over_revisions(settings, old_model, new_model) -> None:
@@ -179,17 +181,30 @@ def _output_options(command):
     type=click.Path(exists=True, dir_okay=False),
     help="CSV of GUID, moment (and shear) from an analysis, overriding computed demand.",
 )
+@click.option(
+    "--no-requirements",
+    is_flag=True,
+    help="Do not audit the model against the tool's information requirements.",
+)
+@click.option("--ids", "ids_files", multiple=True, type=click.Path(dir_okay=False),
+              help="Audit the model against this IDS file too (repeatable); with "
+              "--no-requirements, instead.")  # fmt: skip
 @_output_options
-def check(model_path, config, demands, out_dir, units, method) -> None:
+def check(model_path, config, demands, no_requirements, ids_files, out_dir, units, method) -> None:
     """Check every beam of MODEL and write the results to --out.
 
-    Exit code 0 when every beam passes, 1 when any fails or cannot be checked.
+    The model is audited first against the information the check needs
+    (`ifccheck requirements`). Exit code 0 when every beam passes, 1 when any
+    fails or cannot be checked.
     """
     from ifccheck.check import run_check
     from ifccheck.report import write_all
 
     settings = _settings(config, method)
-    result, model, _ = run_check(model_path, settings, demands, _progress())
+    result, model, _ = run_check(
+        model_path, settings, demands, _progress(), requirements=not no_requirements,
+        project_ids=ids_files,
+    )  # fmt: skip
     chosen = _units(units, model.length_unit)
     written = write_all(result, Path(model_path), Path(out_dir), chosen)
     names = {m.guid: m.name or m.guid for m in model.members}
