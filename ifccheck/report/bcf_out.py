@@ -25,6 +25,7 @@ from xsdata.models.datatype import XmlDateTime
 
 from ifccheck.atomic import atomic_path
 from ifccheck.report.display import DisplayUnits
+from ifccheck.report.requirements import add_requirement_topics
 from ifccheck.report.wording import (
     beam_issue_description,
     beam_issue_title,
@@ -206,6 +207,7 @@ def write_issues_bcf(result: CheckResult, path: Path, units: str | None = None) 
             labels, "High" if b.outcome == "fail" else "Normal", result.model.file,
         )  # fmt: skip
         handler.add_visinfo_handler(_viewpoint(b, key, bcf_file._xml_handler, lines))
+    add_requirement_topics(bcf_file, result)  # one topic per unmet model information requirement
     return _save(bcf_file, path)
 
 

@@ -21,6 +21,7 @@ from ifccheck.atomic import write_text
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import reason_code, reason_text
 from ifccheck.report.display import DisplayUnits
+from ifccheck.report.requirements import requirement_dict
 from ifccheck.report.wording import change_reasons, diff_names
 from ifccheck.results import (
     BeamChange,
@@ -236,6 +237,7 @@ def results_document(result: CheckResult, detail: bool = False) -> dict[str, Any
             for s in result.slabs
         ],
         "beams": [beam_dict(b, detail) for b in result.beams],
+        "requirements": [requirement_dict(r) for r in result.requirements],
     }
 
 
