@@ -25,6 +25,7 @@ from collections.abc import Collection, Iterable, Mapping, Sequence
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Literal
+from xml.etree import ElementTree
 
 import ifcopenshell
 import ifcopenshell.ifcopenshell_wrapper as wrapper
@@ -47,6 +48,7 @@ from ifccheck.sections.grades import known_grades, steel_from_name
 Entity = ifcopenshell.entity_instance
 Checker = Literal["ifctester", "ifccheck"]
 
+IDS_NAMESPACE = "http://standards.buildingsmart.org/IDS"
 IDS_FILE = "ifccheck.ids"  # the name the tool's own IDS is written and reported under
 OWN_SOURCE = "ifccheck"  # the source of the requirements ifccheck checks itself
 IDS_VERSIONS = ("IFC2X3", "IFC4", "IFC4X3_ADD2")  # the IFC versions IDS 1.0 names
@@ -475,7 +477,12 @@ def load_ids(path: str | Path) -> idslib.Ids:
     if not p.is_file():
         raise IdsFileError(f"--ids {p}: no such file")
     try:
-        return idslib.open(str(p), validate=True)
+        document = idslib.open(str(p), validate=True)
+        # ifctester 0.9 does not read a specification's identifier back: take it from the XML
+        found = ElementTree.parse(p).getroot().iter(f"{{{IDS_NAMESPACE}}}specification")
+        for spec, element in zip(document.specifications, found, strict=False):
+            spec.identifier = spec.identifier or element.get("identifier")
+        return document
     except idslib.IdsXmlValidationError as exc:
         reason = getattr(exc.xml_error, "reason", None) or "not valid against the IDS 1.0 schema"
         raise IdsFileError(f"--ids {p}: not a valid IDS 1.0 file: {reason}") from None
