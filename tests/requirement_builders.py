@@ -7,6 +7,8 @@ from pathlib import Path
 
 from ifccheck.ifc.author import IProfile, ModelAuthor
 
+__all__ = ["FAILS", "IProfile", "ModelAuthor", "audit_model", "ifc2x3_members"]
+
 IN = 1.0 / 12.0  # feet per inch
 # W16X26 nominal dimensions, AISC Shapes Database v16.0 (d, bf, tw, tf, k1-free fillet), in ft
 W16 = IProfile("W16X26", 15.7 * IN, 5.50 * IN, 0.250 * IN, 0.345 * IN, 0.3 * IN)

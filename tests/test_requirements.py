@@ -261,3 +261,36 @@ def test_an_unusable_project_ids_is_one_line(tmp_path, text, message):
     assert "\n" not in str(info.value)
     with pytest.raises(IdsFileError, match="no such file"):
         load_ids(tmp_path / "missing.ids")
+
+
+@pytest.mark.parametrize("schema", ["IFC2X3", "IFC4", "IFC4X3"])
+def test_every_schema_is_audited(tmp_path, schema):
+    """One beam without a material and one member without a type, in each IFC version the
+    IDS names: the grade and member type specifications that apply find exactly them."""
+    a = rb.ModelAuthor(schema, "metre", project="Schemas", seed=f"schemas-{schema}")
+    a.storey("Level 1", 3.0)
+    ipe = rb.IProfile("IPE300", 0.3, 0.15, 0.0071, 0.0107, 0.015)
+    a.beam("Level 1", (0, 0, 0), (6, 0, 0), ipe, material="S355", key="ok", name="B-OK")
+    a.beam("Level 1", (0, 3, 0), (6, 3, 0), ipe, material=None, key="bare", name="B-BARE")
+    a.member("Level 1", (3, 0, -0.2), (3, 3, -0.2), ipe, predefined=None, material="S355",
+             key="untyped", name="M-UNTYPED")  # fmt: skip
+    path = a.write(tmp_path / f"{schema}.ifc")
+    result, _, _ = run_check(path, Settings(), requirements=True)
+    failing = {r.identifier: [e.name for e in r.failing] for r in result.requirements}
+    member_type = "member_type_ifc2x3" if schema == "IFC2X3" else "member_type"
+    assert failing["beam_grade"] == ["B-BARE"]
+    assert failing[member_type] == ["M-UNTYPED"]
+    (other,) = {"member_type", "member_type_ifc2x3"} - {member_type}
+    assert other not in failing  # the other schema's specification does not apply
+    reference = build_ids()
+    reference.validate(ifcopenshell.open(str(path)), should_filter_version=True)
+    for spec in reference.specifications:
+        if spec.is_ifc_version:
+            record = next(r for r in result.requirements if r.name == spec.name)
+            assert set(record.failing_guids) == {e.GlobalId for e in spec.failed_entities}
+
+
+def test_a_projects_grade_may_be_a_yield_strength():
+    pattern = idslib.Restriction(options={"pattern": grade_pattern(["250 MPa", "Fy 50 ksi"])})
+    assert pattern == "Steel 250MPa" and pattern == "250.0 N/mm2" and pattern == "50 ksi"
+    assert pattern != "2500 MPa" and pattern != "350 MPa" and pattern != "A992"

@@ -385,7 +385,9 @@ def _classes(names: Sequence[str]) -> str | idslib.Restriction:
 # --------------------------------------------------------------------------
 
 
-def _specification(r: Requirement, settings: RequirementSettings, materials: Iterable[str]):
+def _specification(
+    r: Requirement, settings: RequirementSettings, materials: Iterable[str]
+) -> idslib.Specification:
     spec = idslib.Specification(
         name=r.name,
         ifcVersion=list(r.versions),
