@@ -88,8 +88,10 @@ def assess_bracing(
     for guid, mf in framing.members.items():
         bd = demand.beams.get(guid)
         beam = members.get(guid)
-        if bd is None or bd.analysis is None or beam is None or beam.section is None:
+        if bd is None or bd.analysis is None or beam is None:
             continue
+        if beam.section is None or beam.steel is None:
+            continue  # a beam not checked has no Mr to hold
         points += _beam_points(beam, mf, bd, standard, method, torsional)
     if not points:
         return 0

@@ -12,7 +12,7 @@ import functools
 import hashlib
 import itertools
 import math
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from datetime import UTC, datetime
 from pathlib import Path
@@ -21,19 +21,21 @@ import numpy as np
 
 from ifccheck import CAUTION, __version__
 from ifccheck.adequacy import assess_bracing
-from ifccheck.config import Settings, settings_to_dict
+from ifccheck.config import Settings, StoreyLoads, settings_to_dict
 from ifccheck.design import get_standard
 from ifccheck.design.base import DesignStandard, segment_moments
 from ifccheck.errors import OutOfScope
 from ifccheck.explain import explain_beams
 from ifccheck.floors import prepare_floors
 from ifccheck.framing import analyse_framing
+from ifccheck.framing.roles import STUB, UNKNOWN_SECTION
 from ifccheck.framing.types import BraceAdequacy, Framing, MemberFraming
 from ifccheck.ifc.reader import read_model
 from ifccheck.loads.combinations import LIVE_DEFLECTION, TOTAL_DEFLECTION
 from ifccheck.loads.demand import BeamDemand, compute_demand, load_demand_csv
+from ifccheck.loads.spans import is_floor_beam
 from ifccheck.loads.statics import Diagram
-from ifccheck.loads.tributary import DeckSpan
+from ifccheck.loads.tributary import DeckSpan, level_entries
 from ifccheck.model import MaterialCategory, Member, MemberRole, Model
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import (
@@ -44,6 +46,7 @@ from ifccheck.results import (
     LevelInfo,
     LoadBalance,
     ModelInfo,
+    RequirementResult,
     SampledDiagram,
     SegmentResult,
     SlabOutline,
@@ -75,13 +78,20 @@ def run_check(
     demands_path: str | Path | None = None,
     progress: Progress | None = None,
     strict_keys: bool = True,
+    requirements: bool = False,
+    project_ids: Sequence[str | Path] = (),
 ) -> tuple[CheckResult, Model, Framing]:
     """The whole job on one model file. A settings key naming nothing in the model is a
-    SettingsError unless ``strict_keys`` is False (``diff`` checks keys over both files)."""
+    SettingsError unless ``strict_keys`` is False (``diff`` checks keys over both files).
+
+    ``requirements`` audits the model against the tool's information requirements first
+    (``settings.requirements``), ``project_ids`` against each of those IDS files too; the
+    audit goes on the result, and a beam not checked for want of one names it."""
     path = Path(model_path)
     model = read_model(
         path, default_grade=settings.steel.default_grade, materials=settings.steel.materials
     )
+    audit = _audit_ifc(path, settings, requirements, project_ids)
     prepare_floors(model, settings, strict_keys)
     framing = analyse_framing(model, settings.framing, settings.bracing)
     overrides = None
@@ -142,7 +152,61 @@ def run_check(
         excluded=dict(framing.excluded),
         names=names,
     )
+    if audit is not None:
+        from ifccheck.ifc.requirements import name_unmet
+
+        result.requirements = _audit_model(audit, model, framing, settings, requirements)
+        name_unmet(result.beams, result.requirements)
     return result, model, framing
+
+
+def _audit_ifc(
+    path: Path, settings: Settings, requirements: bool, project_ids: Sequence[str | Path]
+) -> list[RequirementResult] | None:
+    """The IDS audit (ifctester) and the requirements checked on the IFC entities."""
+    if not requirements and not project_ids:
+        return None
+    from ifccheck.ifc.requirements import audit_ifc  # ifctester loads only for an audit
+
+    own = settings.requirements if requirements else None
+    return audit_ifc(path, own, settings.steel.materials.keys(), project_ids)
+
+
+def _audit_model(
+    audit: list[RequirementResult],
+    model: Model,
+    framing: Framing,
+    settings: Settings,
+    requirements: bool,
+) -> list[RequirementResult]:
+    """The audit completed with the requirements that need the floors and the framing."""
+    from ifccheck.ifc.requirements import (
+        floor_deck_requirement,
+        hardware_requirement,
+        ordered,
+        place,
+    )
+
+    records = list(audit)
+    wanted = settings.requirements
+    if requirements and wanted.floor_deck:
+        entries = level_entries(model, settings)
+        carrying = {
+            lv.name for lv in model.levels if entries.get(lv.name, StoreyLoads()).floor is not False
+        }
+        floor_beams = [m for m in model.members if is_floor_beam(m)]
+        records.append(floor_deck_requirement(model, floor_beams, carrying))
+    if requirements and wanted.hardware:
+        hardware = {
+            g: kind
+            for kind, guids in framing.excluded.items()
+            if kind not in (UNKNOWN_SECTION, STUB)
+            for g in guids
+        }
+        records.append(hardware_requirement(model, hardware))
+    records = ordered(records)
+    place(records, model)
+    return records
 
 
 def _levels(model: Model, deck_spans: dict[str, DeckSpan]) -> list[LevelInfo]:

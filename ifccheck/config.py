@@ -99,6 +99,32 @@ class DeflectionSettings:
 
 
 @dataclass
+class RequirementSettings:
+    """The model information requirements (``ifccheck requirements``, audited by ``check``).
+
+    Each flag switches one requirement on or off; ``grades`` is the project's own list
+    of steel grades the material names must give (empty: any grade the tool reads).
+    """
+
+    grades: list[str] = field(default_factory=list)
+    beam_grade: bool = True
+    member_grade: bool = True
+    member_type: bool = True
+    storey: bool = True
+    profile: bool = True
+    axis: bool = True
+    floor_deck: bool = True
+    hardware: bool = True
+
+    def enabled(self, key: str) -> bool:
+        """Whether the requirement ``key`` (a flag name above) is switched on."""
+        return bool(getattr(self, key))
+
+
+REQUIREMENT_KEYS = tuple(k for k in RequirementSettings.__dataclass_fields__ if k != "grades")
+
+
+@dataclass
 class Settings:
     design: DesignSettings = field(default_factory=DesignSettings)
     steel: SteelSettings = field(default_factory=SteelSettings)
@@ -106,6 +132,7 @@ class Settings:
     bracing: BracingSettings = field(default_factory=BracingSettings)
     loads: LoadSettings = field(default_factory=LoadSettings)
     deflection: DeflectionSettings = field(default_factory=DeflectionSettings)
+    requirements: RequirementSettings = field(default_factory=RequirementSettings)
     # declared decks by level: a storey name or a level elevation such as "+36 ft"
     decks: dict[str, DeckSettings] = field(default_factory=dict)
     # where the settings came from (None: the built-in defaults) and which dotted
@@ -256,6 +283,18 @@ def _grade_table(value: Any, key: str) -> dict[str, str]:
     return out
 
 
+def _grade_list(value: Any, key: str) -> list[str]:
+    """A list of steel grades the tool knows, each once."""
+    if not isinstance(value, list):
+        raise _fail(key, f'{value!r} is not a list of grades such as ["A992", "S355"]')
+    out: list[str] = []
+    for i, grade in enumerate(value):
+        text = _grade(grade, f"{key}[{i}]")
+        if text not in out:
+            out.append(text)
+    return out
+
+
 def _method(value: Any, key: str) -> str:
     text = _string(value, key).upper()
     if text not in ("LRFD", "ASD"):
@@ -371,4 +410,5 @@ _SECTIONS: dict[str, dict[str, Callable[[Any, str], Any]]] = {
         "slabs": _storey_table,
     },
     "deflection": {"live": _ratio, "total": _ratio},
+    "requirements": {"grades": _grade_list, **{k: _bool for k in REQUIREMENT_KEYS}},
 }

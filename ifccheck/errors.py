@@ -30,6 +30,10 @@ class DemandFileError(InputError, ValueError):
     """A demand (analysis) CSV that cannot be read."""
 
 
+class IdsFileError(InputError, ValueError):
+    """An IDS (information delivery specification) file that cannot be used."""
+
+
 class QuantityError(InputError, ValueError):
     """Text that is not a quantity of the expected dimension."""
 

@@ -77,6 +77,10 @@ _STATEMENTS: dict[NotChecked, str] = {
 }
 
 
+# the parameter naming the model information requirements a reason's element does not meet
+REQUIREMENT_PARAM = "requirement"
+
+
 @dataclass(frozen=True)
 class Reason:
     """A coded reason with its parameters (hashable, comparable)."""
@@ -91,14 +95,31 @@ class Reason:
     def get(self, key: str, default: Any = None) -> Any:
         return dict(self.params).get(key, default)
 
+    def naming(self, requirements: Iterable[str]) -> Reason:
+        """The same reason, also naming the model information requirements (by name) the
+        element does not meet and that its check needs."""
+        names = tuple(dict.fromkeys([*self.get(REQUIREMENT_PARAM, ()), *requirements]))
+        params = {k: v for k, v in self.params if k != REQUIREMENT_PARAM}
+        return Reason.of(self.code, **params, **({REQUIREMENT_PARAM: names} if names else {}))
+
+    @property
+    def requirements(self) -> tuple[str, ...]:
+        """The requirements this reason names (see :meth:`naming`)."""
+        return tuple(self.get(REQUIREMENT_PARAM, ()))
+
     @property
     def text(self) -> str:
         """The one-line statement of fact."""
         values = {k: _words(v) for k, v in self.params}
         try:
-            return _STATEMENTS[self.code].format(**values)
+            text = _STATEMENTS[self.code].format(**values)
         except (KeyError, IndexError):  # a parameter missing: still say what the code is
-            return self.code.value.replace("_", " ")
+            text = self.code.value.replace("_", " ")
+        names = self.requirements
+        if names:
+            quoted = "; ".join(f"'{n}'" for n in names)
+            text += f" (model information requirement not met: {quoted})"
+        return text
 
     def __str__(self) -> str:
         return self.text

@@ -274,6 +274,45 @@ class ModelInfo:
 
 
 @dataclass
+class RequirementElement:
+    """One element that does not meet a model information requirement."""
+
+    guid: str
+    name: str
+    ifc_class: str
+    storey: str
+    reason: str  # why it does not meet the requirement, in words
+    # its centroid line (m, model coordinates) when it is a member the reader placed
+    start: tuple[float, float, float] | None = None
+    end: tuple[float, float, float] | None = None
+
+
+@dataclass
+class RequirementResult:
+    """The audit of one specification: an IDS specification (audited by ifctester) or a
+    requirement IDS 1.0 facets cannot express (checked by ifccheck itself)."""
+
+    identifier: str  # the tool's own key ("beam_grade", ...), or the IDS's identifier
+    name: str
+    description: str
+    instructions: str
+    source: str  # the IDS file's name, or "ifccheck" for the requirements it checks itself
+    checked_by: Literal["ifctester", "ifccheck"]
+    applicable: int  # elements the specification applies to
+    failing: list[RequirementElement] = field(default_factory=list)
+    met: bool = True  # False also for a required specification that applies to nothing
+
+    @property
+    def passing(self) -> int:
+        """Applicable elements that meet every requirement of the specification."""
+        return self.applicable - len(self.failing)
+
+    @property
+    def failing_guids(self) -> list[str]:
+        return [e.guid for e in self.failing]
+
+
+@dataclass
 class CheckResult:
     tool: str
     version: str
@@ -296,6 +335,8 @@ class CheckResult:
     assumptions: dict[str, int] = field(default_factory=dict)
     # members written as beams, columns or members that brace and support nothing, by kind
     excluded: dict[str, list[str]] = field(default_factory=dict)
+    # the model information audit, one record per specification (empty: not audited)
+    requirements: list[RequirementResult] = field(default_factory=list)
 
     def not_checked_by_reason(self) -> dict[str, int]:
         """Not-checked beams counted by reason code."""

@@ -1,4 +1,5 @@
-"""Command-line interface: ``ifccheck check | diff | inspect | strength | serve | token``.
+"""Command-line interface: ``ifccheck check | diff | inspect | strength | requirements |
+serve | token``.
 
 Exit codes: 0 every checked beam passes, 1 a beam fails or cannot be checked
 (a weakened beam for ``diff``), 2 bad input or usage, 3 internal error. Every
@@ -82,10 +83,11 @@ def main() -> None:
 
 def _register() -> None:
     from ifccheck.cli.check import check, diff, inspect
+    from ifccheck.cli.requirements import requirements
     from ifccheck.cli.serve import serve, token
     from ifccheck.cli.strength import strength
 
-    for command in (inspect, check, diff, strength, serve, token):
+    for command in (inspect, check, diff, strength, requirements, serve, token):
         main.add_command(command)
 
 

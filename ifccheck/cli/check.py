@@ -97,6 +97,13 @@ LISTED = 10  # failing and not-checked beams named in the summary, then "and N m
 
 
 def _summary_line(result: CheckResult, units: UnitSystem) -> str:
+    """The count line, and what the model-information audit found."""
+    from ifccheck.report.requirements import summary_clause
+
+    return _count_line(result, units) + summary_clause(result)
+
+
+def _count_line(result: CheckResult, units: UnitSystem) -> str:
     """The count line; where every beam passes, the most highly utilised one."""
     s = result.summary()
     line = (
@@ -220,18 +227,31 @@ def _output_options(command):
     type=click.Path(exists=True, dir_okay=False),
     help="CSV of GUID, moment (and shear) from an analysis, overriding computed demand.",
 )
+@click.option(
+    "--no-requirements",
+    is_flag=True,
+    help="Do not audit the model against the tool's information requirements.",
+)
+@click.option("--ids", "ids_files", multiple=True, type=click.Path(dir_okay=False),
+              help="Audit the model against this IDS file too (repeatable); with "
+              "--no-requirements, instead.")  # fmt: skip
 @_output_options
-def check(model_path, config, demands, out_dir, units, method) -> None:
+def check(model_path, config, demands, no_requirements, ids_files, out_dir, units, method) -> None:
     """Check every beam of MODEL and write the results to --out.
 
-    Exit code 0 when every beam passes, 1 when any fails or cannot be checked.
+    The model is audited first against the information the check needs
+    (`ifccheck requirements`). Exit code 0 when every beam passes, 1 when any
+    fails or cannot be checked.
     """
     from ifccheck.check import run_check
     from ifccheck.report import write_all
     from ifccheck.report.basis import defaults_line
 
     settings = _settings(config, method)
-    result, model, _ = run_check(model_path, settings, demands, _progress())
+    result, model, _ = run_check(
+        model_path, settings, demands, _progress(), requirements=not no_requirements,
+        project_ids=ids_files,
+    )  # fmt: skip
     chosen = _units(units, model.length_unit)
     written = write_all(result, Path(model_path), Path(out_dir), chosen)
     for line in _warning_lines(result.warnings, result.names):

@@ -25,6 +25,7 @@ from xsdata.models.datatype import XmlDateTime
 
 from ifccheck.atomic import atomic_path
 from ifccheck.report.display import DisplayUnits
+from ifccheck.report.requirements import add_requirement_topics
 from ifccheck.report.wording import (
     beam_issue_description,
     beam_issue_title,
@@ -239,6 +240,7 @@ def write_issues_bcf(result: CheckResult, path: Path, units: str | None = None) 
         )  # fmt: skip
         handler.add_visinfo_handler(_viewpoint(b, key, bcf_file._xml_handler, lines))
     _excluded_topic(bcf_file, result)
+    add_requirement_topics(bcf_file, result)  # one topic per unmet model information requirement
     return _save(bcf_file, path)
 
 

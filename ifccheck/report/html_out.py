@@ -41,6 +41,7 @@ from ifccheck.report.colours import (
 )
 from ifccheck.report.display import DisplayUnits, check_system, utilisation_text
 from ifccheck.report.json_out import diff_summary
+from ifccheck.report.requirements import model_information_section
 from ifccheck.report.svg import (
     attr,
     check_legend_svg,
@@ -799,6 +800,7 @@ def report_html(result: CheckResult, units: str) -> str:
     sections = [
         _summary_section(result, du, linked),
         _basis_section(result, du),
+        model_information_section(result),
         _plans_section(result.storeys, beams_by, slabs_by, draw, check_legend_svg(), intro),
         _beam_table(result, du, linked),
         _not_checked_section(result),

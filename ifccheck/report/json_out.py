@@ -22,6 +22,7 @@ from ifccheck.perf import gc_paused
 from ifccheck.reasons import reason_code, reason_text
 from ifccheck.report.basis import assumed_grade, basis_document
 from ifccheck.report.display import DisplayUnits
+from ifccheck.report.requirements import requirement_dict
 from ifccheck.report.wording import (
     cause_sentence,
     change_reasons,
@@ -326,6 +327,7 @@ def results_document(result: CheckResult, detail: bool = False) -> dict[str, Any
             for s in result.slabs
         ],
         "beams": [beam_dict(b, detail, du, names) for b in result.beams],
+        "requirements": [requirement_dict(r) for r in result.requirements],
     }
 
 

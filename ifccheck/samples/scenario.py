@@ -8,7 +8,8 @@ infill beams are tied to each other by a strut (and one more is tied by a strut
 to the north parapet wall, an anchor). Revision B drops bracing the
 way real revisions do: a roof infill beam deleted for a duct, a new slab
 opening over a Level 2 infill beam, and a Level 2 infill beam pulled 1 ft
-short of its girder.
+short of its girder; its roof strut is exported without a material, so that it
+fails one of the tool's information requirements (a strut without a grade).
 
 Brambleford Pavilion is an invented one-bay metric frame (millimetres,
 IFC2X3, S355, IPE/HEA dimensions) so that both unit systems are exercised.
@@ -156,6 +157,7 @@ def quillfeather(revision: str) -> ModelAuthor:
     a.member(
         ROOF, (15.0, 37.5, -r_infill.d / 2), (15.0, 45.0, -r_infill.d / 2), channel("C8X11.5"),
         predefined="STRUT", key="R:strut", name="R-S15",
+        material=None if b else "A992",  # revision B: exported without its material
     )  # fmt: skip
     # A masonry parapet wall on the north edge, and a strut tying the mid-span of the
     # last roof infill of the first bay to it: a strut line that reaches an anchor.
@@ -212,3 +214,12 @@ def write_samples(out_dir: str | Path) -> list[Path]:
     out = Path(out_dir)
     out.mkdir(parents=True, exist_ok=True)
     return [build().write(out / name) for name, build in SAMPLES.items()]
+
+
+def write_requirements(out_dir: str | Path) -> Path:
+    """Write the IDS the tool writes with the default settings (``ifccheck requirements``)
+    into ``out_dir`` as ``ifccheck.ids``; returns its path."""
+    from ifccheck.ifc.requirements import IDS_FILE, write_ids
+
+    path, _ = write_ids(Path(out_dir) / IDS_FILE)
+    return path
