@@ -391,3 +391,15 @@ def test_twenty_concurrent_uploads_with_two_workers(server, reference, capsys):
             _same_results(json.loads(c.file(job, "results.json")), reference[path.name])
     with capsys.disabled():
         print(f"\n[load] 20 checks, 2 workers: {elapsed:.1f} s, {20 / elapsed:.2f} checks/s")
+
+
+def test_the_service_serves_its_requirements_and_reports_the_audit(server, revisions):
+    r = httpx.get(f"{server.url}{API}/requirements.ids")
+    assert r.status_code == 200 and r.headers["content-type"].startswith("application/xml")
+    assert "attachment" in r.headers["content-disposition"]
+    assert r.text.startswith("<?xml") and "specification" in r.text
+    _, b = revisions
+    audit = {x["name"]: x for x in b["requirements"]}
+    # demo revision B fails one requirement on purpose: a strut without a grade
+    assert not audit["Braces and struts name their steel grade"]["met"]
+    assert audit["Braces and struts name their steel grade"]["failing"] == 1

@@ -16,6 +16,13 @@ class SubmissionReceived(BaseModel):
     status: Literal["received"]
 
 
+class RequirementStatus(BaseModel):
+    identifier: str
+    name: str
+    met: bool
+    failing: int
+
+
 class SubmissionStatus(BaseModel):
     id: str
     status: Literal["received", "checking", "finished", "errored"]
@@ -27,6 +34,12 @@ class SubmissionStatus(BaseModel):
     )
     diff: dict[str, int] | None = Field(
         description="Against the previous revision: matched, added, removed, weakened"
+    )
+    requirements: list[RequirementStatus] | None = Field(
+        default=None,
+        description="The model-information audit, once finished: each requirement (the "
+        "tool's, and a project IDS uploaded with the model) met or not, with its failing "
+        "elements counted",
     )
     error: str | None = Field(description="Why the check could not finish, one line")
     files: dict[str, str] = Field(description="File name → URL path, once finished")
@@ -85,6 +98,12 @@ UPLOAD_BODY = {
                         "type": "string",
                         "format": "binary",
                         "description": "Demand CSV, as for `ifccheck check --demands`",
+                    },
+                    "ids": {
+                        "type": "string",
+                        "format": "binary",
+                        "description": "A project's own IDS (buildingSMART IDS 1.0), audited "
+                        "beside the tool's requirements, as for `ifccheck check --ids`",
                     },
                     "model_key": {
                         "type": "string",

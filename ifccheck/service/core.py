@@ -253,6 +253,7 @@ class Service:
             "model_file": job.model_file,
             "summary": outcome.get("summary") if finished else None,
             "diff": _diff_counts(outcome.get("diff")) if finished else None,
+            "requirements": outcome.get("requirements") if finished else None,
             "error": job.error if job.status == "errored" else None,
             "files": files,
             "compared_with": job.compared_with if finished else None,

@@ -42,6 +42,7 @@ OUTCOME = "outcome.json"
 OUT_DIR = "out"
 INPUT_DIR = "input"
 PROGRESS = "progress"
+PROJECT_IDS = "project.ids"  # a project's own IDS uploaded with the model
 
 # Test-only fault injection: "KEY=ACTION[;KEY=ACTION]" where KEY is a job's
 # model_key (or * for every job) and ACTION is delay:SECONDS, crash or raise.
@@ -177,7 +178,10 @@ def execute_job(spec: JobSpec) -> dict[str, Any]:
     def beams_done(done: int, total: int) -> None:
         progress(0.1 + 0.7 * done / max(total, 1))
 
-    result, model, _ = run_check(model_path, settings, demands, beams_done)
+    project_ids = [inputs / PROJECT_IDS] if (inputs / PROJECT_IDS).exists() else []
+    result, model, _ = run_check(
+        model_path, settings, demands, beams_done, requirements=True, project_ids=project_ids
+    )
     units = spec.units or system_for(model.length_unit)
     progress(0.82, force=True)
 
@@ -199,6 +203,15 @@ def execute_job(spec: JobSpec) -> dict[str, Any]:
             pickle.dump(result, fh, protocol=pickle.HIGHEST_PROTOCOL)
         outcome = {
             "summary": result.summary(),
+            "requirements": [
+                {
+                    "identifier": r.identifier,
+                    "name": r.name,
+                    "met": r.met,
+                    "failing": len(r.failing_guids),
+                }
+                for r in result.requirements
+            ],
             "diff": diff_counts,
             "compared_with": compared_with,
             "files": files,

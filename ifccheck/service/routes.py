@@ -76,6 +76,27 @@ def health() -> dict[str, str]:
     return {"status": "ok", "version": __version__}
 
 
+@service_routes.get(
+    "/requirements.ids",
+    response_class=Response,
+    responses={200: {"content": {"application/xml": {}}}},
+)
+def requirements_ids() -> Response:
+    """The information the check needs, as an IDS 1.0 file (no token needed)."""
+    return Response(
+        _requirements_text(),
+        media_type="application/xml",
+        headers={"Content-Disposition": "attachment; filename=ifccheck.ids"},
+    )
+
+
+@functools.cache
+def _requirements_text() -> str:
+    from ifccheck.ifc.requirements import build_ids, ids_text
+
+    return ids_text(build_ids())
+
+
 # --- submissions ----------------------------------------------------------------------
 @submissions.post(
     "",
@@ -228,6 +249,14 @@ def validate_upload(upload: Upload, staging: Path, config: ServiceConfig) -> dic
             load_demand_csv(upload.files["demands"].path)
         except DemandFileError as exc:
             raise UploadError(422, "demands: " + one_line(exc, str(staging))) from None
+    if "ids" in upload.files:
+        from ifccheck.errors import IdsFileError
+        from ifccheck.ifc.requirements import load_ids
+
+        try:
+            load_ids(upload.files["ids"].path)
+        except IdsFileError as exc:
+            raise UploadError(422, "ids: " + one_line(exc, str(staging))) from None
     return out
 
 

@@ -19,7 +19,12 @@ from starlette.requests import Request
 
 from ifccheck.errors import InputError
 
-FILE_FIELDS = {"model": None, "settings": "settings.toml", "demands": "demands.csv"}
+FILE_FIELDS = {
+    "model": None,
+    "settings": "settings.toml",
+    "demands": "demands.csv",
+    "ids": "project.ids",  # a project's own IDS, audited as well as the tool's
+}
 TEXT_FIELDS = {"model_key": 200, "units": 20, "callback_url": 2048}  # longest accepted value
 STEP_HEADER = b"ISO-10303-21;"
 _LEADING = b"\xef\xbb\xbf \t\r\n"  # a UTF-8 byte order mark and white space may precede it
