@@ -162,8 +162,8 @@ def test_deck_span_angle_normalised_to_half_turn() -> None:
             "settings: loads.storeys.\"Level 2\".live: '-1 kPa' must not be negative",
         ),
         (
-            {"loads": {"storeys": {"Level 2": {"snow": "1 kPa"}}}},
-            'settings: loads.storeys."Level 2".snow: unknown key',
+            {"loads": {"storeys": {"Level 2": {"seismic": "1 kPa"}}}},
+            'settings: loads.storeys."Level 2".seismic: unknown key',
         ),
         ({"loads": {"dead": 60}}, "settings: loads.dead: 60 is not a pressure with units"),
         ({"loads": {"dead": "60"}}, "settings: loads.dead: '60' has no units"),
