@@ -473,11 +473,12 @@ def _prepare(
     spec: StageSpec = IN_SERVICE_SPEC,
 ) -> _Pending | BeamResult:
     out = _base(m, mf)
-    if spec.name == IN_SERVICE:
-        out.notes = [NOTE_SLAB_OFF_IN_SERVICE if n == NOTE_SLAB_OFF else n for n in out.notes]
     if bd is not None:
         out.demand = bd.to_output()
         out.notes += [n for n in bd.notes if n not in out.notes]
+    if spec.name == IN_SERVICE:
+        words = [NOTE_SLAB_OFF_IN_SERVICE if n == NOTE_SLAB_OFF else n for n in out.notes]
+        out.notes = list(dict.fromkeys(words))
     reason = _not_checked_reason(m, mf, bd, standard)
     if reason is not None:
         out.outcome, out.reason = "not_checked", reason

@@ -121,6 +121,20 @@ def _summary_line(result: CheckResult, units: UnitSystem) -> str:
     return line
 
 
+def _stage_lines(result: CheckResult) -> list[str]:
+    """One line per stage beyond the in-service one (the construction stage)."""
+    out = []
+    for st in result.stages[1:]:
+        bracing = "deck attached" if st.slab_bracing else "deck not attached, no slab bracing"
+        n = st.summary
+        out.append(
+            f"{st.title} stage on {', '.join(st.levels) or 'no level'} ({bracing}): "
+            f"{n.get('total', 0)} beams checked, {n.get('pass', 0)} pass, {n.get('fail', 0)} "
+            f"fail; it governs {n.get('governing', 0)}"
+        )
+    return out
+
+
 def _check_keys_over_revisions(settings, old_model, new_model) -> None:
     """One settings file serves both revisions: a key must name something in at least
     one of them (else exit 2), and one that names something in only one is a warning."""
@@ -197,6 +211,8 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
         who = names.get(guid, guid)
         click.echo(f"warning: {who}: {message}" if who else f"warning: {message}", err=True)
     click.echo(_summary_line(result, chosen))
+    for line in _stage_lines(result):
+        click.echo(line)
     files = ", ".join(p.name for p in written.values())
     click.echo(f"results written to {Path(out_dir)}: {files}")
     click.echo(CAUTION)
