@@ -155,6 +155,22 @@ def floor_loads(
     return FloorLoads(dead, live, partitions, roof_live, snow, wind, roof, reducible, origins)
 
 
+class FloorLoadTable:
+    """``floor_loads`` of each (level entry, slab) pair, worked out once per demand run."""
+
+    def __init__(self, settings: Settings) -> None:
+        self.settings = settings
+        self._cache: dict[tuple[int, str | None], tuple[StoreyLoads | None, FloorLoads]] = {}
+
+    def get(self, level: StoreyLoads | None, slab: Slab | None) -> FloorLoads:
+        key = (id(level), slab.guid if slab is not None else None)
+        hit = self._cache.get(key)
+        if hit is None or hit[0] is not level:
+            hit = (level, floor_loads(self.settings, level, slab))
+            self._cache[key] = hit
+        return hit[1]
+
+
 def slab_weight(slab: Slab, settings: Settings) -> float:
     """Self-weight of a slab or declared deck, Pa."""
     if slab.self_weight is not None:
@@ -193,9 +209,11 @@ def own_loads(
     slabs: Mapping[str, Slab],
     level: StoreyLoads | None,
     stage: Stage,
+    table: FloorLoadTable | None = None,
 ) -> list[LineLoadItem]:
     """Steel self-weight, and the floor of its tributary unless its level carries none
     (or, during construction, has no concrete placed on it)."""
+    table = table or FloorLoadTable(settings)
     out: list[LineLoadItem] = []
     if m.section is not None and m.section.A > 0:
         w = m.section.A * settings.loads.steel_density * G
@@ -209,7 +227,7 @@ def own_loads(
     for p in tr.pieces:
         slab = slabs.get(p.slab) if p.slab else None
         if p.kind == "floor":
-            fl = floor_loads(settings, level, slab)
+            fl = table.get(level, slab)
             for case, q, source, reducible in (
                 ("D", fl.dead, "superimposed dead", False),
                 ("L", fl.live, "live", fl.reducible),
@@ -253,16 +271,18 @@ def reducible_area(
     settings: Settings,
     slabs: Mapping[str, Slab],
     level: StoreyLoads | None,
+    table: FloorLoadTable | None = None,
 ) -> float:
     """The floor (m²) of a beam's own tributary whose live load may be reduced."""
     if tr is None or (level is not None and level.floor is False):
         return 0.0
+    table = table or FloorLoadTable(settings)
     area = 0.0
     for p in tr.pieces:
         if p.kind != "floor":
             continue
         slab = slabs.get(p.slab) if p.slab else None
-        if floor_loads(settings, level, slab).reducible:
+        if table.get(level, slab).reducible:
             area += (p.end - p.start) * p.width
     return area
 

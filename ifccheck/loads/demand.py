@@ -43,14 +43,15 @@ from ifccheck.loads.cases import (
     IN_SERVICE,
     NOT_COMPUTED_NOTE,
     BasisRow,
+    FloorLoadTable,
     LineLoadItem,
     PointLoadItem,
     Stage,
     StageName,
+    UserLoads,
     analysis_case,
     basis_rows,
     construction_levels,
-    floor_loads,
     own_loads,
     public_case,
     reducible_area,
@@ -398,6 +399,9 @@ def _compute_demand(
     lines = _lines(beams)
     entries = level_entries(model, settings)
     extra = user_loads(model, settings, trib) if stage.name == IN_SERVICE else None
+    table = FloorLoadTable(settings)
+    reduced: dict[frozenset[str], tuple[Combination, ...]] = {}
+    own_area: dict[str, float] = {}
 
     for m in model.members:  # floor beams that carry nothing: their reason
         if is_floor_beam(m) and m.guid in trib.unable:
@@ -432,7 +436,10 @@ def _compute_demand(
         result.beams[m.guid] = bd
         entry = entries.get(level_of(m))
         floor = entry is None or entry.floor is not False
-        own[m.guid] = own_loads(m, lines[m.guid].length, tr, settings, slabs, entry, stage)
+        own[m.guid] = own_loads(m, lines[m.guid].length, tr, settings, slabs, entry, stage, table)
+        own_area[m.guid] = (
+            reducible_area(tr, settings, slabs, entry, table) if stage.name == IN_SERVICE else 0.0
+        )
         if extra is not None:
             own[m.guid] += extra.lines.get(m.guid, [])
         if m.section is None:
@@ -463,18 +470,11 @@ def _compute_demand(
             given = extra.points.get(g, []) if extra is not None else []
             bd.point_loads = sorted([*incoming.get(g, []), *given],
                                     key=lambda p: (p.station, p.source))  # fmt: skip
+            have = frozenset(bd.cases)
+            if have not in reduced:
+                reduced[have] = reduce_to(base, have)
             problems.append(
-                _problem(
-                    bd,
-                    m,
-                    framing,
-                    trib.beams[g],
-                    base,
-                    carried.get(g),
-                    settings,
-                    slabs,
-                    entries.get(level_of(m)),
-                )
+                _problem(bd, m, framing, trib.beams[g], reduced[have], carried.get(g), own_area[g])
             )
         for g, res in zip(level, analyse_beams(problems), strict=True):
             bd = result.beams[g]
@@ -491,7 +491,7 @@ def _compute_demand(
                 continue
             bd.analysis = res
             bd.source = "computed"
-            area = _area_carried(bd, trib.beams[g], settings, slabs, entries, carried.get(g))
+            area = _area_carried(bd, own_area[g], carried.get(g))
             _deliver(bd, res, lines, result, incoming, framing, balance, area, carried)
             bd.floor_loaded = _floor_reached(bd, trib.beams[g], result)
             if res.maxima is not None:
@@ -513,7 +513,7 @@ def _compute_demand(
             )
     _require_floor_load(model, result, trib, entries, stage)
     result.load_balance = _load_balance(
-        model, trib, settings, entries, own, balance, members, stage, extra
+        model, trib, settings, entries, own, balance, members, stage, extra, table
     )
     for row in result.load_balance:
         applied = abs(row.applied)
@@ -569,13 +569,12 @@ def _problem(
     m: Member,
     framing: Framing,
     tr: Tributary,
-    base: tuple[Combination, ...],
+    combos: tuple[Combination, ...],
     carried: _Carried | None,
-    settings: Settings,
-    slabs: Mapping[str, object],
-    entry: StoreyLoads | None,
+    own_area: float,
 ) -> BeamProblem:
-    """The statics problem of one beam, its combinations and live load reduction set."""
+    """The statics problem of one beam, its combinations (``combos``: those of the cases
+    that load it) and live load reduction set; ``own_area`` is its own reducible floor."""
     line: dict[str, list[LineLoad]] = {}
     point: dict[str, list[PointLoad]] = {}
     off = bd.offset  # analysis stations run from the first support centreline
@@ -594,7 +593,6 @@ def _problem(
     present = set(bd.cases)
     reduction = 1.0
     if REDUCIBLE in names:
-        own_area = reducible_area(tr, settings, slabs, entry)  # type: ignore[arg-type]
         by_level = dict(carried.area) if carried is not None else {}
         if own_area > 0:
             by_level[bd.storey] = by_level.get(bd.storey, 0.0) + own_area
@@ -604,7 +602,7 @@ def _problem(
         bd.live_reduction = lr
         reduction = lr.factor
         bd.notes.append(lr.note)
-    strength = [_internal_combination(c, reduction) for c in reduce_to(base, present)]
+    strength = [_internal_combination(c, reduction) for c in combos]
     service = (
         [_internal_combination(c) for c in service_combinations(present)]
         if bd.stage == IN_SERVICE
@@ -630,17 +628,9 @@ def _problem(
     )  # fmt: skip
 
 
-def _area_carried(
-    bd: BeamDemand,
-    tr: Tributary,
-    settings: Settings,
-    slabs: Mapping[str, object],
-    entries: Mapping[str, StoreyLoads],
-    carried: _Carried | None,
-) -> dict[str, float]:
+def _area_carried(bd: BeamDemand, own: float, carried: _Carried | None) -> dict[str, float]:
     """The reducible floor (m²) a beam carries, by level: its own and what it is given."""
     out = dict(carried.area) if carried is not None else {}
-    own = reducible_area(tr, settings, slabs, entries.get(bd.storey))  # type: ignore[arg-type]
     if own > 0:
         out[bd.storey] = out.get(bd.storey, 0.0) + own
     return out
@@ -725,7 +715,8 @@ def _load_balance(
     balance: _Balance,
     members: Mapping[str, Member],
     stage: Stage,
-    extra,
+    extra: UserLoads | None,
+    table: FloorLoadTable,
 ) -> list[LoadBalanceRow]:
     """Applied (floor area × pressure, slab and steel self-weight, line and point loads)
     against delivered load, per level and case, for the levels whose floor was distributed."""
@@ -745,7 +736,7 @@ def _load_balance(
                 add(fa.level, "D", fa.area * wet_concrete(slab, settings))
                 add(fa.level, "C", fa.area * (c.live if c is not None else 0.0))
             continue
-        fl = floor_loads(settings, entries.get(fa.level), slab)
+        fl = table.get(entries.get(fa.level), slab)
         add(fa.level, "D", fa.area * (fl.dead + slab_weight(slab, settings)))
         add(fa.level, "L", fa.area * (fl.live + fl.partitions))
         for case, q in (("Lr", fl.roof_live), ("S", fl.snow), ("W", -fl.wind_uplift)):
