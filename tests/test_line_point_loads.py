@@ -98,6 +98,10 @@ def test_roof_live_snow_and_uplift_on_a_roof_level():
                  "1.2D+1.6S+0.5W", "1.2D+1.0W+0.5S", "0.9D+1.0W"):  # fmt: skip
         assert name in names
     assert b1.governing_moment == "1.2D+1.6S"  # snow 30 psf > roof live 20 psf
+    # no floor live load on the roof, nor in the girders' reactions from it
+    for g in ("B1", "G1", "E1"):
+        assert not any("L" in c.factors for c in d.beams[g].combinations), g
+    assert d.beams["G1"].governing_moment == "1.2D+1.6S"
     cases = {r.case for r in d.load_balance}
     assert {"Lr", "S", "W"} <= cases
 

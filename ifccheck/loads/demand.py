@@ -188,8 +188,9 @@ class BeamDemand:
 
     @property
     def cases(self) -> list[str]:
-        """The load cases that load it, in the standard order."""
-        have = {x.case for x in self.line_loads} | {y.case for y in self.point_loads}
+        """The load cases that load it (with a load that is not zero), in the standard order."""
+        have = {x.case for x in self.line_loads if x.w != 0.0}
+        have |= {y.case for y in self.point_loads if y.P != 0.0}
         order = (*CASES, *CONSTRUCTION_CASES)
         return [c for c in dict.fromkeys(order) if c in have]
 
