@@ -223,7 +223,7 @@ def _path_to_anchor(lines: nx.Graph, by: str, members: dict[str, Member]) -> tup
     m = members.get(by)
     if m is None or m.role is MemberRole.BEAM or start not in lines:
         return (by,)
-    seen = {start: (start,)}
+    seen: dict[tuple[str, str], tuple[tuple[str, str], ...]] = {start: (start,)}
     queue = [start]
     while queue:
         node = queue.pop(0)

@@ -4,16 +4,24 @@ read → framing → demand → for each beam: unbraced segments of each flange,
 the moment compressing that flange in each strength combination, Cb, the
 design strength from the design standard, and the ratio; the governing
 segment is the one with the highest ratio, not the longest.
+
+With ``[construction]`` in the settings the beams of the levels where concrete
+is placed are checked twice: in service, and during construction (the steel and
+the deck alone under the wet concrete and the construction live load, braced by
+the deck only where ``construction.deck_braces`` says it is attached). Each beam
+carries both stages' segments and results; the stage with the higher
+utilisation governs it.
 """
 
 from __future__ import annotations
 
+import copy
 import functools
 import hashlib
 import itertools
 import math
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from datetime import UTC, datetime
 from pathlib import Path
 
@@ -21,28 +29,34 @@ import numpy as np
 
 from ifccheck import CAUTION, __version__
 from ifccheck.adequacy import assess_bracing
-from ifccheck.config import Settings, StoreyLoads, settings_to_dict
+from ifccheck.config import BracingSettings, Settings, StoreyLoads, settings_to_dict
 from ifccheck.design import get_standard
 from ifccheck.design.base import DesignStandard, segment_moments
 from ifccheck.errors import OutOfScope
 from ifccheck.explain import explain_beams
 from ifccheck.floors import prepare_floors
 from ifccheck.framing import analyse_framing
+from ifccheck.framing.graph import NOTE_SLAB_OFF
 from ifccheck.framing.roles import STUB, UNKNOWN_SECTION
 from ifccheck.framing.types import BraceAdequacy, Framing, MemberFraming
 from ifccheck.ifc.reader import read_model
+from ifccheck.loads.cases import CONSTRUCTION, IN_SERVICE, STAGE_TITLES, StageName
 from ifccheck.loads.combinations import LIVE_DEFLECTION, TOTAL_DEFLECTION
-from ifccheck.loads.demand import BeamDemand, compute_demand, load_demand_csv
+from ifccheck.loads.demand import BeamDemand, DemandResult, compute_demand, load_demand_csv
 from ifccheck.loads.spans import is_floor_beam
 from ifccheck.loads.statics import Diagram
-from ifccheck.loads.tributary import DeckSpan, level_entries
+from ifccheck.loads.tributary import DeckSpan, level_entries, level_of
 from ifccheck.model import MaterialCategory, Member, MemberRole, Model
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import (
+    OUTCOMES,
+    AreaLoadOut,
     BeamResult,
+    BeamStageResult,
     BraceCheckOut,
     BracePointOut,
     CheckResult,
+    CombinationOut,
     LevelInfo,
     LoadBalance,
     ModelInfo,
@@ -50,6 +64,7 @@ from ifccheck.results import (
     SampledDiagram,
     SegmentResult,
     SlabOutline,
+    StageResult,
 )
 from ifccheck.segments import SegmentSpec, beam_segments, compression_moment
 
@@ -62,6 +77,25 @@ CURVE_POINTS = 120
 OVERHANG_FACTOR = 2.0
 
 Progress = Callable[[int, int], None]
+
+# The in-service note of the framing stage when slab bracing is off, in the words of
+# the settings: bracing.slab = false no longer stands for the construction stage.
+NOTE_SLAB_OFF_IN_SERVICE = (
+    "slab bracing switched off in the settings (bracing.slab = false); framing braces "
+    "assumed anchored (common practice)"
+)
+
+
+@dataclass(frozen=True)
+class StageSpec:
+    """How one stage is checked: which slabs brace, and whether deflection is checked."""
+
+    name: StageName = IN_SERVICE
+    slab_bracing: bool = True
+    deflection: bool = True
+
+
+IN_SERVICE_SPEC = StageSpec()
 
 
 def sha256_of(path: Path) -> str:
@@ -110,7 +144,15 @@ def run_check(
         for m in model.members
         if m.role is MemberRole.BEAM
     ]
-    results = check_beams(beams, standard, settings, progress)
+    spec = StageSpec(IN_SERVICE, settings.bracing.slab, True)
+    results = check_beams(beams, standard, settings, progress, spec)
+    for b in results:
+        b.stages = [_stage_of(b, IN_SERVICE)]
+    stages = [_stage_result(spec, demand, results, model, settings)]
+    if settings.construction is not None:
+        stage, c_warnings = _construction_stage(model, settings, standard, results)
+        stages.append(stage)
+        warnings += [w for w in c_warnings if w not in warnings]
     names = {m.guid: m.name for m in model.members if m.name}
     names.update({w.guid: w.name for w in model.walls if w.name})
     names.update({s.guid: s.name for s in model.slabs if s.name})
@@ -151,6 +193,7 @@ def run_check(
         assumptions=_assumptions(model, results, demand.deck_spans),
         excluded=dict(framing.excluded),
         names=names,
+        stages=stages,
     )
     if audit is not None:
         from ifccheck.ifc.requirements import name_unmet
@@ -207,6 +250,139 @@ def _audit_model(
     records = ordered(records)
     place(records, model)
     return records
+
+
+def construction_framing(model: Model, settings: Settings) -> Framing:
+    """The framing during construction: the deck braces only where it is attached
+    (``construction.deck_braces``), and a declared deck only if it would brace anyway."""
+    c = settings.construction
+    deck = c.deck_braces if c is not None else False
+    view = copy.copy(model)
+    view.slabs = [replace(s, braces=s.braces and deck) if s.declared else s for s in model.slabs]
+    return analyse_framing(view, settings.framing, BracingSettings(slab=deck))
+
+
+def _construction_stage(
+    model: Model, settings: Settings, standard: DesignStandard, results: list[BeamResult]
+) -> tuple[StageResult, list[tuple[str, str]]]:
+    """Check the construction stage and merge it into each beam's result."""
+    assert settings.construction is not None
+    framing = construction_framing(model, settings)
+    demand = compute_demand(model, framing, settings, stage=CONSTRUCTION)
+    # the braces' Appendix 6 check under this stage's moments
+    assess_bracing(
+        model, framing, demand, standard, settings.design.method, settings.bracing.adequacy,
+        tuple(settings.bracing.moment_connections),
+    )  # fmt: skip
+    levels = demand.levels or frozenset()
+    by_guid = {b.guid: b for b in results}
+    beams: list[tuple[Member, MemberFraming | None, BeamDemand | None]] = []
+    for m in model.members:
+        service = by_guid.get(m.guid)
+        if m.role is not MemberRole.BEAM or level_of(m) not in levels or service is None:
+            continue
+        bd = demand.beams.get(m.guid)
+        if bd is not None and bd.reason is None and service.outcome != "not_checked":
+            beams.append((m, framing.members.get(m.guid), bd))
+    spec = StageSpec(CONSTRUCTION, settings.construction.deck_braces, False)
+    checked = check_beams(beams, standard, settings, None, spec)
+    for b in checked:
+        if b.outcome != "not_checked":
+            _merge_stage(by_guid[b.guid], b)
+    return _stage_result(spec, demand, results, model, settings), demand.warnings
+
+
+_STAGE_FIELDS = (
+    "flexure_utilisation", "shear_demand", "shear_capacity", "shear_utilisation",
+    "strength_utilisation", "utilisation", "controlling_limit", "diagram", "curve",
+)  # fmt: skip
+
+
+def _stage_of(b: BeamResult, stage: StageName, offset: int = 0) -> BeamStageResult:
+    """One stage's summary of a beam checked in that stage (segments from ``offset``)."""
+    return BeamStageResult(
+        stage=stage,
+        outcome=b.outcome,
+        utilisation=b.utilisation,
+        controlling_limit=b.controlling_limit,
+        strength_utilisation=b.strength_utilisation,
+        flexure_utilisation=b.flexure_utilisation,
+        shear_demand=b.shear_demand,
+        shear_capacity=b.shear_capacity,
+        shear_utilisation=b.shear_utilisation,
+        deflection_utilisation=b.deflection_utilisation,
+        governing_segment=(b.governing_segment + offset)
+        if b.governing_segment is not None
+        else None,
+        reason=b.reason,
+        demand=b.demand,
+        diagram=b.diagram,
+        curve=b.curve,
+    )
+
+
+def _merge_stage(service: BeamResult, constr: BeamResult) -> None:
+    """Add a beam's construction-stage result to its in-service one; the stage with the
+    higher utilisation governs, and the outcome is the worse of the two."""
+    offset = len(service.segments)
+    for seg in constr.segments:
+        seg.stage = CONSTRUCTION
+    service.segments += constr.segments
+    stage = _stage_of(constr, CONSTRUCTION, offset)
+    stage.notes = [n for n in constr.notes if n not in service.notes]
+    service.stages.append(stage)
+    service.notes += [f"construction stage: {n}" for n in stage.notes]
+    if service.outcome == "not_checked":
+        return
+    if (constr.utilisation or 0.0) > (service.utilisation or 0.0):
+        for name in _STAGE_FIELDS:
+            setattr(service, name, getattr(constr, name))
+        service.governing_segment = stage.governing_segment
+        service.stage = CONSTRUCTION
+    if constr.outcome == "fail":
+        service.outcome = "fail"
+        service.fails_on = [k for k in ("strength", "serviceability")
+                            if k in service.fails_on or k in constr.fails_on]  # fmt: skip
+
+
+def _stage_result(
+    spec: StageSpec,
+    demand: DemandResult,
+    results: list[BeamResult],
+    model: Model,
+    settings: Settings,
+) -> StageResult:
+    """The design basis of one stage, and its beams counted by outcome."""
+    counts: dict[str, int] = dict.fromkeys(OUTCOMES, 0)
+    governs = 0
+    for b in results:
+        st = b.stage_result(spec.name)
+        if st is None:
+            continue
+        counts[st.outcome] += 1
+        governs += b.stage == spec.name and st.outcome != "not_checked"
+    counts["total"] = sum(counts[o] for o in OUTCOMES)
+    counts["governing"] = governs
+    levels = (
+        sorted(demand.levels) if demand.levels is not None else [lv.name for lv in model.levels]
+    )
+    return StageResult(
+        stage=spec.name,
+        title=STAGE_TITLES[spec.name],
+        slab_bracing=spec.slab_bracing,
+        levels=levels,
+        combinations=[
+            CombinationOut(c.name, dict(c.factors), c.source, c.number) for c in demand.combinations
+        ],
+        loads=[
+            AreaLoadOut(r.level, r.slab, r.case, r.what, r.pressure, r.origin) for r in demand.basis
+        ],
+        load_balance=[
+            LoadBalance(r.level, r.case, r.applied, r.delivered) for r in demand.load_balance
+        ],
+        notes=list(demand.notes),
+        summary=counts,
+    )
 
 
 def _levels(model: Model, deck_spans: dict[str, DeckSpan]) -> list[LevelInfo]:
@@ -334,9 +510,10 @@ def check_beam(
     bd: BeamDemand | None,
     standard: DesignStandard,
     settings: Settings,
+    stage: StageSpec | None = None,
 ) -> BeamResult:
     """The governing result of one beam (outcome not_checked with a reason when it cannot be)."""
-    return check_beams([(m, mf, bd)], standard, settings)[0]
+    return check_beams([(m, mf, bd)], standard, settings, None, stage)[0]
 
 
 def check_beams(
@@ -344,8 +521,11 @@ def check_beams(
     standard: DesignStandard,
     settings: Settings,
     progress: Progress | None = None,
+    stage: StageSpec | None = None,
 ) -> list[BeamResult]:
-    """Check many beams: segment demands per beam, then one capacity call for all."""
+    """Check many beams in one stage (in service unless told): segment demands per beam,
+    then one capacity call for all."""
+    spec = stage or StageSpec(IN_SERVICE, settings.bracing.slab, True)
     method = settings.design.method
     results: list[BeamResult] = []
     pending: list[_Pending] = []
@@ -357,7 +537,7 @@ def check_beams(
     tops: list[bool] = []
     axes: list[str] = []
     for m, mf, bd in beams:
-        prepared = _prepare(m, mf, bd, standard, settings)
+        prepared = _prepare(m, mf, bd, standard, settings, spec)
         results.append(prepared.out if isinstance(prepared, _Pending) else prepared)
         if not isinstance(prepared, _Pending):
             continue
@@ -379,7 +559,7 @@ def check_beams(
             pair_list, index, lbs, cbs, method, axis=axes, compression_top=tops
         )
         for i, p in enumerate(pending):
-            _finish(p, flex, standard, settings)
+            _finish(p, flex, standard, settings, spec)
             if progress is not None:
                 progress(i + 1, len(pending))
     return results
@@ -391,17 +571,21 @@ def _prepare(
     bd: BeamDemand | None,
     standard: DesignStandard,
     settings: Settings,
+    spec: StageSpec = IN_SERVICE_SPEC,
 ) -> _Pending | BeamResult:
     out = _base(m, mf)
     if bd is not None:
         out.demand = bd.to_output()
         out.notes += [n for n in bd.notes if n not in out.notes]
+    if spec.name == IN_SERVICE:
+        words = [NOTE_SLAB_OFF_IN_SERVICE if n == NOTE_SLAB_OFF else n for n in out.notes]
+        out.notes = list(dict.fromkeys(words))
     reason = _not_checked_reason(m, mf, bd, standard)
     if reason is not None:
         out.outcome, out.reason = "not_checked", reason
         return out
     assert mf is not None and bd is not None
-    specs = beam_segments(m.length, mf, settings.bracing.slab)
+    specs = beam_segments(m.length, mf, spec.slab_bracing)
     diagrams = _strength_diagrams(bd, m.length, out)
     rows: list[tuple[int, str, float, float]] = []
     if specs:
@@ -423,7 +607,9 @@ def _prepare(
     return _Pending(out, m, bd, diagrams, specs, rows)
 
 
-def _finish(p: _Pending, flex, standard: DesignStandard, settings: Settings) -> None:
+def _finish(
+    p: _Pending, flex, standard: DesignStandard, settings: Settings, stage: StageSpec
+) -> None:
     out, m, bd = p.out, p.member, p.demand
     n = len(p.rows)
     sl = slice(p.first, p.first + n)
@@ -460,6 +646,7 @@ def _finish(p: _Pending, flex, standard: DesignStandard, settings: Settings) -> 
                 load_combination=name,
                 braced_by=list(spec.braced_by),
                 continuous=spec.continuous,
+                stage=stage.name,
             )
         )
     if out.segments:
@@ -469,7 +656,8 @@ def _finish(p: _Pending, flex, standard: DesignStandard, settings: Settings) -> 
         out.flexure_utilisation = 0.0
     method = settings.design.method
     _shear(out, m, bd, standard, method)
-    _deflection(out, m, bd, settings)
+    if stage.deflection:
+        _deflection(out, m, bd, settings)
     checks = {
         "flexure": out.flexure_utilisation or 0.0,
         "shear": out.shear_utilisation or 0.0,

@@ -59,12 +59,26 @@ class BracingSettings:
 
 @dataclass
 class StoreyLoads:
+    """Area loads of one level (``loads.storeys``) or one slab (``loads.slabs``); None: not
+    given here (a slab entry falls back to its level's, a level's to the defaults)."""
+
     dead: float | None = None  # Pa, superimposed dead
-    live: float | None = None  # Pa
+    live: float | None = None  # Pa, floor live load L0 (on a roof: none unless given)
     deck_span: str | None = None  # "x", "y" or an angle in degrees as text
     # False for a level that carries no floor (a platform): its beams are checked
     # on what they carry (self-weight, line loads) rather than left unchecked
     floor: bool | None = None
+    roof_live: float | None = None  # Pa, Lr (ASCE 7-16 §4.8), as the engineer gives it
+    snow: float | None = None  # Pa, S (ASCE 7-16 Ch. 7), as the engineer computed it
+    # Pa, strength-level wind pressure upward (W), not reduced by dead load: the
+    # combinations take 0.9D (LRFD) or 0.6D (ASD) against it
+    wind_uplift: float | None = None
+    partitions: float | None = None  # Pa, partition allowance added as live load (§4.3.2)
+    live_reduction: bool | None = None  # False: no live load reduction here (§4.7)
+    assembly: bool | None = None  # an assembly occupancy: live load not reduced (§4.7.5)
+    # a roof: no floor live load or partitions unless given, no live load reduction;
+    # None: a roof where roof_live, snow or wind_uplift is given
+    roof: bool | None = None
 
 
 @dataclass
@@ -82,6 +96,51 @@ class DeckSettings:
     braces_top_flange: bool = True
 
 
+LOAD_CASES = ("D", "L", "Lr", "S", "W")  # the cases a line or point load may name
+
+
+@dataclass
+class LineLoadSettings:
+    """One ``[[loads.lines]]`` entry: a uniform load along beams named by one selector.
+
+    ``intensity`` acts downward for D, L, Lr and S and upward for W (uplift, like
+    ``wind_uplift``). ``start``/``end`` are stations along the beam from its start
+    point; None: the beam's ends.
+    """
+
+    case: str
+    intensity: float  # N/m
+    guid: str | None = None
+    name: str | None = None
+    edge: str | None = None  # a level: every edge beam of it
+    start: float | None = None  # m
+    end: float | None = None
+    label: str = ""  # what it is ("curtain wall"), for the load's source
+    index: int = 0  # 1-based position in the settings file
+
+    @property
+    def key(self) -> str:
+        return f"loads.lines[{self.index}]"
+
+
+@dataclass
+class PointLoadSettings:
+    """One ``[[loads.points]]`` entry: a force at a station of one beam (or every beam of
+    that name); downward for D, L, Lr and S, upward for W."""
+
+    case: str
+    force: float  # N
+    station: float  # m from the beam's start point
+    guid: str | None = None
+    name: str | None = None
+    label: str = ""
+    index: int = 0
+
+    @property
+    def key(self) -> str:
+        return f"loads.points[{self.index}]"
+
+
 @dataclass
 class LoadSettings:
     dead: float = 2872.8  # Pa (60 psf) superimposed dead on every floor
@@ -90,6 +149,29 @@ class LoadSettings:
     steel_density: float = 7850.0  # kg/m³
     storeys: dict[str, StoreyLoads] = field(default_factory=dict)
     slabs: dict[str, StoreyLoads] = field(default_factory=dict)  # by slab GUID
+    # ASCE 7-16 §4.7 live load reduction, off unless asked for
+    live_reduction: bool = False
+    partitions: float = 0.0  # Pa, partition allowance on every floor (§4.3.2), live load
+    lines: list[LineLoadSettings] = field(default_factory=list)
+    points: list[PointLoadSettings] = field(default_factory=list)
+
+
+@dataclass
+class ConstructionSettings:
+    """``[construction]``: the stage when the concrete is placed on the steel and deck.
+
+    ``wet_concrete`` None: each slab's own weight (modelled or declared thickness ×
+    ``loads.concrete_density``). ``live``: construction live load (personnel,
+    equipment, placement), 20 psf by default; ASCE 37-14 Table 4-1 (from memory)
+    gives duty classes of 20, 25, 50 and 75 psf, and placement by pump or hose is
+    commonly taken as medium duty, 50 psf. ``deck_braces`` False: the deck is not
+    attached, so it braces nothing. ``levels`` None: every level with a concrete slab.
+    """
+
+    wet_concrete: float | None = None  # Pa
+    live: float = 957.6  # Pa (20 psf)
+    deck_braces: bool = False
+    levels: list[str] | None = None
 
 
 @dataclass
@@ -135,6 +217,8 @@ class Settings:
     requirements: RequirementSettings = field(default_factory=RequirementSettings)
     # declared decks by level: a storey name or a level elevation such as "+36 ft"
     decks: dict[str, DeckSettings] = field(default_factory=dict)
+    # the construction stage, checked as well when given
+    construction: ConstructionSettings | None = None
     # where the settings came from (None: the built-in defaults) and which dotted
     # keys it set; every other value is a default (the design basis says which)
     source: str | None = None
@@ -175,8 +259,10 @@ def load_settings(path: Path | None) -> Settings:
 def settings_from_dict(d: Mapping[str, Any]) -> Settings:
     """Validate a parsed TOML document (nested dicts) into :class:`Settings`."""
     s = Settings()
-    _check_table(d, "", {*_SECTIONS, "decks"})
+    _check_table(d, "", {*_SECTIONS, "decks", "construction"})
     s.decks = _deck_table(d.get("decks", {}), "decks")
+    if "construction" in d:
+        s.construction = _construction_table(d["construction"], "construction")
     for section, fields in _SECTIONS.items():
         table = d.get(section)
         if table is None:
@@ -193,7 +279,10 @@ def _dotted_keys(d: Mapping[str, Any], prefix: str = "") -> list[str]:
     out: list[str] = []
     for k, v in d.items():
         key = f"{prefix}.{k}" if prefix else str(k)
-        out += _dotted_keys(v, key) if isinstance(v, Mapping) else [key]
+        if isinstance(v, Mapping):
+            out += _dotted_keys(v, key) or [key]  # an empty table is given too
+        else:
+            out.append(key)
     return out
 
 
@@ -354,7 +443,114 @@ _STOREY_FIELDS: dict[str, Callable[[Any, str], Any]] = {
     "live": _quantity("pressure"),
     "deck_span": _deck_span,
     "floor": _bool,
+    "roof_live": _quantity("pressure"),
+    "snow": _quantity("pressure"),
+    "wind_uplift": _quantity("pressure"),
+    "partitions": _quantity("pressure"),
+    "live_reduction": _bool,
+    "assembly": _bool,
+    "roof": _bool,
 }
+
+
+def _case(value: Any, key: str) -> str:
+    if not isinstance(value, str) or value.strip() not in LOAD_CASES:
+        raise _fail(key, f"{value!r} is not a load case (one of {', '.join(LOAD_CASES)})")
+    return value.strip()
+
+
+def _label(value: Any, key: str) -> str:
+    if not isinstance(value, str):
+        raise _fail(key, f"{value!r} is not text")
+    return value.strip()
+
+
+_LINE_FIELDS: dict[str, Callable[[Any, str], Any]] = {
+    "guid": _string,
+    "name": _string,
+    "edge": _string,
+    "case": _case,
+    "intensity": _quantity("line load"),
+    "start": _quantity("length"),
+    "end": _quantity("length"),
+    "label": _label,
+}
+
+_POINT_FIELDS: dict[str, Callable[[Any, str], Any]] = {
+    "guid": _string,
+    "name": _string,
+    "station": _quantity("length"),
+    "case": _case,
+    "force": _quantity("force"),
+    "label": _label,
+}
+
+
+def _entries(value: Any, key: str) -> list[Mapping[str, Any]]:
+    if not isinstance(value, list) or not all(isinstance(v, Mapping) for v in value):
+        raise _fail(key, f"{value!r} is not an array of tables (write [[{key}]] entries)")
+    return value
+
+
+def _selector(entry: Mapping[str, Any], where: str, allowed: tuple[str, ...]) -> None:
+    given = [k for k in allowed if k in entry]
+    if len(given) != 1:
+        raise _fail(where, f"give exactly one of {', '.join(allowed)} to say which beams it loads")
+
+
+def _required(entry: Mapping[str, Any], where: str, names: tuple[str, ...]) -> None:
+    for n in names:
+        if n not in entry:
+            raise _fail(_key(where, n), "missing (required)")
+
+
+def _line_table(value: Any, key: str) -> list[LineLoadSettings]:
+    out = []
+    for i, entry in enumerate(_entries(value, key), start=1):
+        where = f"{key}[{i}]"
+        _check_table(entry, where, set(_LINE_FIELDS))
+        _selector(entry, where, ("guid", "name", "edge"))
+        _required(entry, where, ("case", "intensity"))
+        kw = {k: _LINE_FIELDS[k](v, _key(where, k)) for k, v in entry.items()}
+        line = LineLoadSettings(index=i, **kw)
+        if line.start is not None and line.end is not None and line.end <= line.start:
+            raise _fail(where, "end must be beyond start")
+        out.append(line)
+    return out
+
+
+def _point_table(value: Any, key: str) -> list[PointLoadSettings]:
+    out = []
+    for i, entry in enumerate(_entries(value, key), start=1):
+        where = f"{key}[{i}]"
+        _check_table(entry, where, set(_POINT_FIELDS))
+        _selector(entry, where, ("guid", "name"))
+        _required(entry, where, ("station", "case", "force"))
+        kw = {k: _POINT_FIELDS[k](v, _key(where, k)) for k, v in entry.items()}
+        out.append(PointLoadSettings(index=i, **kw))
+    return out
+
+
+def _levels_list(value: Any, key: str) -> list[str]:
+    if not isinstance(value, list) or not value:
+        raise _fail(key, f"{value!r} is not a list of levels")
+    return [_string(v, f"{key}[{i}]") for i, v in enumerate(value, start=1)]
+
+
+_CONSTRUCTION_FIELDS: dict[str, Callable[[Any, str], Any]] = {
+    "wet_concrete": _quantity("pressure", strict=True),
+    "live": _quantity("pressure"),
+    "deck_braces": _bool,
+    "levels": _levels_list,
+}
+
+
+def _construction_table(value: Any, key: str) -> ConstructionSettings:
+    _check_table(value, key, set(_CONSTRUCTION_FIELDS))
+    return ConstructionSettings(
+        **{k: _CONSTRUCTION_FIELDS[k](v, _key(key, k)) for k, v in value.items()}
+    )
+
 
 _DECK_FIELDS: dict[str, Callable[[Any, str], Any]] = {
     "deck_span": _deck_span,
@@ -408,6 +604,10 @@ _SECTIONS: dict[str, dict[str, Callable[[Any, str], Any]]] = {
         "steel_density": _quantity("density", strict=True),
         "storeys": _storey_table,
         "slabs": _storey_table,
+        "live_reduction": _bool,
+        "partitions": _quantity("pressure"),
+        "lines": _line_table,
+        "points": _point_table,
     },
     "deflection": {"live": _ratio, "total": _ratio},
     "requirements": {"grades": _grade_list, **{k: _bool for k in REQUIREMENT_KEYS}},

@@ -4,7 +4,10 @@ Beams match by GlobalId; beams whose GUIDs were regenerated match by
 geometry (centroid line within a tolerance and the same profile). Brace
 stations of the old beam are carried onto the new beam's axis by projecting
 their points, so a beam that was redrawn in the other direction still
-compares station for station.
+compares station for station. Lb and utilisation are compared stage by stage
+(in service, and during construction where both revisions were checked in it),
+so a construction-stage finding of both revisions does not hide a change in
+service.
 """
 
 from __future__ import annotations
@@ -14,6 +17,7 @@ from collections import defaultdict
 import numpy as np
 
 from ifccheck.results import (
+    STAGES,
     BeamChange,
     BeamResult,
     CauseKind,
@@ -157,8 +161,9 @@ def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChang
     if len(new.supports) < len(old.supports) and not lost_sup:
         lost_sup = ["(support count fell)"]
     lost_cover = _lost_cover(old, new)
-    lb_before = old.governing.lb if old.governing else None
-    lb_after = new.governing.lb if new.governing else None
+    stages = _stage_pairs(old, new)
+    shown = _shown_stage(stages, new)
+    _stage, lb_before, lb_after, u_before, u_after = shown
     change = BeamChange(
         guid=new.guid,
         old_guid=old.guid,
@@ -172,12 +177,13 @@ def compare_beam(old: BeamResult, new: BeamResult, matched_by: str) -> BeamChang
         lost_continuous_bracing=round(lost_cover, 4),
         lb_before=lb_before,
         lb_after=lb_after,
-        utilisation_before=old.utilisation,
-        utilisation_after=new.utilisation,
+        utilisation_before=u_before,
+        utilisation_after=u_after,
         outcome_before=old.outcome,
         outcome_after=new.outcome,
+        stage=shown[0] or new.stage,
     )
-    causes = _causes(change)
+    causes = _causes(change, stages)
     tributary = _tributary_growth(old, new)
     if tributary is not None:
         causes.insert(0, tributary)
@@ -196,6 +202,60 @@ def _tributary(b: BeamResult) -> float | None:
     return d.tributary_left + d.tributary_right
 
 
+# (stage, Lb before, Lb after, utilisation before, utilisation after); the stage is ""
+# where both revisions have the in-service stage only
+_StagePair = tuple[str, float | None, float | None, float | None, float | None]
+
+
+def _stage_view(b: BeamResult, stage: str) -> tuple[float | None, float | None] | None:
+    """(Lb of the governing segment, utilisation) of a beam in one stage."""
+    if not b.stages:  # a result without stage records: its top-level values are in service
+        return (b.governing.lb if b.governing else None, b.utilisation) if stage == (
+            "in_service"
+        ) else None  # fmt: skip
+    st = b.stage_result(stage)
+    if st is None:
+        return None
+    seg = b.segments[st.governing_segment] if st.governing_segment is not None else None
+    return (seg.lb if seg else None, st.utilisation)
+
+
+def _stage_pairs(old: BeamResult, new: BeamResult) -> list[_StagePair]:
+    """Lb and utilisation of each stage both revisions were checked in."""
+    out: list[_StagePair] = []
+    for stage in STAGES:
+        a, b = _stage_view(old, stage), _stage_view(new, stage)
+        if a is not None and b is not None:
+            out.append((stage, a[0], b[0], a[1], b[1]))
+    if len(out) == 1 and out[0][0] == "in_service":
+        out = [("", *out[0][1:])]
+    if not out:  # not checked in a common stage: the governing values
+        lb = (old.governing.lb if old.governing else None, new.governing.lb if new.governing
+              else None)  # fmt: skip
+        out = [("", lb[0], lb[1], old.utilisation, new.utilisation)]
+    return out
+
+
+def _worse(p: _StagePair) -> bool:
+    _s, lb0, lb1, u0, u1 = p
+    grew = lb0 is not None and lb1 is not None and lb1 > lb0 + STATION_TOLERANCE
+    rose = u0 is not None and u1 is not None and u1 > u0 + UTILISATION_TOLERANCE
+    return grew or rose
+
+
+def _shown_stage(stages: list[_StagePair], new: BeamResult) -> _StagePair:
+    """The first stage that got worse, else the new revision's governing stage."""
+    for p in stages:
+        if _worse(p):
+            return p
+    return next((p for p in stages if p[0] == new.stage), stages[0])
+
+
+def _loaders(b: BeamResult) -> set[str]:
+    """The members whose reactions load a beam."""
+    return {p.source for p in b.demand.point_loads} if b.demand is not None else set()
+
+
 def _tributary_growth(old: BeamResult, new: BeamResult) -> ChangeCause | None:
     """A cause when the beam now carries a wider strip of floor (the neighbours named later)."""
     before, after = _tributary(old), _tributary(new)
@@ -206,8 +266,9 @@ def _tributary_growth(old: BeamResult, new: BeamResult) -> ChangeCause | None:
     return None
 
 
-def _causes(c: BeamChange) -> list[ChangeCause]:
-    """What changed, worse causes first; quantities stay in SI (the report words them)."""
+def _causes(c: BeamChange, stages: list[_StagePair]) -> list[ChangeCause]:
+    """What changed, worse causes first; quantities stay in SI (the report words them).
+    Lb and utilisation causes are per stage (``stages``), each naming its stage."""
     out: list[ChangeCause] = []
     if c.lost_brace_points:
         out.append(ChangeCause(CauseKind.LOST_BRACES, stations=tuple(c.lost_brace_points)))
@@ -215,27 +276,25 @@ def _causes(c: BeamChange) -> list[ChangeCause]:
         out.append(ChangeCause(CauseKind.LOST_SUPPORTS, members=tuple(c.lost_supports)))
     if c.lost_continuous_bracing > STATION_TOLERANCE:
         out.append(ChangeCause(CauseKind.LOST_SLAB_BRACING, after=c.lost_continuous_bracing))
-    if (
-        c.lb_before is not None
-        and c.lb_after is not None
-        and c.lb_after > c.lb_before + STATION_TOLERANCE
-    ):
-        out.append(ChangeCause(CauseKind.LB_GREW, before=c.lb_before, after=c.lb_after))
+    for stage, lb0, lb1, _u0, _u1 in stages:
+        if lb0 is not None and lb1 is not None and lb1 > lb0 + STATION_TOLERANCE:
+            out.append(ChangeCause(CauseKind.LB_GREW, before=lb0, after=lb1, stage=stage))
     rank_b, rank_a = OUTCOME_RANK[c.outcome_before], OUTCOME_RANK[c.outcome_after]
     outcome = (c.outcome_before, c.outcome_after)
     if rank_a > rank_b:
         out.append(ChangeCause(CauseKind.OUTCOME_WORSE, before=outcome[0], after=outcome[1]))
-    u = (c.utilisation_before, c.utilisation_after)
-    if u[0] is not None and u[1] is not None and u[1] > u[0] + UTILISATION_TOLERANCE:
-        out.append(ChangeCause(CauseKind.UTILISATION_ROSE, before=u[0], after=u[1]))
+    for stage, _lb0, _lb1, u0, u1 in stages:
+        if u0 is not None and u1 is not None and u1 > u0 + UTILISATION_TOLERANCE:
+            out.append(ChangeCause(CauseKind.UTILISATION_ROSE, before=u0, after=u1, stage=stage))
     if c.added_brace_points:
         out.append(ChangeCause(CauseKind.ADDED_BRACES, stations=tuple(c.added_brace_points)))
     if c.gained_supports:
         out.append(ChangeCause(CauseKind.GAINED_SUPPORTS, members=tuple(c.gained_supports)))
     if rank_a < rank_b:
         out.append(ChangeCause(CauseKind.OUTCOME_BETTER, before=outcome[0], after=outcome[1]))
-    if u[0] is not None and u[1] is not None and u[1] < u[0] - UTILISATION_TOLERANCE:
-        out.append(ChangeCause(CauseKind.UTILISATION_FELL, before=u[0], after=u[1]))
+    for stage, _lb0, _lb1, u0, u1 in stages:
+        if u0 is not None and u1 is not None and u1 < u0 - UTILISATION_TOLERANCE:
+            out.append(ChangeCause(CauseKind.UTILISATION_FELL, before=u0, after=u1, stage=stage))
     return out
 
 

@@ -35,6 +35,7 @@ from ifccheck.results import (
     HandCheck,
     SegmentResult,
     ShapeOption,
+    StageName,
     StationFromEnd,
 )
 from ifccheck.sections.table import SOURCE as TABLE_SOURCE
@@ -231,23 +232,31 @@ def explain_failure(
 ) -> Explanation:
     """The causes of a failing beam and the fixes the tool can offer."""
     assert m.section is not None and m.steel is not None
-    out = Explanation()
+    stage = _explained_stage(b)
+    out = Explanation(stage=stage)
+    st = b.stage_result(stage)
+    shear = st.shear_utilisation if st is not None else b.shear_utilisation
+    deflection = st.deflection_utilisation if st is not None else b.deflection_utilisation
+    governing = st.governing_segment if st is not None else b.governing_segment
     if m.grade_source == "default" or b.grade_source == "default":
         out.causes.append(ExplainCause(ExplainKind.ASSUMED_GRADE, value=b.grade))
-    if (b.shear_utilisation or 0.0) > 1.0:
+    if stage == "construction":
+        out.causes.append(ExplainCause(ExplainKind.DECK_NOT_ATTACHED))
+    if (shear or 0.0) > 1.0:
         out.causes.append(ExplainCause(ExplainKind.SHEAR_CONTROLS))
         out.bracing_helps = False
-    if (b.deflection_utilisation or 0.0) > 1.0:
+    if (deflection or 0.0) > 1.0:
         out.causes.append(ExplainCause(ExplainKind.DEFLECTION_CONTROLS))
         out.bracing_helps = False
-    failing = [i for i, s in enumerate(b.segments) if s.utilisation > 1.0]
+    failing = [i for i, s in enumerate(b.segments) if s.utilisation > 1.0 and s.stage == stage]
     if failing:
-        gi = b.governing_segment if b.governing_segment in failing else failing[0]
+        gi = governing if governing in failing else failing[0]
         assert gi is not None
         seg = b.segments[gi]
         out.segment = gi
         out.brace_flange = seg.flange
-        out.causes += _bracing_causes(b, seg, slabs)
+        if stage == "in_service":  # the brace points and slab bracing are in service
+            out.causes += _bracing_causes(b, seg, slabs)
         out.largest_passing_lb = largest_passing_lb(standard, m.section, m.steel, seg, method)
         if out.largest_passing_lb is None:
             out.causes.append(ExplainCause(ExplainKind.BEYOND_PLASTIC))
@@ -265,6 +274,14 @@ def explain_failure(
         out.bracing_helps = False
     out.lighter_shape, out.shape_checked = lightest_passing_shape(b, m, standard, method)
     return out
+
+
+def _explained_stage(b: BeamResult) -> StageName:
+    """The stage a failure is explained for: in service where it fails there."""
+    service = b.stage_result("in_service")
+    if service is None or service.outcome == "fail" or not b.stages:
+        return "in_service"
+    return "construction"
 
 
 def _bracing_causes(b: BeamResult, seg: SegmentResult, slabs: Sequence[Slab]) -> list[ExplainCause]:

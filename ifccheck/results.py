@@ -14,6 +14,10 @@ from ifccheck.reasons import Reason
 
 Outcome = Literal["pass", "fail", "not_checked"]
 OUTCOMES: tuple[Outcome, ...] = ("pass", "fail", "not_checked")
+# The stages a beam is checked in: the finished building, and (when the settings give
+# [construction]) the steel and deck alone under the wet concrete.
+StageName = Literal["in_service", "construction"]
+STAGES: tuple[StageName, ...] = ("in_service", "construction")
 
 
 @dataclass
@@ -33,6 +37,7 @@ class SegmentResult:
     load_combination: str
     braced_by: list[str] = field(default_factory=list)  # GUIDs at the segment's ends
     continuous: bool = False
+    stage: StageName = "in_service"  # the stage whose bracing and loads this is
 
 
 @dataclass
@@ -83,6 +88,18 @@ class LineLoadOut:
 
 
 @dataclass
+class LiveReductionOut:
+    """ASCE 7-16 §4.7 live load reduction of one beam (factor 1.0: not reduced)."""
+
+    factor: float  # L / L0, applied to the floor live load L0 in the strength combinations
+    k_ll: float  # live load element factor, Table 4.7-1
+    area: float  # m², tributary area A_T (for a girder: the floor of the beams it carries)
+    kind: str  # "interior beam", "edge beam without a cantilever slab", "cantilever beam", ...
+    floors: int  # floors whose live load it supports (limit 0.50 for one, 0.40 for more)
+    note: str  # the same in words
+
+
+@dataclass
 class DemandOut:
     """An auditable summary of how the demand was obtained."""
 
@@ -95,7 +112,11 @@ class DemandOut:
     shear_combination: str = ""
     max_moment: float = 0.0
     max_shear: float = 0.0
-    reactions: dict[str, list[float]] = field(default_factory=dict)  # case → per support
+    # case → per support: "D", "L" always, "Lr", "S", "W" where they load the beam;
+    # "D", "C" in the construction stage
+    reactions: dict[str, list[float]] = field(default_factory=dict)
+    live_reduction: LiveReductionOut | None = None  # None: no reducible floor live load
+    stage: StageName = "in_service"
 
 
 @dataclass
@@ -118,6 +139,7 @@ class ExplainKind(StrEnum):
     SHEAR_CONTROLS = "shear_controls"  # bracing cannot help
     DEFLECTION_CONTROLS = "deflection_controls"  # bracing cannot help
     BEYOND_PLASTIC = "beyond_plastic"  # demand above the plastic strength: no Lb helps
+    DECK_NOT_ATTACHED = "deck_not_attached"  # construction stage: the deck braces nothing
 
 
 @dataclass(frozen=True)
@@ -156,6 +178,8 @@ class Explanation:
     """Why a beam fails or is not checked, and what would make it pass."""
 
     causes: list[ExplainCause] = field(default_factory=list)
+    # the stage explained: in service where the beam fails in service, else construction
+    stage: StageName = "in_service"
     segment: int | None = None  # the failing segment the bracing figures are for
     largest_passing_lb: float | None = None  # m, at that segment's Cb and demand
     braces: list[StationFromEnd] = field(default_factory=list)  # new brace points that pass it
@@ -174,6 +198,29 @@ class HandCheck:
     factor: float  # φb (LRFD) or Ωb (ASD)
     factor_symbol: str  # "φb" or "Ωb"
     equations: list[str]  # e.g. "AISC 360-16 Eq. F2-5 (Lp)"
+
+
+@dataclass
+class BeamStageResult:
+    """One beam in one stage: that stage's utilisations, with its segments in
+    ``BeamResult.segments`` (``segment.stage`` says which)."""
+
+    stage: StageName
+    outcome: Outcome
+    utilisation: float | None = None  # worst of flexure, shear (and deflection in service)
+    controlling_limit: str = ""  # "flexure", "shear", "deflection"
+    strength_utilisation: float | None = None
+    flexure_utilisation: float | None = None
+    shear_demand: float | None = None  # N
+    shear_capacity: float | None = None  # N
+    shear_utilisation: float | None = None
+    deflection_utilisation: float | None = None  # in service only
+    governing_segment: int | None = None  # index into BeamResult.segments
+    reason: Reason | None = None  # why not checked in this stage
+    demand: DemandOut | None = None
+    diagram: SampledDiagram | None = None  # governing moment combination of this stage
+    curve: list[tuple[float, float]] | None = None  # strength versus Lb at its Cb and flange
+    notes: list[str] = field(default_factory=list)
 
 
 @dataclass
@@ -224,12 +271,24 @@ class BeamResult:
     end_members: tuple[str, str] = ("", "")
     explanation: Explanation | None = None  # for failing and not-checked beams
     trail: HandCheck | None = None  # the hand-check trail of the governing segment
+    # The stage that governs (the highest utilisation); the utilisations, governing
+    # segment, diagram and curve above are that stage's. ``outcome`` is the worst of the
+    # stages; ``demand``, brace points, slab bracing and deflections are in service.
+    stage: StageName = "in_service"
+    stages: list[BeamStageResult] = field(default_factory=list)  # in service first
 
     @property
     def governing(self) -> SegmentResult | None:
         if self.governing_segment is None:
             return None
         return self.segments[self.governing_segment]
+
+    def stage_result(self, stage: str) -> BeamStageResult | None:
+        """This beam's result in one stage, None where it was not checked in it."""
+        return next((s for s in self.stages if s.stage == stage), None)
+
+    def stage_segments(self, stage: str) -> list[SegmentResult]:
+        return [s for s in self.segments if s.stage == stage]
 
 
 @dataclass
@@ -263,6 +322,45 @@ class LoadBalance:
     case: str  # "D", "L", ...
     applied: float  # N
     delivered: float  # N
+
+
+@dataclass
+class CombinationOut:
+    """One load combination of a stage, factors by load case."""
+
+    name: str  # "1.2D+1.6L+0.5S", "0.9D+1.0W", "1.2D+1.6C"
+    factors: dict[str, float]
+    source: str  # "ASCE 7-16 §2.3.1 (2)", "ASCE 37-14 §2.2 (from memory), ..."
+    number: str = ""  # its number in the standard: "2", "6a"
+
+
+@dataclass
+class AreaLoadOut:
+    """One area load of one level (or of one slab with its own settings) in one stage."""
+
+    level: str
+    slab: str  # slab GUID where the slab's own entry gives it, else ""
+    case: str  # "D", "L", "Lr", "S", "W", "C"
+    what: str  # "superimposed dead", "live", "partitions", "roof live", "snow",
+    # "wind uplift" (acting upward), "wet concrete", "construction live"
+    pressure: float  # Pa
+    origin: str  # the settings key that gave it, or "default ..."
+
+
+@dataclass
+class StageResult:
+    """The design basis of one stage and what its check found."""
+
+    stage: StageName
+    title: str  # "in service", "construction"
+    slab_bracing: bool  # whether slabs (or decks) brace the top flanges they bear on
+    levels: list[str]  # the levels it covers
+    combinations: list[CombinationOut] = field(default_factory=list)
+    loads: list[AreaLoadOut] = field(default_factory=list)
+    load_balance: list[LoadBalance] = field(default_factory=list)
+    notes: list[str] = field(default_factory=list)  # what it assumes, in words
+    # beams checked in this stage by outcome, and how many it governs
+    summary: dict[str, int] = field(default_factory=dict)
 
 
 @dataclass
@@ -337,6 +435,9 @@ class CheckResult:
     excluded: dict[str, list[str]] = field(default_factory=dict)
     # the model information audit, one record per specification (empty: not audited)
     requirements: list[RequirementResult] = field(default_factory=list)
+    # the design basis and findings per stage: in service first, then construction when
+    # the settings give it
+    stages: list[StageResult] = field(default_factory=list)
 
     def not_checked_by_reason(self) -> dict[str, int]:
         """Not-checked beams counted by reason code."""
@@ -399,6 +500,7 @@ class ChangeCause:
     members: tuple[str, ...] = ()  # GUIDs
     before: float | str | None = None
     after: float | str | None = None
+    stage: str = ""  # for Lb and utilisation causes: the stage compared ("in_service", ...)
 
     @property
     def worse(self) -> bool:
@@ -427,6 +529,9 @@ class BeamChange:
     outcome_after: str = ""
     change: Change = "changed"
     causes: list[ChangeCause] = field(default_factory=list)
+    # the stage whose Lb and utilisation are shown above: the first stage that got
+    # worse, else the new revision's governing stage
+    stage: str = "in_service"
 
 
 @dataclass

@@ -162,8 +162,8 @@ def test_deck_span_angle_normalised_to_half_turn() -> None:
             "settings: loads.storeys.\"Level 2\".live: '-1 kPa' must not be negative",
         ),
         (
-            {"loads": {"storeys": {"Level 2": {"snow": "1 kPa"}}}},
-            'settings: loads.storeys."Level 2".snow: unknown key',
+            {"loads": {"storeys": {"Level 2": {"seismic": "1 kPa"}}}},
+            'settings: loads.storeys."Level 2".seismic: unknown key',
         ),
         ({"loads": {"dead": 60}}, "settings: loads.dead: 60 is not a pressure with units"),
         ({"loads": {"dead": "60"}}, "settings: loads.dead: '60' has no units"),
@@ -269,3 +269,113 @@ def test_format_si_and_imperial() -> None:
     assert format_stress(345e6) == "345.0 MPa"
     assert format_pressure(100 * PSF, "imperial") == "100.00 psf"
     assert format_pressure(2400.0) == "2.40 kPa"
+
+
+LOADS = """
+[loads]
+live_reduction = true
+partitions = "15 psf"
+
+[loads.storeys.Roof]
+roof_live = "20 psf"
+snow = "1.2 kPa"
+wind_uplift = "25 psf"
+
+[loads.storeys."Level 2"]
+assembly = true
+live_reduction = false
+
+[[loads.lines]]
+edge = "Level 2"
+case = "D"
+intensity = "0.4 klf"
+label = "curtain wall"
+
+[[loads.lines]]
+guid = "2O2Fr$t4X7Zf8NOew3FLOH"
+case = "W"
+intensity = "2 kN/m"
+start = "1 ft"
+end = "10 ft"
+
+[[loads.points]]
+name = "B-12"
+station = "15 ft"
+case = "L"
+force = "4 kip"
+
+[construction]
+live = "50 psf"
+deck_braces = true
+"""
+
+
+def test_load_cases_lines_points_and_construction_in_si(tmp_path: Path) -> None:
+    path = tmp_path / "loads.toml"
+    path.write_text(LOADS)
+    s = load_settings(path)
+    assert s.loads.live_reduction is True
+    assert s.loads.partitions == pytest.approx(15 * PSF)
+    roof = s.loads.storeys["Roof"]
+    assert (roof.roof_live, roof.snow, roof.wind_uplift) == (
+        pytest.approx(20 * PSF), pytest.approx(1200.0), pytest.approx(25 * PSF),
+    )  # fmt: skip
+    assert roof.roof is None  # a roof because it is given roof loads (see loads/cases.py)
+    lv2 = s.loads.storeys["Level 2"]
+    assert (lv2.assembly, lv2.live_reduction) == (True, False)
+    edge, wind = s.loads.lines
+    assert (edge.edge, edge.case, edge.label, edge.index) == ("Level 2", "D", "curtain wall", 1)
+    assert edge.intensity == pytest.approx(400 * LBF / FT)
+    assert (wind.guid, wind.case, wind.key) == ("2O2Fr$t4X7Zf8NOew3FLOH", "W", "loads.lines[2]")
+    assert (wind.intensity, wind.start, wind.end) == (2000.0, pytest.approx(FT),
+                                                      pytest.approx(10 * FT))  # fmt: skip
+    (point,) = s.loads.points
+    assert (point.name, point.case, point.key) == ("B-12", "L", "loads.points[1]")
+    assert (point.station, point.force) == (pytest.approx(15 * FT), pytest.approx(4000 * LBF))
+    c = s.construction
+    assert c is not None and c.deck_braces is True and c.live == pytest.approx(50 * PSF)
+    assert c.wet_concrete is None and c.levels is None
+    assert not s.is_default("construction.live") and s.is_default("construction.wet_concrete")
+    json.dumps(settings_to_dict(s))  # plain data
+
+
+def test_construction_defaults_and_absence() -> None:
+    assert Settings().construction is None  # no construction stage unless asked for
+    c = settings_from_dict({"construction": {}}).construction
+    assert c is not None
+    # 20 psf, the lightest ASCE 37-14 duty class (from memory); deck not attached
+    assert c.live == pytest.approx(20 * PSF, rel=1e-4) and c.deck_braces is False
+
+
+@pytest.mark.parametrize(
+    ("doc", "message"),
+    [
+        ({"loads": {"lines": [{"guid": "a", "name": "b", "case": "D", "intensity": "1 klf"}]}},
+         "settings: loads.lines[1]: give exactly one of guid, name, edge"),
+        ({"loads": {"lines": [{"case": "D", "intensity": "1 klf"}]}},
+         "settings: loads.lines[1]: give exactly one of guid, name, edge"),
+        ({"loads": {"lines": [{"guid": "a", "intensity": "1 klf"}]}},
+         "settings: loads.lines[1].case: missing"),
+        ({"loads": {"lines": [{"guid": "a", "case": "E", "intensity": "1 klf"}]}},
+         "settings: loads.lines[1].case: 'E' is not a load case (one of D, L, Lr, S, W)"),
+        ({"loads": {"lines": [{"guid": "a", "case": "D", "intensity": "1 kip"}]}},
+         "settings: loads.lines[1].intensity: '1 kip' is not a line load"),
+        ({"loads": {"lines": [{"guid": "a", "case": "D", "intensity": "1 klf", "start": "5 ft",
+                               "end": "2 ft"}]}}, "settings: loads.lines[1]: end must be beyond"),
+        ({"loads": {"lines": {"guid": "a"}}},
+         "settings: loads.lines: {'guid': 'a'} is not an array"),
+        ({"loads": {"points": [{"guid": "a", "case": "D", "force": "1 kip"}]}},
+         "settings: loads.points[1].station: missing"),
+        ({"loads": {"points": [{"edge": "L2", "station": "1 ft", "case": "D", "force": "1 kip"}]}},
+         "settings: loads.points[1].edge: unknown key"),
+        ({"construction": {"live": "-5 psf"}}, "settings: construction.live: '-5 psf' must not"),
+        ({"construction": {"wet_concrete": "0 psf"}}, "settings: construction.wet_concrete:"),
+        ({"construction": {"shoring": True}}, "settings: construction.shoring: unknown key"),
+        ({"loads": {"storeys": {"Roof": {"roof": "yes"}}}},
+         "settings: loads.storeys.Roof.roof: 'yes' is not true or false"),
+    ],
+)  # fmt: skip
+def test_bad_load_entries_rejected_naming_the_key(doc: dict, message: str) -> None:
+    with pytest.raises(SettingsError) as e:
+        settings_from_dict(doc)
+    assert str(e.value).startswith(message), str(e.value)

@@ -43,8 +43,12 @@ def test_loads_per_level_and_case(demo):
     assert loads[("Level 2", "superimposed dead")].pressure == pytest.approx(20 * PSF, rel=1e-6)
     assert loads[("Level 2", "live")].pressure == pytest.approx(80 * PSF, rel=1e-6)
     assert loads[("Roof", "superimposed dead")].pressure == pytest.approx(25 * PSF, rel=1e-6)
-    assert loads[("Roof", "live")].source == 'loads.storeys."Roof".live'
-    assert not loads[("Roof", "live")].default
+    # a roof carries roof live load (and the demo's snow and uplift), no floor live load
+    assert ("Roof", "live") not in loads
+    assert loads[("Roof", "roof live")].source == 'loads.storeys."Roof".roof_live'
+    assert loads[("Roof", "roof live")].pressure == pytest.approx(20 * PSF, rel=1e-6)
+    assert not loads[("Roof", "roof live")].default and not loads[("Level 2", "live")].default
+    assert loads[("Level 2", "live")].source == "loads.live"  # the [loads] value, given
     # slab self-weight: the modelled thickness × 2400 kg/m³ (normal-weight concrete) × g
     slab = next(s for s in read_model(SAMPLES / "quillfeather-rev-b.ifc").slabs)
     weight = loads[("Level 2", "slab self-weight")]
@@ -67,7 +71,9 @@ def test_combinations_and_assumptions(demo):
     result, _ = demo
     doc = basis_document(result)
     sources = {c["name"]: c["source"] for c in doc["combinations"]}
-    assert sources["1.2D+1.6L"] == "ASCE 7-16 §2.3.1 (2)" and sources["1.4D"].endswith("(1)")
+    # the in-service stage's combinations, ASCE 7-16 §2.3.1 by number
+    assert sources["1.2D+1.6L+0.5S"] == "ASCE 7-16 §2.3.1 (2)" and sources["1.4D"].endswith("(1)")
+    assert sources["0.9D+1.0W"] == "ASCE 7-16 §2.3.1 (6)"
     assert {"L", "D+L"} <= set(sources)  # the deflection combinations
     codes = {c for c, _ in assumptions(result)}
     assert {"slab_braces_top_flange", "composite_ignored", "ends_restrained"} <= codes

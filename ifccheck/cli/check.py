@@ -126,6 +126,20 @@ def _count_line(result: CheckResult, units: UnitSystem) -> str:
     return line
 
 
+def _stage_lines(result: CheckResult) -> list[str]:
+    """One line per stage beyond the in-service one (the construction stage)."""
+    out = []
+    for st in result.stages[1:]:
+        bracing = "deck attached" if st.slab_bracing else "deck not attached, no slab bracing"
+        n = st.summary
+        out.append(
+            f"{st.title} stage on {', '.join(st.levels) or 'no level'} ({bracing}): "
+            f"{n.get('total', 0)} beams checked, {n.get('pass', 0)} pass, {n.get('fail', 0)} "
+            f"fail; it governs {n.get('governing', 0)}"
+        )
+    return out
+
+
 def _check_keys_over_revisions(settings, old_model, new_model) -> None:
     """One settings file serves both revisions: a key must name something in at least
     one of them (else exit 2), and one that names something in only one is a warning."""
@@ -144,33 +158,53 @@ def _check_keys_over_revisions(settings, old_model, new_model) -> None:
         click.echo(f"warning: settings {key} names nothing in {where}", err=True)
 
 
-def _beam_words(b, du: DisplayUnits) -> str:
+def _beam_words(b, du: DisplayUnits, stage: str | None = None) -> str:
     """'L2-B2-20 (Level 2, W21X44): utilisation 1.11, elastic lateral-torsional buckling
-    over Lb = 15.00 ft'."""
+    over Lb = 15.00 ft', in ``stage`` (default: the governing one)."""
     from ifccheck.report.wording import CHECK_WORDS, lb_text, limit_state_words
 
+    st = b.stage_result(stage or b.stage) if b.stages else None
+    utilisation = st.utilisation if st is not None else b.utilisation
+    limit = st.controlling_limit if st is not None else b.controlling_limit
+    index = st.governing_segment if st is not None else b.governing_segment
+    gov = b.segments[index] if index is not None and index < len(b.segments) else None
     head = f"{b.name or b.guid} ({', '.join(p for p in (b.storey, b.profile) if p)})"
-    text = f"{head}: utilisation {utilisation_text(b.utilisation)}"
-    gov = b.governing
-    if b.controlling_limit == "flexure" and gov is not None:
+    text = f"{head}: utilisation {utilisation_text(utilisation)}"
+    if limit == "flexure" and gov is not None:
         text += f", {limit_state_words(gov.limit_state)} over Lb = {lb_text(gov, du)}"
-    elif b.controlling_limit:
-        text += f", {CHECK_WORDS.get(b.controlling_limit, b.controlling_limit)}"
+    elif limit:
+        text += f", {CHECK_WORDS.get(limit, limit)}"
     return text
 
 
+def _fails_in(b, stage: str) -> bool:
+    st = b.stage_result(stage) if b.stages else None
+    return (
+        st.outcome == "fail" if st is not None else (stage == "in_service" and b.outcome == "fail")
+    )
+
+
 def _attention_lines(result: CheckResult, du: DisplayUnits) -> list[str]:
-    """The failing beams (worst first) and the not-checked ones, up to LISTED."""
+    """The beams failing in service (worst first), the not-checked ones, then those that
+    fail only during construction; up to LISTED."""
     from ifccheck.report.wording import name_guids
 
-    fails = sorted(
-        (b for b in result.beams if b.outcome == "fail"), key=lambda b: -(b.utilisation or 0.0)
-    )
-    nots = [b for b in result.beams if b.outcome == "not_checked"]
-    lines = [f"  fail: {_beam_words(b, du)}" for b in fails]
-    for b in nots:
+    def worst(stage: str):
+        return lambda b: -((b.stage_result(stage) or b).utilisation or 0.0)
+
+    fails = [b for b in result.beams if b.outcome == "fail"]
+    in_service = sorted((b for b in fails if _fails_in(b, "in_service")), key=worst("in_service"))
+    constr = sorted((b for b in fails if not _fails_in(b, "in_service")), key=worst("construction"))
+    lines = []
+    for b in in_service:
+        line = f"  fail: {_beam_words(b, du, 'in_service')}"
+        if _fails_in(b, "construction"):
+            line += "; fails during construction too"
+        lines.append(line)
+    for b in (b for b in result.beams if b.outcome == "not_checked"):
         reason = name_guids(b.reason.text, result.names, False) if b.reason else "no reason"
         lines.append(f"  not checked: {b.name or b.guid} ({b.storey}): {reason}")
+    lines += [f"  fail during construction: {_beam_words(b, du, 'construction')}" for b in constr]
     if len(lines) > LISTED:
         lines = [*lines[:LISTED], f"  and {len(lines) - LISTED} more (see the report)"]
     return lines
@@ -261,7 +295,7 @@ def check(model_path, config, demands, no_requirements, ids_files, out_dir, unit
     if defaults:
         click.echo(f"note: {defaults}", err=True)
     click.echo(_summary_line(result, chosen))
-    for line in _attention_lines(result, du):
+    for line in [*_stage_lines(result), *_attention_lines(result, du)]:
         click.echo(line)
     files = ", ".join(p.name for p in written.values())
     click.echo(f"results written to {Path(out_dir)}: {files}")

@@ -15,10 +15,10 @@ import shapely
 from shapely.geometry import MultiPolygon, Polygon
 from shapely.ops import polygonize, unary_union
 
-from ifccheck.config import DeckSettings, Settings
+from ifccheck.config import DeckSettings, LineLoadSettings, PointLoadSettings, Settings
 from ifccheck.errors import QuantityError, SettingsError
 from ifccheck.floors.levels import is_level_framing
-from ifccheck.model import Level, Model, Slab
+from ifccheck.model import Level, Member, MemberRole, Model, Slab
 from ifccheck.units import parse_quantity
 
 # Beam lines are extended by this at both ends before noding, so that framing
@@ -112,9 +112,10 @@ def framed_area(model: Model, level: str, gap: float) -> Polygon | MultiPolygon:
 def unmatched_keys(model: Model, settings: Settings) -> list[tuple[str, str]]:
     """Settings keys that name something the model does not have: (key, what it could be).
 
-    Levels (``loads.storeys``, ``decks``) match by name, storey or elevation;
-    materials (``steel.materials``) by name (case and spaces aside); slabs
-    (``loads.slabs``) by GUID. The second item lists the nearest names.
+    Levels (``loads.storeys``, ``decks``, ``construction.levels``, the ``edge`` of a line
+    load) match by name, storey or elevation; materials (``steel.materials``) by name
+    (case and spaces aside); slabs (``loads.slabs``) by GUID; the beams of line and point
+    loads by GUID or name. The second item lists the nearest names.
     """
     import difflib
 
@@ -137,6 +138,70 @@ def unmatched_keys(model: Model, settings: Settings) -> list[tuple[str, str]]:
         if key not in guids:
             near = difflib.get_close_matches(key, guids, n=3, cutoff=0.4)
             out.append((f"loads.slabs.{key!r}", "slabs: " + (", ".join(near) or "none near")))
+    if settings.construction is not None:
+        for key in settings.construction.levels or []:
+            if not match_levels(key, model.levels, tol):
+                near = difflib.get_close_matches(key, names, n=3, cutoff=0.4) or names[:5]
+                out.append((f"construction.levels {key!r}", "levels: " + (", ".join(near)
+                                                                          or "none")))  # fmt: skip
+    out += _unmatched_selectors(model, settings, names)
+    return out
+
+
+def _unmatched_selectors(
+    model: Model, settings: Settings, level_names: list[str]
+) -> list[tuple[str, str]]:
+    """Line and point loads whose GUID or name is no beam of the model, or whose edge
+    names no level."""
+    import difflib
+
+    beams = [m for m in model.members if m.role is MemberRole.BEAM]
+    guids = {m.guid for m in beams}
+    names = sorted({m.name for m in beams if m.name})
+    out: list[tuple[str, str]] = []
+    entries: list[LineLoadSettings | PointLoadSettings] = [
+        *settings.loads.lines, *settings.loads.points
+    ]  # fmt: skip
+    for e in entries:
+        if e.guid is not None and e.guid not in guids:
+            near = difflib.get_close_matches(e.guid, sorted(guids), n=3, cutoff=0.4)
+            out.append((f"{e.key}.guid {e.guid!r}", "beams: " + (", ".join(near) or "none near")))
+        if e.name is not None and e.name not in names:
+            near = difflib.get_close_matches(e.name, names, n=3, cutoff=0.4) or names[:5]
+            out.append((f"{e.key}.name {e.name!r}", "beams: " + (", ".join(near) or "none")))
+        edge = getattr(e, "edge", None)
+        tol = settings.framing.level_tolerance
+        if edge is not None and not match_levels(edge, model.levels, tol):
+            near = difflib.get_close_matches(edge, level_names, n=3, cutoff=0.4) or level_names[:5]
+            out.append((f"{e.key}.edge {edge!r}", "levels: " + (", ".join(near) or "none")))
+    return out
+
+
+def station_problems(model: Model, settings: Settings) -> list[str]:
+    """Line and point loads whose stations lie off the beams they name (one line each)."""
+    tol = 0.005  # m, rounding of modelled lengths
+    by_guid = {m.guid: m for m in model.members if m.role is MemberRole.BEAM}
+    by_name: dict[str, list[Member]] = {}
+    for m in by_guid.values():
+        by_name.setdefault(m.name, []).append(m)
+    out: list[str] = []
+    entries: list[LineLoadSettings | PointLoadSettings] = [
+        *settings.loads.lines, *settings.loads.points
+    ]  # fmt: skip
+    for e in entries:
+        targets = [by_guid[e.guid]] if e.guid in by_guid else by_name.get(e.name or "", [])
+        stations: list[tuple[str, float | None]] = (
+            [("station", e.station)]
+            if isinstance(e, PointLoadSettings)
+            else [("start", e.start), ("end", e.end)]
+        )
+        for m in targets:
+            for what, x in stations:
+                if x is not None and x > m.length + tol:
+                    out.append(
+                        f"settings: {e.key}.{what}: {x:.3f} m lies beyond beam "
+                        f"{m.name or m.guid} ({m.length:.3f} m long)"
+                    )
     return out
 
 
@@ -149,3 +214,6 @@ def check_keys(model: Model, settings: Settings) -> None:
         raise SettingsError(
             f"settings: {key} names nothing in {model.source}; nearest {near}{more}"
         )
+    problems = station_problems(model, settings)
+    if problems:
+        raise SettingsError(problems[0])

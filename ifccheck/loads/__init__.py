@@ -1,27 +1,30 @@
-"""Loads stage: tributary widths, load path, combinations and beam statics.
+"""Loads stage: tributary widths, load cases, load path, combinations and beam statics.
 
-``compute_demand(model, framing, settings)`` is the entry point; the parts
-(``statics``, ``combinations``, ``tributary``) are usable alone.
+``compute_demand(model, framing, settings)`` is the entry point (``stage=
+"construction"`` for the construction stage); the parts (``statics``,
+``combinations``, ``cases``, ``reduction``, ``tributary``) are usable alone.
 """
 
+from ifccheck.loads.cases import CONSTRUCTION, IN_SERVICE, LineLoadItem, PointLoadItem
 from ifccheck.loads.combinations import (
     ASD,
+    CASES,
     LRFD,
     SERVICE,
     Combination,
     governing,
+    reduce_to,
     strength_combinations,
 )
 from ifccheck.loads.demand import (
     BeamDemand,
     DemandFileError,
     DemandResult,
-    LineLoadItem,
-    PointLoadItem,
     SupportReaction,
     compute_demand,
     load_demand_csv,
 )
+from ifccheck.loads.reduction import LiveReduction, reduction_factor
 from ifccheck.loads.statics import (
     BeamAnalysis,
     BeamProblem,
@@ -38,6 +41,9 @@ from ifccheck.loads.tributary import DeckSpan, Tributary, TributaryResult, compu
 
 __all__ = [
     "ASD",
+    "CASES",
+    "CONSTRUCTION",
+    "IN_SERVICE",
     "LRFD",
     "SERVICE",
     "BeamAnalysis",
@@ -51,6 +57,7 @@ __all__ = [
     "Diagram",
     "LineLoad",
     "LineLoadItem",
+    "LiveReduction",
     "PointLoad",
     "PointLoadItem",
     "SupportReaction",
@@ -63,6 +70,8 @@ __all__ = [
     "compute_tributary",
     "governing",
     "load_demand_csv",
+    "reduce_to",
+    "reduction_factor",
     "solve_beam",
     "strength_combinations",
 ]

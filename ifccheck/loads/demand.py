@@ -1,16 +1,21 @@
 """Demand on every floor beam: Model + Framing + Settings → loads, diagrams, maxima.
 
-1. Tributary widths (``tributary.py``) turn area loads into line loads:
-   superimposed dead and live load on the floor area, slab self-weight from
-   each slab's modelled thickness, steel self-weight from the section area.
+1. Tributary widths (``tributary.py``) turn area loads into line loads by case
+   (``cases.py``): superimposed dead, floor live, partitions, roof live, snow and
+   wind uplift on the floor area, slab self-weight from each slab's modelled
+   thickness, steel self-weight from the section area, and the line and point
+   loads of the settings. During construction (``stage``): the steel, the wet
+   concrete and the construction live load only.
 2. The load path runs carried → carrier: beams are solved level by level
    (infill, then the girders they frame into, ...), each beam's unfactored
-   end reactions per load case (D, L) becoming point loads on the members it
-   bears on at the station where it meets them. Columns, walls and other
-   non-beam supports collect the reactions (reported, not checked).
-3. Statics per beam (``statics.py``) and the ASCE 7-16 combinations
-   (``combinations.py``) give the diagrams and the governing combination for
-   moment and for shear.
+   end reactions per load case becoming point loads on the members it bears on
+   at the station where it meets them. Columns, walls and other non-beam
+   supports collect the reactions (reported, not checked). The floor each
+   beam carries (A_T) travels with its live-load reactions, for live load
+   reduction (``reduction.py``, ASCE 7-16 §4.7).
+3. Statics per beam (``statics.py``) and the ASCE 7-16 (or ASCE 37-14)
+   combinations of the cases that load it (``combinations.py``) give the
+   diagrams and the governing combination for moment and for shear.
 
 A beam that cannot be computed (fewer than two supports, part of a support
 cycle, outside the framing analysis) gets a ``reason``; the rest of the model
@@ -33,14 +38,41 @@ from ifccheck.config import Settings, StoreyLoads
 from ifccheck.errors import DemandFileError, QuantityError
 from ifccheck.framing.graph import cycle_path
 from ifccheck.framing.types import Framing, Support
+from ifccheck.loads.cases import (
+    CONSTRUCTION,
+    IN_SERVICE,
+    NOT_COMPUTED_NOTE,
+    BasisRow,
+    FloorLoadTable,
+    LineLoadItem,
+    PointLoadItem,
+    Stage,
+    StageName,
+    UserLoads,
+    analysis_case,
+    basis_rows,
+    construction_levels,
+    own_loads,
+    public_case,
+    reducible_area,
+    slab_weight,
+    user_loads,
+    wet_concrete,
+)
 from ifccheck.loads.combinations import (
-    SERVICE,
+    CASES,
+    CONSTRUCTION_CASES,
+    PATTERNED,
+    REDUCIBLE,
     Combination,
     governing,
     live_patterns,
     patterned,
+    reduce_to,
+    service_combinations,
     strength_combinations,
 )
+from ifccheck.loads.reduction import LiveReduction, beam_kind
 from ifccheck.loads.spans import is_floor_beam, span_note
 from ifccheck.loads.statics import (
     BeamAnalysis,
@@ -61,34 +93,17 @@ from ifccheck.loads.tributary import (
     level_entries,
     level_of,
 )
-from ifccheck.model import Member, Model, Slab
+from ifccheck.model import Member, Model
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import NotChecked, Reason
-from ifccheck.results import DemandOut, LineLoadOut, PointLoadOut
-from ifccheck.units import G, parse_quantity
+from ifccheck.results import DemandOut, LineLoadOut, LiveReductionOut, PointLoadOut
+from ifccheck.units import parse_quantity
 
-CASES = ("D", "L")
+__all__ = ["CASES", "CONSTRUCTION_CASES", "LineLoadItem", "PointLoadItem"]
 
 # Support priority when one beam end bears on several members at once (an
 # infill end at a column-girder joint): the reaction goes to the first kind.
 _SUPPORT_RANK = {"IfcColumn": 0, "IfcWall": 1}
-
-
-@dataclass(frozen=True)
-class LineLoadItem:
-    case: str  # "D" or "L"
-    w: float  # N/m, downward positive
-    start: float  # m along the beam
-    end: float
-    source: str  # "superimposed dead", "live", "slab self-weight <guid>", "steel self-weight"
-
-
-@dataclass(frozen=True)
-class PointLoadItem:
-    case: str
-    P: float  # N, downward positive (negative: uplift from a backspan)
-    station: float  # m along the beam
-    source: str  # GUID of the beam whose reaction this is
 
 
 @dataclass(frozen=True)
@@ -139,9 +154,12 @@ class BeamDemand:
     point_loads: list[PointLoadItem] = field(default_factory=list)
     supports: list[SupportReaction] = field(default_factory=list)
     analysis: BeamAnalysis | None = None
+    # strength combinations of the cases that load it, with live-load patterns where it
+    # has several regions; factors by analysis case (the reducible live load "L0" times
+    # the reduction factor)
     combinations: tuple[Combination, ...] = ()
-    # service combinations, with live-load patterns where the beam has several regions
-    service: tuple[Combination, ...] = SERVICE
+    # service combinations, unreduced, with live-load patterns where it has several regions
+    service: tuple[Combination, ...] = ()
     governing_moment: str = ""
     governing_shear: str = ""
     max_moment: float = 0.0  # N·m, |M| of the governing combination
@@ -156,6 +174,8 @@ class BeamDemand:
     span_length: float = 0.0
     floor_loaded: bool = False  # a floor or roof load reached it (itself or carried)
     from_analysis: AnalysisDemand | None = None  # its line of the demand file
+    live_reduction: LiveReduction | None = None  # ASCE 7-16 §4.7, where it carries L0
+    stage: StageName = IN_SERVICE
 
     @property
     def computed(self) -> bool:
@@ -166,21 +186,32 @@ class BeamDemand:
         """(start, end, "span" | "overhang") between supports, m."""
         return self.analysis.spans if self.analysis is not None else []
 
+    @property
+    def cases(self) -> list[str]:
+        """The load cases that load it (with a load that is not zero), in the standard order."""
+        have = {x.case for x in self.line_loads if x.w != 0.0}
+        have |= {y.case for y in self.point_loads if y.P != 0.0}
+        order = (*CASES, *CONSTRUCTION_CASES)
+        return [c for c in dict.fromkeys(order) if c in have]
+
     def diagram(self, combination: str | Combination) -> Diagram:
         """Diagram of a strength or service combination, or of a load case by name."""
         if self.analysis is None:
             raise ValueError(f"{self.guid}: no diagram ({self.reason or 'demand from analysis'})")
         if isinstance(combination, Combination):
-            return self.analysis.combine(combination.factors)
+            return self.analysis.combine(_internal(combination.factors))
         for c in (*self.combinations, *self.service):
             if c.name == combination:
                 return self.analysis.combine(c.factors)
+        if combination == "L":
+            return self.analysis.combine({"L": 1.0, REDUCIBLE: 1.0})
         if combination in self.analysis.cases:
             return self.analysis.case(combination)
         raise KeyError(f"no combination or load case named {combination!r}")
 
     def to_output(self) -> DemandOut:
         """The auditable summary for the results writers."""
+        lr = self.live_reduction
         return DemandOut(
             source=self.source,
             tributary_left=self.tributary_left,
@@ -193,8 +224,35 @@ class BeamDemand:
             shear_combination=self.governing_shear,
             max_moment=self.max_moment,
             max_shear=self.max_shear,
-            reactions={c: [s.reactions.get(c, 0.0) for s in self.supports] for c in CASES},
+            reactions={
+                c: [s.reactions.get(c, 0.0) for s in self.supports]
+                for c in (CONSTRUCTION_CASES if self.stage == CONSTRUCTION else ("D", "L"))
+                + tuple(c for c in self.cases if c not in ("D", "L", "C"))
+            },
+            live_reduction=(
+                LiveReductionOut(lr.factor, lr.k_ll, lr.area, lr.kind, lr.floors, lr.note)
+                if lr is not None
+                else None
+            ),
+            stage=self.stage,
         )
+
+
+def _internal(factors: Mapping[str, float], reduction: float = 1.0) -> dict[str, float]:
+    """Factors by load case → by analysis case: L covers its reducible part L0 as well,
+    that part times the live load reduction factor."""
+    out: dict[str, float] = {}
+    for case, f in factors.items():
+        if case == "L":
+            out["L"] = f
+            out[REDUCIBLE] = f * reduction
+        else:
+            out[case] = f
+    return out
+
+
+def _internal_combination(c: Combination, reduction: float = 1.0) -> Combination:
+    return Combination(c.name, _internal(c.factors, reduction), c.purpose, c.source, c.number)
 
 
 @dataclass
@@ -206,6 +264,13 @@ class DemandResult:
     method: str
     warnings: list[tuple[str, str]] = field(default_factory=list)
     load_balance: list[LoadBalanceRow] = field(default_factory=list)
+    stage: StageName = IN_SERVICE
+    # the levels the stage covers (construction: where concrete is placed; None: all)
+    levels: frozenset[str] | None = None
+    # the stage's strength combinations of the load cases present in the model
+    combinations: tuple[Combination, ...] = ()
+    basis: list[BasisRow] = field(default_factory=list)  # the area loads of each level
+    notes: list[str] = field(default_factory=list)  # what the stage assumes, in words
 
 
 @dataclass(frozen=True)
@@ -214,22 +279,8 @@ class LoadBalanceRow:
 
     level: str
     case: str
-    applied: float  # N: floor area × pressure, slab and steel self-weight
+    applied: float  # N: floor area × pressure, slab and steel self-weight, line and point loads
     delivered: float  # N: reactions onto columns, walls and members of other levels
-
-
-def _pressures(
-    settings: Settings, level: StoreyLoads | None, slab: Slab | None
-) -> tuple[float, float]:
-    """(superimposed dead, live) in Pa: slab override, then level, then default."""
-    loads = settings.loads
-    chain: list[StoreyLoads | None] = []
-    if slab is not None:
-        chain.append(loads.slabs.get(slab.guid))
-    chain.append(level)
-    dead = next((e.dead for e in chain if e is not None and e.dead is not None), loads.dead)
-    live = next((e.live for e in chain if e is not None and e.live is not None), loads.live)
-    return dead, live
 
 
 def _bending_stiffness(m: Member) -> float | None:
@@ -237,44 +288,6 @@ def _bending_stiffness(m: Member) -> float | None:
     if m.section is None or m.steel is None:
         return None
     return m.steel.E * (m.section.Iy if m.bending_axis == "minor" else m.section.Ix)
-
-
-def _slab_weight(slab: Slab, settings: Settings) -> float:
-    """Self-weight of a slab or declared deck, Pa."""
-    if slab.self_weight is not None:
-        return slab.self_weight
-    return slab.thickness * settings.loads.concrete_density * G
-
-
-def _own_loads(
-    m: Member,
-    length: float,
-    tr: Tributary | None,
-    settings: Settings,
-    slabs: Mapping[str, Slab],
-    level: StoreyLoads | None = None,
-) -> list[LineLoadItem]:
-    """Steel self-weight, and the floor of its tributary unless its level carries none."""
-    out: list[LineLoadItem] = []
-    if m.section is not None and m.section.A > 0:
-        w = m.section.A * settings.loads.steel_density * G
-        out.append(LineLoadItem("D", w, 0.0, length, "steel self-weight"))
-    if tr is None or (level is not None and level.floor is False):
-        return out
-    for p in tr.pieces:
-        slab = slabs.get(p.slab) if p.slab else None
-        if p.kind == "floor":
-            dead, live = _pressures(settings, level, slab)
-            if dead > 0:
-                out.append(LineLoadItem("D", dead * p.width, p.start, p.end, "superimposed dead"))
-            if live > 0:
-                out.append(LineLoadItem("L", live * p.width, p.start, p.end, "live"))
-        elif slab is not None:
-            q = _slab_weight(slab, settings)
-            out.append(
-                LineLoadItem("D", q * p.width, p.start, p.end, f"slab self-weight {slab.guid}")
-            )
-    return out
 
 
 @dataclass(frozen=True)
@@ -338,10 +351,29 @@ def compute_demand(
     framing: Framing,
     settings: Settings,
     overrides: Mapping[str, AnalysisDemand] | None = None,
+    stage: StageName = IN_SERVICE,
 ) -> DemandResult:
-    """Demand on every floor beam of the model (see the module docstring)."""
+    """Demand on every floor beam of the model (see the module docstring), in service or
+    during construction (``stage="construction"``, with ``settings.construction``)."""
     with gc_paused():
-        return _compute_demand(model, framing, settings, overrides)
+        return _compute_demand(model, framing, settings, overrides, _stage(model, settings, stage))
+
+
+def _stage(model: Model, settings: Settings, name: StageName) -> Stage:
+    if name == CONSTRUCTION:
+        return Stage(CONSTRUCTION, construction_levels(model, settings), settings.construction)
+    return Stage(IN_SERVICE)
+
+
+@dataclass
+class _Carried:
+    """What reaches a beam through the beams it carries: reducible floor (m²), by level."""
+
+    area: dict[str, float] = field(default_factory=dict)
+
+    def add(self, level: str, area: float) -> None:
+        if area > 0:
+            self.area[level] = self.area.get(level, 0.0) + area
 
 
 def _compute_demand(
@@ -349,28 +381,42 @@ def _compute_demand(
     framing: Framing,
     settings: Settings,
     overrides: Mapping[str, AnalysisDemand] | None,
+    stage: Stage,
 ) -> DemandResult:
     trib = compute_tributary(model, settings, framing)
     members = {m.guid: m for m in model.members}
     slabs = {s.guid: s for s in model.slabs}
-    combos = strength_combinations(settings.design.method)
+    base = strength_combinations(settings.design.method, stage.name)
     result = DemandResult(
         beams={},
         deck_spans=trib.deck_spans,
         support_reactions={},
         method=settings.design.method,
         warnings=list(trib.warnings),
+        stage=stage.name,
+        levels=stage.levels,
     )
     beams = [members[g] for g in trib.beams]
     lines = _lines(beams)
-
     entries = level_entries(model, settings)
+    extra = user_loads(model, settings, trib) if stage.name == IN_SERVICE else None
+    table = FloorLoadTable(settings)
+    reduced: dict[frozenset[str], tuple[Combination, ...]] = {}
+    own_area: dict[str, float] = {}
+
     for m in model.members:  # floor beams that carry nothing: their reason
         if is_floor_beam(m) and m.guid in trib.unable:
-            bd = BeamDemand(m.guid, level_of(m), m.length, reason=trib.unable[m.guid])
+            bd = BeamDemand(m.guid, level_of(m), m.length, reason=trib.unable[m.guid],
+                            stage=stage.name)  # fmt: skip
             mf = framing.members.get(m.guid)
             bd.notes += list(mf.notes) if mf is not None else []
             result.beams[m.guid] = bd
+    if extra is not None:
+        for g, case, _force, key in extra.lost:
+            result.warnings.append(
+                (g, f"{key} loads a beam that carries nothing ({trib.unable[g]}): its "
+                    f"{case} load is not carried")
+            )  # fmt: skip
 
     own: dict[str, list[LineLoadItem]] = {}
     for m in beams:
@@ -383,15 +429,20 @@ def _compute_demand(
             role=tr.role,
             tributary_left=tr.left,
             tributary_right=tr.right,
-            combinations=combos,
             notes=list(tr.notes),
             offset=-span.start,
             span_length=span.span_length,
+            stage=stage.name,
         )
         result.beams[m.guid] = bd
         entry = entries.get(level_of(m))
         floor = entry is None or entry.floor is not False
-        own[m.guid] = _own_loads(m, lines[m.guid].length, tr, settings, slabs, entry)
+        own[m.guid] = own_loads(m, lines[m.guid].length, tr, settings, slabs, entry, stage, table)
+        own_area[m.guid] = (
+            reducible_area(tr, settings, slabs, entry, table) if stage.name == IN_SERVICE else 0.0
+        )
+        if extra is not None:
+            own[m.guid] += extra.lines.get(m.guid, [])
         if m.section is None:
             bd.notes.append("no section: steel self-weight and deflection not computed")
         if not floor:
@@ -408,7 +459,7 @@ def _compute_demand(
 
     levels = _solve_levels(framing, result, [m.guid for m in beams])
     balance = _Balance()
-
+    carried: dict[str, _Carried] = {}
     incoming: dict[str, list[PointLoadItem]] = {}
     for level in levels:
         problems = []
@@ -417,35 +468,16 @@ def _compute_demand(
             m = members[g]
             items = own[g]
             bd.line_loads = items
-            bd.point_loads = sorted(incoming.get(g, []), key=lambda p: (p.station, p.source))
-            line: dict[str, list[LineLoad]] = {c: [] for c in CASES}
-            point: dict[str, list[PointLoad]] = {c: [] for c in CASES}
-            off = bd.offset  # analysis stations run from the first support centreline
-            for x in items:
-                line[x.case].append(LineLoad(x.w, x.start + off, x.end + off))
-            for y in bd.point_loads:
-                point[y.case].append(PointLoad(y.P, y.station + off))
-            cases = {c: CaseLoads(tuple(line[c]), tuple(point[c])) for c in CASES}
-            supports = sorted(s.centreline + bd.offset for s in bd.supports)
-            regions = spans_of(np.array(supports), bd.span_length)
-            patterns = live_patterns(len(regions)) if len(bd.supports) >= 2 else []
-            if patterns:
-                cases.update(_live_by_region(line["L"], point["L"], regions))
-                labels = region_labels(regions)
-                bd.combinations = (
-                    *combos, *(p for c in combos for p in patterned(c, patterns, labels))
-                )  # fmt: skip
-                bd.service = (
-                    *SERVICE, *(p for c in SERVICE for p in patterned(c, patterns, labels))
-                )  # fmt: skip
-            fr = framing.members[g]
-            extra = {b.station + off for b in fr.brace_points}
-            extra |= {x + off for iv in fr.continuous_bracing for x in iv}
-            extra = {x for x in extra if 0.0 <= x <= bd.span_length}
-            EI = _bending_stiffness(m)
-            problems.append(BeamProblem(bd.span_length, supports, cases, EI, sorted(extra)))
-        factors = [c.factors for c in combos]
-        for g, res in zip(level, analyse_beams(problems, combinations=factors), strict=True):
+            given = extra.points.get(g, []) if extra is not None else []
+            bd.point_loads = sorted([*incoming.get(g, []), *given],
+                                    key=lambda p: (p.station, p.source))  # fmt: skip
+            have = frozenset(bd.cases)
+            if have not in reduced:
+                reduced[have] = reduce_to(base, have)
+            problems.append(
+                _problem(bd, m, framing, trib.beams[g], reduced[have], carried.get(g), own_area[g])
+            )
+        for g, res in zip(level, analyse_beams(problems), strict=True):
             bd = result.beams[g]
             if isinstance(res, Exception):
                 detail = str(res)
@@ -460,18 +492,16 @@ def _compute_demand(
                 continue
             bd.analysis = res
             bd.source = "computed"
-            _deliver(bd, res, lines, result, incoming, framing, balance)
+            area = _area_carried(bd, own_area[g], carried.get(g))
+            _deliver(bd, res, lines, result, incoming, framing, balance, area, carried)
             bd.floor_loaded = _floor_reached(bd, trib.beams[g], result)
-            own_combos = bd.combinations
-            if len(own_combos) != len(combos):
-                mo, sh = res.combination_maxima([c.factors for c in own_combos])
-            elif res.maxima is not None:
+            if res.maxima is not None:
                 mo, sh = list(res.maxima[0]), list(res.maxima[1])
             else:
-                mo, sh = res.combination_maxima(factors)
+                mo, sh = res.combination_maxima([c.factors for c in bd.combinations])
             (cm, bd.max_moment), (cs, bd.max_shear) = (
-                governing(own_combos, mo),
-                governing(own_combos, sh),
+                governing(bd.combinations, mo),
+                governing(bd.combinations, sh),
             )
             bd.governing_moment, bd.governing_shear = cm.name, cs.name
             bd.computed_governing = (cm.name, cs.name)
@@ -482,17 +512,129 @@ def _compute_demand(
             result.warnings.append(
                 (g, f"not computed ({bd.reason}); reactions of {', '.join(lost)} stop here")
             )
-    _require_floor_load(model, result, trib, entries)
-    result.load_balance = _load_balance(model, trib, settings, entries, own, balance, members)
+    _require_floor_load(model, result, trib, entries, stage)
+    result.load_balance = _load_balance(
+        model, trib, settings, entries, own, balance, members, stage, extra, table
+    )
     for row in result.load_balance:
-        if row.applied > 0 and abs(row.delivered - row.applied) > BALANCE_TOLERANCE * row.applied:
+        applied = abs(row.applied)
+        if applied > 0 and abs(row.delivered - row.applied) > BALANCE_TOLERANCE * applied:
             result.warnings.append(
                 ("", f"load on {row.level} not conserved for {row.case}: "
                  f"{row.delivered / row.applied:.1%} of the applied load reaches the supports")
             )  # fmt: skip
+    present = {c for bd in result.beams.values() for c in bd.cases}
+    result.combinations = reduce_to(base, present)
+    result.basis = basis_rows(model, settings, entries, stage)
+    result.notes = _stage_notes(settings, stage, present)
+    if stage.name == CONSTRUCTION:
+        result.warnings = [(g, f"construction stage: {w}") for g, w in result.warnings]
     if overrides:
         _apply_overrides(result, overrides)
     return result
+
+
+def _stage_notes(settings: Settings, stage: Stage, present: set[str]) -> list[str]:
+    if stage.name == IN_SERVICE:
+        notes = [NOT_COMPUTED_NOTE]
+        if settings.loads.live_reduction or any(
+            e.live_reduction for e in (*settings.loads.storeys.values(),
+                                       *settings.loads.slabs.values())
+        ):  # fmt: skip
+            notes.append(
+                "floor live load reduced by ASCE 7-16 §4.7 where permitted (not on roofs, "
+                "assembly occupancies or live loads over 100 psf); partitions, line and point "
+                "loads are not reduced; deflections are computed with the unreduced live load"
+            )
+        return notes
+    c = stage.construction
+    assert c is not None
+    braces = (
+        "the deck is attached (construction.deck_braces): it braces the top flanges it bears on"
+        if c.deck_braces
+        else "the deck is not attached (construction.deck_braces = false): no slab or deck "
+        "braces any flange"
+    )
+    return [
+        "construction stage: the steel and the deck alone carry the wet concrete and the "
+        "construction live load, before the concrete has hardened; " + braces,
+        "construction live load C: ASCE 37-14 Table 4-1 (from memory) gives duty classes of "
+        "20, 25, 50 and 75 psf; placement by pump or hose is commonly taken as medium duty, "
+        "50 psf",
+        "strength only: deflection under the wet concrete (camber) is not checked here",
+    ]
+
+
+def _problem(
+    bd: BeamDemand,
+    m: Member,
+    framing: Framing,
+    tr: Tributary,
+    combos: tuple[Combination, ...],
+    carried: _Carried | None,
+    own_area: float,
+) -> BeamProblem:
+    """The statics problem of one beam, its combinations (``combos``: those of the cases
+    that load it) and live load reduction set; ``own_area`` is its own reducible floor."""
+    line: dict[str, list[LineLoad]] = {}
+    point: dict[str, list[PointLoad]] = {}
+    off = bd.offset  # analysis stations run from the first support centreline
+    for x in bd.line_loads:
+        line.setdefault(analysis_case(x.case, x.reducible), []).append(
+            LineLoad(x.w, x.start + off, x.end + off)
+        )
+    for y in bd.point_loads:
+        point.setdefault(analysis_case(y.case, y.reducible), []).append(
+            PointLoad(y.P, y.station + off)
+        )
+    names = list(dict.fromkeys(["D", *line, *point]))
+    cases = {c: CaseLoads(tuple(line.get(c, ())), tuple(point.get(c, ()))) for c in names}
+    supports = sorted(s.centreline + bd.offset for s in bd.supports)
+    regions = spans_of(np.array(supports), bd.span_length)
+    present = set(bd.cases)
+    reduction = 1.0
+    if REDUCIBLE in names:
+        by_level = dict(carried.area) if carried is not None else {}
+        if own_area > 0:
+            by_level[bd.storey] = by_level.get(bd.storey, 0.0) + own_area
+        overhang = any(kind == "overhang" for _a, _b, kind in regions)
+        kind = beam_kind(overhang or bool(framing.members[bd.guid].free_ends), tr.open_sides)
+        lr = LiveReduction.of(kind, sum(by_level.values()), len(by_level))
+        bd.live_reduction = lr
+        reduction = lr.factor
+        bd.notes.append(lr.note)
+    strength = [_internal_combination(c, reduction) for c in combos]
+    service = (
+        [_internal_combination(c) for c in service_combinations(present)]
+        if bd.stage == IN_SERVICE
+        else []
+    )
+    patterns = live_patterns(len(regions)) if len(bd.supports) >= 2 else []
+    live = [c for c in PATTERNED if c in cases]
+    if patterns and live:
+        for c in live:
+            cases.update(_live_by_region(line.get(c, []), point.get(c, []), regions, c))
+        labels = region_labels(regions)
+        strength += [p for c in list(strength) for p in patterned(c, patterns, labels)]
+        service += [p for c in list(service) for p in patterned(c, patterns, labels)]
+    bd.combinations = tuple(strength)
+    bd.service = tuple(service)
+    fr = framing.members[bd.guid]
+    extra = {b.station + off for b in fr.brace_points}
+    extra |= {x + off for iv in fr.continuous_bracing for x in iv}
+    extra = {x for x in extra if 0.0 <= x <= bd.span_length}
+    return BeamProblem(
+        bd.span_length, supports, cases, _bending_stiffness(m), sorted(extra),
+        combinations=[c.factors for c in bd.combinations],
+    )  # fmt: skip
+
+
+def _area_carried(bd: BeamDemand, own: float, carried: _Carried | None) -> dict[str, float]:
+    """The reducible floor (m²) a beam carries, by level: its own and what it is given."""
+    out = dict(carried.area) if carried is not None else {}
+    if own > 0:
+        out[bd.storey] = out.get(bd.storey, 0.0) + own
+    return out
 
 
 # Applied and delivered load of a level agree within this share (Issue: 0.5 %).
@@ -512,23 +654,28 @@ class _Balance:
 
 def _floor_reached(bd: BeamDemand, tr: Tributary, result: DemandResult) -> bool:
     """A floor load reached the beam: its own tributary floor, or a beam it carries."""
-    if tr.floor_area > 0.0:
+    if tr.floor_area > 0.0 and (result.levels is None or bd.storey in result.levels):
         return True
     sources = {p.source for p in bd.point_loads}
     return any(result.beams[s].floor_loaded for s in sources if s in result.beams)
 
 
 def _require_floor_load(
-    model: Model, result: DemandResult, trib: TributaryResult, entries: Mapping[str, StoreyLoads]
+    model: Model,
+    result: DemandResult,
+    trib: TributaryResult,
+    entries: Mapping[str, StoreyLoads],
+    stage: Stage,
 ) -> None:
     """No pass on self-weight alone: a beam no floor load reached is not checked (unless
-    its level carries no floor by the settings), with one warning per level."""
+    its level carries no floor by the settings), with one warning per level. During
+    construction only the levels where concrete is placed are looked at."""
     floors = {fa.level for fa in trib.floors}
     levels_with_slab = {s.level or s.storey for s in model.slabs}
     missing: dict[str, int] = {}
     for bd in result.beams.values():
         level = bd.storey
-        if bd.reason is not None or bd.floor_loaded:
+        if bd.reason is not None or bd.floor_loaded or not stage.covers(level):
             continue
         if entries.get(level, StoreyLoads()).floor is False:
             continue
@@ -553,7 +700,7 @@ def _require_floor_load(
              "under [decks] or give their demand with --demands)")
         )  # fmt: skip
     for level, ds in sorted(result.deck_spans.items()):
-        if ds.angle is None and level in levels_with_slab:
+        if ds.angle is None and level in levels_with_slab and stage.covers(level):
             result.warnings.append(
                 ("", f"deck span direction on {level} cannot be told from the framing (no "
                  "infill beams framing into beams at both ends); state deck_span in the settings")
@@ -568,9 +715,12 @@ def _load_balance(
     own: Mapping[str, list[LineLoadItem]],
     balance: _Balance,
     members: Mapping[str, Member],
+    stage: Stage,
+    extra: UserLoads | None,
+    table: FloorLoadTable,
 ) -> list[LoadBalanceRow]:
-    """Applied (floor area × pressure, slab and steel self-weight) against delivered load,
-    per level and case, for the levels whose floor was distributed."""
+    """Applied (floor area × pressure, slab and steel self-weight, line and point loads)
+    against delivered load, per level and case, for the levels whose floor was distributed."""
     slabs = {s.guid: s for s in model.slabs}
     applied: dict[tuple[str, str], float] = {}
 
@@ -581,17 +731,33 @@ def _load_balance(
         if not fa.computed or entries.get(fa.level, StoreyLoads()).floor is False:
             continue
         slab = slabs[fa.slab]
-        dead, live = _pressures(settings, entries.get(fa.level), slab)
-        add(fa.level, "D", fa.area * (dead + _slab_weight(slab, settings)))
-        add(fa.level, "L", fa.area * live)
+        if stage.name == CONSTRUCTION:
+            if stage.covers(fa.level):
+                c = stage.construction
+                add(fa.level, "D", fa.area * wet_concrete(slab, settings))
+                add(fa.level, "C", fa.area * (c.live if c is not None else 0.0))
+            continue
+        fl = table.get(entries.get(fa.level), slab)
+        add(fa.level, "D", fa.area * (fl.dead + slab_weight(slab, settings)))
+        add(fa.level, "L", fa.area * (fl.live + fl.partitions))
+        for case, q in (("Lr", fl.roof_live), ("S", fl.snow), ("W", -fl.wind_uplift)):
+            if q != 0:
+                add(fa.level, case, fa.area * q)
     for g, items in own.items():
         level = level_of(members[g])
         for x in items:
-            if x.source == "steel self-weight":
+            if x.source == "steel self-weight" or x.source.startswith("line load "):
                 add(level, x.case, x.w * (x.end - x.start))
+    if extra is not None:
+        for g, pts in extra.points.items():
+            for p in pts:
+                add(level_of(members[g]), p.case, p.P)
+        for g, case, force, _key in extra.lost:
+            add(level_of(members[g]), case, force)
+    floor_levels = {fa.level for fa in trib.floors}
     rows = []
     for (level, case), force in sorted(applied.items()):
-        if level in {lv for lv, _ in applied} and any(fa.level == level for fa in trib.floors):
+        if level in floor_levels and stage.covers(level):
             rows.append(
                 LoadBalanceRow(level, case, force, balance.delivered.get((level, case), 0.0))
             )
@@ -608,9 +774,12 @@ def region_labels(regions: list[tuple[float, float, str]]) -> list[str]:
 
 
 def _live_by_region(
-    line: list[LineLoad], point: list[PointLoad], regions: list[tuple[float, float, str]]
+    line: list[LineLoad],
+    point: list[PointLoad],
+    regions: list[tuple[float, float, str]],
+    case: str = "L",
 ) -> dict[str, CaseLoads]:
-    """The live load split into one case per span or overhang ("L@k")."""
+    """A live load split into one case per span or overhang ("L@k", "Lr@k", ...)."""
     out: dict[str, CaseLoads] = {}
     last = len(regions) - 1
     for k, (a, b, _kind) in enumerate(regions):
@@ -620,7 +789,7 @@ def _live_by_region(
             if min(x.end, b) > max(x.start, a)
         )
         points = tuple(y for y in point if a <= y.station < b or (k == last and y.station >= b))
-        out[f"L@{k}"] = CaseLoads(parts, points)
+        out[f"{case}@{k}"] = CaseLoads(parts, points)
     return out
 
 
@@ -632,16 +801,24 @@ def _deliver(
     incoming: dict[str, list[PointLoadItem]],
     framing: Framing,
     balance: _Balance,
+    area: Mapping[str, float],
+    carried: dict[str, _Carried],
 ) -> None:
     """Give each support its reaction and pass it on to the supporting member; what
-    leaves the beam's level is counted in ``balance``."""
-    carried = lines[bd.guid]
+    leaves the beam's level is counted in ``balance``. The reducible floor the beam
+    carries (``area``, by level) goes with its reducible live-load reactions."""
+    carried_line = lines[bd.guid]
     # framing supports → analysis support (merged stations); one receiver each
     groups: dict[int, list[SupportReaction]] = {}
     for s in bd.supports:
         j = int(np.argmin(np.abs(res.supports - (s.centreline + bd.offset))))
         groups.setdefault(j, []).append(s)
     fsup = {(s.station, s.by): s for s in framing.members[bd.guid].supports}
+    cases = [(ci, c) for ci, c in enumerate(res.cases) if "@" not in c]  # not the patterns
+    live_i = res.cases.index(REDUCIBLE) if REDUCIBLE in res.cases else None
+    live_total = (
+        sum(max(float(res.reactions[live_i, j]), 0.0) for j in groups) if live_i is not None else 0
+    )
     for j, group in groups.items():
         group.sort(key=lambda s: (_SUPPORT_RANK.get(s.by_class, 2), s.by))
         receiver = group[0]
@@ -654,23 +831,31 @@ def _deliver(
         st = None
         if receiver.by in lines:
             sup = fsup[(receiver.station, receiver.by)]
-            st = _host_station(framing, carried, bd.guid, sup, lines[receiver.by])
+            st = _host_station(framing, carried_line, bd.guid, sup, lines[receiver.by])
         elif host is not None:
             st = 0.0  # a floor beam that carries nothing: the load stops there (warned)
-        for ci, c in enumerate(res.cases):
-            if c not in CASES:
-                continue  # live-load patterns (L@k) are for this beam's own check only
-            R = float(res.reactions[ci, j])
-            receiver.reactions[c] = R
+        for c_i, c in cases:
+            R = float(res.reactions[c_i, j])
+            pc = public_case(c)
+            receiver.reactions[pc] = receiver.reactions.get(pc, 0.0) + R
             for s in group[1:]:
-                s.reactions[c] = 0.0
+                s.reactions.setdefault(pc, 0.0)
+            if R == 0.0 and (pc not in ("D", "L") or c == REDUCIBLE):
+                continue  # a case that does not load this beam
             if st is not None:
-                incoming.setdefault(receiver.by, []).append(PointLoadItem(c, R, st, bd.guid))
+                incoming.setdefault(receiver.by, []).append(
+                    PointLoadItem(pc, R, st, bd.guid, reducible=c == REDUCIBLE)
+                )
             else:
                 tot = result.support_reactions.setdefault(receiver.by, {})
-                tot[c] = tot.get(c, 0.0) + R
+                tot[pc] = tot.get(pc, 0.0) + R
             if host is None or host.storey != bd.storey:
-                balance.add(bd.storey, c, R)
+                balance.add(bd.storey, pc, R)
+        if live_i is not None and live_total > 0 and st is not None and receiver.by in lines:
+            share = max(float(res.reactions[live_i, j]), 0.0) / live_total
+            dest = carried.setdefault(receiver.by, _Carried())
+            for level, a in area.items():
+                dest.add(level, a * share)
 
 
 def _apply_overrides(result: DemandResult, overrides: Mapping[str, AnalysisDemand]) -> None:

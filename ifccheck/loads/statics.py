@@ -75,6 +75,8 @@ class BeamProblem:
     ``EI`` (N·m²) only scales deflections (for a prismatic beam the reactions,
     moments and shears do not depend on it); ``None`` gives NaN deflections.
     ``extra_stations`` are added to the output stations (brace points...).
+    ``combinations`` (factors by case name) are this beam's own: its analysis gets
+    their exact max |M| and max |V| as ``maxima``, computed in bulk.
     """
 
     length: float
@@ -82,6 +84,7 @@ class BeamProblem:
     cases: Mapping[str, CaseLoads]
     EI: float | None = None
     extra_stations: Sequence[float] = ()
+    combinations: Sequence[Mapping[str, float]] = ()
 
 
 @dataclass
@@ -278,12 +281,14 @@ def _maxima(
     """Exact max |M| and max |V| (B, K) of K combinations of B beams' cases.
 
     nodes (B, n); nM, nV (B, C, n) node moments and shears (just right);
-    nq (B, C, n-1) element loads; F (K, C) factors. Within an element M peaks
-    where V = 0, and V is linear, so its extremes are at the element ends.
+    nq (B, C, n-1) element loads; F (K, C) factors, or (B, K, C) for factors of
+    each beam's own. Within an element M peaks where V = 0, and V is linear, so
+    its extremes are at the element ends.
     """
-    M = np.einsum("kc,bcn->bkn", F, nM)
-    V = np.einsum("kc,bcn->bkn", F, nV)
-    q = np.einsum("kc,bcn->bkn", F, nq)
+    spec = "bkc,bcn->bkn" if F.ndim == 3 else "kc,bcn->bkn"
+    M = np.einsum(spec, F, nM)
+    V = np.einsum(spec, F, nV)
+    q = np.einsum(spec, F, nq)
     l = np.diff(nodes, axis=1)[:, None, :]
     Vr, Ml = V[:, :, :-1], M[:, :, :-1]
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -310,7 +315,8 @@ def analyse_beams(
     (:class:`UnstableBeamError` for a mechanism, ``ValueError`` for bad input).
 
     With ``combinations`` (factors by case name), each analysis also gets
-    ``maxima``: exact max |M| and max |V| per combination, computed in bulk.
+    ``maxima``: exact max |M| and max |V| per combination, computed in bulk; a
+    problem with combinations of its own gets the maxima of those instead.
 
     Every analysis carries the union of the case names of all problems (a case a
     beam does not have is all zero on it). The work is vectorised over beams:
@@ -536,9 +542,19 @@ def _analyse_beams(
     for b in np.flatnonzero(ok):
         groups.setdefault((int(nodes.count[b]), int(nsup[b])), []).append(int(b))
     pos_in_group = np.full(nb, -1)
-    F = _factor_matrix(combinations, g.cases) if combinations else None
+    F_all = _factor_matrix(combinations, g.cases) if combinations else None
+    own = [_factor_matrix(p.combinations, g.cases) if p.combinations else None for p in problems]
     for (n, k), members in groups.items():
         G = np.asarray(members)
+        F = F_all
+        counts_k: list[int] | None = None
+        if any(own[i] is not None for i in members):
+            counts_k = [len(problems[i].combinations) or len(combinations) for i in members]
+            F = np.zeros((G.size, max(counts_k, default=0), C))
+            for j, i in enumerate(members):
+                fi = own[i] if own[i] is not None else F_all
+                if fi is not None:
+                    F[j, : fi.shape[0]] = fi
         pos_in_group[G] = np.arange(G.size)
         node_ids = nodes.start[G][:, None] + np.arange(n)[None, :]
         sn = np.nonzero(is_support[node_ids])[1].reshape(G.size, k)
@@ -548,7 +564,10 @@ def _analyse_beams(
             counts[node_ids[:, :-1]], pos_in_group[eb[sel]], e_node[sel] - nodes.start[eb[sel]],
             ek[sel] - 2.0 * eb[sel], ex_exact[sel], g.cases, F,
         )  # fmt: skip
-        for i, res in zip(members, solved, strict=True):
+        for j, (i, res) in enumerate(zip(members, solved, strict=True)):
+            if counts_k is not None and res.maxima is not None:
+                kk = counts_k[j]
+                res.maxima = (res.maxima[0][:kk], res.maxima[1][:kk])
             results[i] = res
         pos_in_group[G] = -1
     return results

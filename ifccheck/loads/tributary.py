@@ -87,6 +87,14 @@ class Tributary:
     right_neighbour: str | None = None
     pieces: list[WidthPiece] = field(default_factory=list)
     notes: list[str] = field(default_factory=list)
+    # sides ("left"/"right") with no parallel neighbour: the beam is at the edge of its
+    # floor there; with the mean width (m) of floor beyond its line on that side
+    open_sides: list[tuple[str, float]] = field(default_factory=list)
+
+    @property
+    def edge(self) -> bool:
+        """At the edge of its floor: no parallel beam on one side (or either)."""
+        return bool(self.open_sides)
 
     @property
     def floor_area(self) -> float:
@@ -557,8 +565,37 @@ def _compute_tributary(model: Model, settings: Settings, framing: Framing) -> Tr
         wp = float(side[i, 0] / length) if nb[i, 0] < 0 else float(half[i, 0])
         wm = float(side[i, 1] / length) if nb[i, 1] < 0 else float(half[i, 1])
         _set_widths(tr, wp, wm, bool(flip[i]), capable, int(nb[i, 0]), int(nb[i, 1]))
+    _open_sides(result, bm, slabs, cand, nb, flip, nrm, a, b, edge_ext, family_of)
     _deliver_leftovers(result, bm, slabs, cand, taken)
     return result
+
+
+def _open_sides(
+    result: TributaryResult, bm: _Beams, slabs: Sequence[Slab], cand: dict[int, list[int]],
+    nb: np.ndarray, flip: np.ndarray, nrm: np.ndarray, a: np.ndarray, b: np.ndarray,
+    reach: np.ndarray, family_of: np.ndarray,
+) -> None:  # fmt: skip
+    """The sides of each beam with no parallel neighbour, and the mean width of the
+    floor beyond it there (its bearing slabs within ``reach`` of its line)."""
+    rows = [(i, side) for i in range(len(bm.members)) for side in (0, 1)
+            if family_of[i] >= 0 and nb[i, side] < 0]  # fmt: skip
+    if not rows:
+        return
+    idx = np.array([i for i, _ in rows], dtype=int)
+    plus = np.array([side == 0 for _, side in rows])
+    ext = reach[idx]
+    rects = _strips(a[idx], b[idx], bm.t[idx], nrm[idx], np.where(plus, ext, 0.0),
+                    np.where(plus, 0.0, ext), 0.0)  # fmt: skip
+    union: dict[int, BaseGeometry] = {}
+    for i in set(idx.tolist()):
+        feet = [slabs[si].footprint for si in cand.get(i, [])]
+        union[i] = shapely.union_all(feet) if feet else shapely.Polygon()
+    floors = np.array([union[i] for i in idx.tolist()], dtype=object)
+    area = shapely.area(shapely.intersection(rects, floors))
+    length = np.maximum(np.linalg.norm(b[idx] - a[idx], axis=1), 1e-9)
+    for (i, side), ar, ln in zip(rows, area.tolist(), length.tolist(), strict=True):
+        where = "left" if (side == 0) != bool(flip[i]) else "right"
+        result.beams[bm.members[i].guid].open_sides.append((where, ar / ln))
 
 
 def _families(

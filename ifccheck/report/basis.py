@@ -122,25 +122,27 @@ def level_names(result: CheckResult) -> list[str]:
     return list(dict.fromkeys(names))
 
 
-def level_loads(result: CheckResult) -> list[LevelLoad]:
-    """The area loads on every level, by case: settings, slab and steel self-weight."""
+def level_loads(result: CheckResult, stage: int = 0) -> list[LevelLoad]:
+    """The area loads on every level of one stage (in service by default), by case: the
+    stage's loads as the load path applied them, then the slabs' self-weight in service."""
     s = result.settings
     loads: Mapping[str, Any] = s.get("loads", {})
     explicit = list(s.get("explicit", []))
-    storeys: Mapping[str, Any] = loads.get("storeys", {}) or {}
     out: list[LevelLoad] = []
+    if stage < len(result.stages):
+        for x in result.stages[stage].loads:
+            if x.pressure == 0.0 and x.origin.startswith("roof"):
+                continue  # a roof's floor live load: none
+            # "default loads.live": the level takes the [loads] value, given or not
+            source = x.origin.removeprefix("default ").replace("'", '"')
+            default = source.startswith(("loads.", "construction.")) and _is_default(
+                explicit, source.replace('"', "")
+            )
+            out.append(LevelLoad(x.level, x.case, x.what, x.pressure, source, default))
+    if stage > 0:
+        return out
     density = float(loads.get("concrete_density", 2400.0))
     for level in level_names(result):
-        override = storeys.get(level, {}) or {}
-        for key, (case, what) in LOAD_KEYS.items():
-            value = override.get(key)
-            dotted = f'loads.storeys."{level}".{key}'
-            if value is None:
-                value, dotted = loads.get(key), f"loads.{key}"
-            if not isinstance(value, int | float):
-                continue
-            default = _is_default(explicit, dotted.replace('"', ""))
-            out.append(LevelLoad(level, case, what, float(value), dotted, default))
         thicknesses = sorted({round(sl.thickness, 4) for sl in result.slabs
                               if sl.storey == level and sl.thickness > 0})  # fmt: skip
         for t in thicknesses:
@@ -151,9 +153,17 @@ def level_loads(result: CheckResult) -> list[LevelLoad]:
     return out
 
 
-def combinations(method: str) -> list[Combination]:
-    """The strength combinations of the method, then the serviceability ones."""
-    return [*strength_combinations(method), *SERVICE]
+def combinations(result: CheckResult, stage: int = 0) -> list[Combination]:
+    """The strength combinations of one stage (those of the cases that load its beams),
+    then, in service, the serviceability ones."""
+    if stage < len(result.stages):
+        strength = [
+            Combination(c.name, c.factors, "strength", c.source, c.number)
+            for c in result.stages[stage].combinations
+        ]
+    else:
+        strength = list(strength_combinations(result.method))
+    return [*strength, *SERVICE] if stage == 0 else strength
 
 
 def levels_without_slab(result: CheckResult) -> list[str]:
@@ -232,7 +242,7 @@ def basis_document(result: CheckResult) -> dict[str, Any]:
                 "source": c.source,
                 "factors": {k: num(v) for k, v in c.factors.items()},
             }
-            for c in combinations(result.method)
+            for c in combinations(result)
         ],
         "deflection_limits": {
             "live": num(s.get("deflection", {}).get("live")),

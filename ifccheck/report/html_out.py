@@ -403,7 +403,7 @@ def _basis_section(result: CheckResult, du: DisplayUnits) -> str:
             ["Combination", "Used for", "Source"],
             [[escape(c.name), escape("strength" if c.purpose == "strength" else
                                      "deflection (serviceability)"), escape(c.source)]
-             for c in combinations(result.method)],
+             for c in combinations(result)],
             "combinations",
         )
     )  # fmt: skip

@@ -166,6 +166,7 @@ def explanation_dict(
             }
             for c in e.causes
         ],
+        "stage": e.stage,
         "segment": e.segment,
         "largest_passing_lb": num(e.largest_passing_lb),
         "brace_flange": e.brace_flange,

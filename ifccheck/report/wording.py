@@ -229,6 +229,13 @@ def cause_sentence(
             "Even braced throughout, the moment exceeds the section's strength: no "
             "bracing alone makes it pass."
         )
+    if k is ExplainKind.DECK_NOT_ATTACHED:
+        return (
+            "During construction the deck is not attached to the beam "
+            "(construction.deck_braces = false), so nothing braces the top flange while "
+            "the concrete is wet: shore the beam, fasten the deck before the pour, or "
+            "brace the beam."
+        )
     raise ValueError(f"no words for cause {k!r}")
 
 

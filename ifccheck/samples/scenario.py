@@ -3,9 +3,11 @@
 Quillfeather Hall is an invented two-storey steel-framed building, modelled
 in feet (IFC4): three 30 ft bays by two 30 ft bays, a composite slab on
 Level 2 with a stair opening, a cantilevered balcony beam with bottom-flange
-kickers, and a roof framed at quarter points with no modelled deck where two
+kickers, a roof framed at quarter points with no modelled deck where two
 infill beams are tied to each other by a strut (and one more is tied by a strut
-to the north parapet wall, an anchor). Revision B drops bracing the
+to the north parapet wall, an anchor), and a light entrance canopy on the
+south face (its own storey, 11 ft up, on two posts and the building's columns)
+whose beams have nothing on their bottom flanges. Revision B drops bracing the
 way real revisions do: a roof infill beam deleted for a duct, a new slab
 opening over a Level 2 infill beam, and a Level 2 infill beam pulled 1 ft
 short of its girder; its roof strut is exported without a material, so that it
@@ -31,6 +33,10 @@ IN = 1.0 / 12.0  # feet per inch
 
 LEVEL2 = "Level 2"
 ROOF = "Roof"
+CANOPY = "Canopy"
+CANOPY_HEIGHT = 11.0
+CANOPY_DEPTH = 15.0  # ft out from the south face (y = 0)
+CANOPY_XS = (30.0, 36.0, 42.0, 48.0, 54.0, 60.0)
 BAY = 30.0
 XS = (0.0, 30.0, 60.0, 90.0)
 YS = (0.0, 30.0, 60.0)
@@ -68,6 +74,7 @@ def quillfeather(revision: str) -> ModelAuthor:
     a.storey("Level 1", 0.0)
     a.storey(LEVEL2, STOREY_HEIGHT)
     a.storey(ROOF, 2 * STOREY_HEIGHT)
+    a.storey(CANOPY, CANOPY_HEIGHT)
 
     col = w_shape("W12X65")
     for storey, base in (("Level 1", 0.0), (LEVEL2, 0.0)):
@@ -167,7 +174,31 @@ def quillfeather(revision: str) -> ModelAuthor:
         ROOF, (15.0, 52.5, -r_infill.d / 2), (15.0, NORTH_WALL - 0.2, -r_infill.d / 2),
         channel("C8X11.5"), predefined="STRUT", key="R:strut-wall", name="R-S15-N",
     )  # fmt: skip
+    _canopy(a)
     return a
+
+
+def _canopy(a: ModelAuthor) -> None:
+    """The entrance canopy: girders along the face and the front on the columns at x = 30
+    and 60 ft and two posts, beams at 6 ft centres spanning the 15 ft out from the face."""
+    post, girder, beam = w_shape("W8X31"), w_shape("W12X26"), w_shape("W8X10")
+    front = -CANOPY_DEPTH
+    x0, x1 = CANOPY_XS[0], CANOPY_XS[-1]
+    for x in (x0, x1):
+        a.column(
+            "Level 1", (x, front, 0.0), CANOPY_HEIGHT, post, key=f"CN:post:{x}",
+            name=f"CN-P{int(x)}", cardinal_point=5,
+        )  # fmt: skip
+    for y in (0.0, front):
+        a.beam(
+            CANOPY, (x0, y, 0.0), (x1, y, 0.0), girder, key=f"CN:G:{y}",
+            name=f"CN-G{int(-y)}", cardinal_point=8,
+        )  # fmt: skip
+    for x in CANOPY_XS:
+        a.beam(
+            CANOPY, (x, 0.0, 0.0), (x, front, 0.0), beam, key=f"CN:B:{x}",
+            name=f"CN-B{int(x)}", cardinal_point=8,
+        )  # fmt: skip
 
 
 def brambleford() -> ModelAuthor:
