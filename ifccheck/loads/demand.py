@@ -93,7 +93,7 @@ from ifccheck.loads.tributary import (
     level_entries,
     level_of,
 )
-from ifccheck.model import Member, Model
+from ifccheck.model import Member, Model, Slab
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import DemandOut, LineLoadOut, LiveReductionOut, PointLoadOut
@@ -376,6 +376,21 @@ class _Carried:
             self.area[level] = self.area.get(level, 0.0) + area
 
 
+@dataclass
+class _Inputs:
+    """What the load path needs of one stage, gathered once."""
+
+    trib: TributaryResult
+    members: dict[str, Member]
+    slabs: dict[str, Slab]
+    beams: list[Member]  # the floor beams that carry load, in tributary order
+    lines: dict[str, _Line]
+    entries: dict[str, StoreyLoads]
+    extra: UserLoads | None  # the settings' line and point loads (in service only)
+    table: FloorLoadTable
+    base: tuple[Combination, ...]  # the stage's strength combinations, before reduction
+
+
 def _compute_demand(
     model: Model,
     framing: Framing,
@@ -385,8 +400,18 @@ def _compute_demand(
 ) -> DemandResult:
     trib = compute_tributary(model, settings, framing)
     members = {m.guid: m for m in model.members}
-    slabs = {s.guid: s for s in model.slabs}
-    base = strength_combinations(settings.design.method, stage.name)
+    beams = [members[g] for g in trib.beams]
+    inputs = _Inputs(
+        trib=trib,
+        members=members,
+        slabs={s.guid: s for s in model.slabs},
+        beams=beams,
+        lines=_lines(beams),
+        entries=level_entries(model, settings),
+        extra=user_loads(model, settings, trib) if stage.name == IN_SERVICE else None,
+        table=FloorLoadTable(settings),
+        base=strength_combinations(settings.design.method, stage.name),
+    )
     result = DemandResult(
         beams={},
         deck_spans=trib.deck_spans,
@@ -396,36 +421,50 @@ def _compute_demand(
         stage=stage.name,
         levels=stage.levels,
     )
-    beams = [members[g] for g in trib.beams]
-    lines = _lines(beams)
-    entries = level_entries(model, settings)
-    extra = user_loads(model, settings, trib) if stage.name == IN_SERVICE else None
-    table = FloorLoadTable(settings)
-    reduced: dict[frozenset[str], tuple[Combination, ...]] = {}
-    own_area: dict[str, float] = {}
+    _record_unable(model, framing, inputs, result, stage)
+    own, own_area = _beam_records(framing, settings, inputs, result, stage)
+    incoming, balance = _solve_load_path(framing, inputs, result, own, own_area)
+    _finish(model, settings, inputs, result, stage, own, incoming, balance)
+    if overrides:
+        _apply_overrides(result, overrides)
+    return result
 
-    for m in model.members:  # floor beams that carry nothing: their reason
+
+def _record_unable(
+    model: Model, framing: Framing, inputs: _Inputs, result: DemandResult, stage: Stage
+) -> None:
+    """Floor beams that carry nothing get their reason; a settings load on one is lost."""
+    trib = inputs.trib
+    for m in model.members:
         if is_floor_beam(m) and m.guid in trib.unable:
             bd = BeamDemand(m.guid, level_of(m), m.length, reason=trib.unable[m.guid],
                             stage=stage.name)  # fmt: skip
             mf = framing.members.get(m.guid)
             bd.notes += list(mf.notes) if mf is not None else []
             result.beams[m.guid] = bd
-    if extra is not None:
-        for g, case, _force, key in extra.lost:
+    if inputs.extra is not None:
+        for g, case, _force, key in inputs.extra.lost:
             result.warnings.append(
                 (g, f"{key} loads a beam that carries nothing ({trib.unable[g]}): its "
                     f"{case} load is not carried")
             )  # fmt: skip
 
+
+def _beam_records(
+    framing: Framing, settings: Settings, inputs: _Inputs, result: DemandResult, stage: Stage
+) -> tuple[dict[str, list[LineLoadItem]], dict[str, float]]:
+    """Each carrying beam's demand record with its own loads (floor, self-weight, the
+    settings' line loads) and its reducible tributary area; returns both by GUID."""
     own: dict[str, list[LineLoadItem]] = {}
-    for m in beams:
-        tr = trib.beams[m.guid]
-        span = trib.spans[m.guid]
+    own_area: dict[str, float] = {}
+    for m in inputs.beams:
+        tr = inputs.trib.beams[m.guid]
+        span = inputs.trib.spans[m.guid]
+        length = inputs.lines[m.guid].length
         bd = BeamDemand(
             guid=m.guid,
             storey=level_of(m),
-            length=lines[m.guid].length,
+            length=length,
             role=tr.role,
             tributary_left=tr.left,
             tributary_right=tr.right,
@@ -435,14 +474,16 @@ def _compute_demand(
             stage=stage.name,
         )
         result.beams[m.guid] = bd
-        entry = entries.get(level_of(m))
+        entry = inputs.entries.get(level_of(m))
         floor = entry is None or entry.floor is not False
-        own[m.guid] = own_loads(m, lines[m.guid].length, tr, settings, slabs, entry, stage, table)
+        own[m.guid] = own_loads(m, length, tr, settings, inputs.slabs, entry, stage, inputs.table)
         own_area[m.guid] = (
-            reducible_area(tr, settings, slabs, entry, table) if stage.name == IN_SERVICE else 0.0
+            reducible_area(tr, settings, inputs.slabs, entry, inputs.table)
+            if stage.name == IN_SERVICE
+            else 0.0
         )
-        if extra is not None:
-            own[m.guid] += extra.lines.get(m.guid, [])
+        if inputs.extra is not None:
+            own[m.guid] += inputs.extra.lines.get(m.guid, [])
         if m.section is None:
             bd.notes.append("no section: steel self-weight and deflection not computed")
         if not floor:
@@ -456,66 +497,99 @@ def _compute_demand(
             bd.supports.append(
                 SupportReaction(s.station, s.by, s.by_class, s.end, centreline=span.centreline(s))
             )
+    return own, own_area
 
-    levels = _solve_levels(framing, result, [m.guid for m in beams])
+
+def _solve_load_path(
+    framing: Framing,
+    inputs: _Inputs,
+    result: DemandResult,
+    own: dict[str, list[LineLoadItem]],
+    own_area: dict[str, float],
+) -> tuple[dict[str, list[PointLoadItem]], _Balance]:
+    """Analyse the beams level by level of the load path (carried before carrier), each
+    delivering its reactions to what it bears on; returns the reactions each beam
+    received and the load delivered to the supports."""
+    levels = _solve_levels(framing, result, [m.guid for m in inputs.beams])
     balance = _Balance()
     carried: dict[str, _Carried] = {}
     incoming: dict[str, list[PointLoadItem]] = {}
+    reduced: dict[frozenset[str], tuple[Combination, ...]] = {}
+    extra = inputs.extra
     for level in levels:
         problems = []
         for g in level:
             bd = result.beams[g]
-            m = members[g]
-            items = own[g]
-            bd.line_loads = items
+            bd.line_loads = own[g]
             given = extra.points.get(g, []) if extra is not None else []
             bd.point_loads = sorted([*incoming.get(g, []), *given],
                                     key=lambda p: (p.station, p.source))  # fmt: skip
             have = frozenset(bd.cases)
             if have not in reduced:
-                reduced[have] = reduce_to(base, have)
+                reduced[have] = reduce_to(inputs.base, have)
             problems.append(
-                _problem(bd, m, framing, trib.beams[g], reduced[have], carried.get(g), own_area[g])
-            )
+                _problem(bd, inputs.members[g], framing, inputs.trib.beams[g], reduced[have],
+                         carried.get(g), own_area[g])
+            )  # fmt: skip
         for g, res in zip(level, analyse_beams(problems), strict=True):
             bd = result.beams[g]
             if isinstance(res, Exception):
-                detail = str(res)
-                if framing.members[g].state == "cantilever":
-                    detail += " (a cantilever needs a moment connection at its support)"
-                code = (
-                    NotChecked.UNSTABLE
-                    if isinstance(res, UnstableBeamError)
-                    else NotChecked.STATICS_FAILED
-                )
-                bd.reason = Reason.of(code, detail=detail)
+                bd.reason = _statics_reason(res, framing.members[g].state == "cantilever")
                 continue
             bd.analysis = res
             bd.source = "computed"
             area = _area_carried(bd, own_area[g], carried.get(g))
-            _deliver(bd, res, lines, result, incoming, framing, balance, area, carried)
-            bd.floor_loaded = _floor_reached(bd, trib.beams[g], result)
-            if res.maxima is not None:
-                mo, sh = list(res.maxima[0]), list(res.maxima[1])
-            else:
-                mo, sh = res.combination_maxima([c.factors for c in bd.combinations])
-            (cm, bd.max_moment), (cs, bd.max_shear) = (
-                governing(bd.combinations, mo),
-                governing(bd.combinations, sh),
-            )
-            bd.governing_moment, bd.governing_shear = cm.name, cs.name
-            bd.computed_governing = (cm.name, cs.name)
+            _deliver(bd, res, inputs.lines, result, incoming, framing, balance, area, carried)
+            bd.floor_loaded = _floor_reached(bd, inputs.trib.beams[g], result)
+            _governing(bd, res)
+    return incoming, balance
 
+
+def _statics_reason(error: Exception, cantilever: bool) -> Reason:
+    detail = str(error)
+    if cantilever:
+        detail += " (a cantilever needs a moment connection at its support)"
+    unstable = isinstance(error, UnstableBeamError)
+    return Reason.of(NotChecked.UNSTABLE if unstable else NotChecked.STATICS_FAILED, detail=detail)
+
+
+def _governing(bd: BeamDemand, res: BeamAnalysis) -> None:
+    """The combinations giving the largest |M| and |V| of an analysed beam."""
+    if res.maxima is not None:
+        mo, sh = list(res.maxima[0]), list(res.maxima[1])
+    else:
+        mo, sh = res.combination_maxima([c.factors for c in bd.combinations])
+    (cm, bd.max_moment), (cs, bd.max_shear) = (
+        governing(bd.combinations, mo),
+        governing(bd.combinations, sh),
+    )
+    bd.governing_moment, bd.governing_shear = cm.name, cs.name
+    bd.computed_governing = (cm.name, cs.name)
+
+
+def _finish(
+    model: Model,
+    settings: Settings,
+    inputs: _Inputs,
+    result: DemandResult,
+    stage: Stage,
+    own: dict[str, list[LineLoadItem]],
+    incoming: dict[str, list[PointLoadItem]],
+    balance: _Balance,
+) -> None:
+    """Lost reactions, floor beams left without floor load, the load balance, and the
+    stage's combinations, loads and notes."""
     for g, bd in result.beams.items():
         lost = sorted({p.source for p in incoming.get(g, [])}) if bd.reason else []
         if lost:
             result.warnings.append(
                 (g, f"not computed ({bd.reason}); reactions of {', '.join(lost)} stop here")
             )
-    _require_floor_load(model, result, trib, entries, stage)
+    _require_floor_load(model, result, inputs.trib, inputs.entries, stage)
     result.load_balance = _load_balance(
-        model, trib, settings, entries, own, balance, members, stage, extra, table
-    )
+        model, inputs.trib, settings, inputs.entries, own, balance, inputs.members, stage,
+        inputs.extra, inputs.table,
+    )  # fmt: skip
     for row in result.load_balance:
         applied = abs(row.applied)
         if applied > 0 and abs(row.delivered - row.applied) > BALANCE_TOLERANCE * applied:
@@ -524,14 +598,11 @@ def _compute_demand(
                  f"{row.delivered / row.applied:.1%} of the applied load reaches the supports")
             )  # fmt: skip
     present = {c for bd in result.beams.values() for c in bd.cases}
-    result.combinations = reduce_to(base, present)
-    result.basis = basis_rows(model, settings, entries, stage)
+    result.combinations = reduce_to(inputs.base, present)
+    result.basis = basis_rows(model, settings, inputs.entries, stage)
     result.notes = _stage_notes(settings, stage, present)
     if stage.name == CONSTRUCTION:
         result.warnings = [(g, f"construction stage: {w}") for g, w in result.warnings]
-    if overrides:
-        _apply_overrides(result, overrides)
-    return result
 
 
 def _stage_notes(settings: Settings, stage: Stage, present: set[str]) -> list[str]:
