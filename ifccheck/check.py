@@ -23,7 +23,7 @@ from ifccheck import CAUTION, __version__
 from ifccheck.config import Settings, settings_to_dict
 from ifccheck.design import get_standard
 from ifccheck.design.base import DesignStandard, segment_moments
-from ifccheck.errors import OutOfScope
+from ifccheck.errors import OutOfScope, SettingsError
 from ifccheck.floors import prepare_floors
 from ifccheck.framing import analyse_framing
 from ifccheck.framing.types import Framing, MemberFraming
@@ -66,18 +66,32 @@ def sha256_of(path: Path) -> str:
     return h.hexdigest()
 
 
+def standard_of(settings: Settings) -> DesignStandard:
+    """The design standard the settings name; SettingsError for one not registered."""
+    try:
+        return get_standard(settings.design.standard)
+    except ValueError as exc:
+        raise SettingsError(f"settings: design.standard: {exc}") from None
+
+
 def run_check(
     model_path: str | Path,
     settings: Settings,
     demands_path: str | Path | None = None,
     progress: Progress | None = None,
     strict_keys: bool = True,
+    length_unit: str | None = None,
 ) -> tuple[CheckResult, Model, Framing]:
     """The whole job on one model file. A settings key naming nothing in the model is a
-    SettingsError unless ``strict_keys`` is False (``diff`` checks keys over both files)."""
+    SettingsError unless ``strict_keys`` is False (``diff`` checks keys over both files).
+    ``length_unit`` is the unit of a model that assigns none (``--length-unit``)."""
     path = Path(model_path)
+    standard = standard_of(settings)
     model = read_model(
-        path, default_grade=settings.steel.default_grade, materials=settings.steel.materials
+        path,
+        default_grade=settings.steel.default_grade,
+        materials=settings.steel.materials,
+        length_unit=length_unit,
     )
     prepare_floors(model, settings, strict_keys)
     framing = analyse_framing(model, settings.framing, settings.bracing)
@@ -87,12 +101,13 @@ def run_check(
         overrides = load_demand_csv(Path(demands_path))
     demand = compute_demand(model, framing, settings, overrides)
     warnings += [w for w in demand.warnings if w not in warnings]
-    standard = get_standard(settings.design.standard)
     beams = [
         (m, framing.members.get(m.guid), demand.beams.get(m.guid))
         for m in model.members
         if m.role is MemberRole.BEAM
     ]
+    # beams the reader could not place: listed as not checked, with the reason
+    beams += [(m, None, None) for m in model.unreadable if m.role is MemberRole.BEAM]
     results = check_beams(beams, standard, settings, progress)
     names = {m.guid: m.name for m in model.members if m.name}
     names.update({w.guid: w.name for w in model.walls if w.name})

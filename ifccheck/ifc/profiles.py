@@ -24,12 +24,17 @@ from dataclasses import dataclass, field, replace
 import ifcopenshell
 import ifcopenshell.util.element as uelement
 import numpy as np
+import shapely
 from shapely import affinity  # type: ignore[import-untyped]
+from shapely.geometry import Polygon
 
+from ifccheck.errors import ElementError
+from ifccheck.ifc.geometry import real
 from ifccheck.model import MaterialCategory, Section, ShapeFamily, Steel
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.sections import grade_problem, material_category, steel_from_name, steel_from_yield
-from ifccheck.sections.dimensions import Shape, section_of, shape_of_section
+from ifccheck.sections.dimensions import Shape, plausible, section_of, shape_of_section
+from ifccheck.sections.grades import fy_problem
 from ifccheck.sections.names import find_shape
 from ifccheck.sections.outline import Recognised, recognise
 from ifccheck.sections.table import SOURCE as AISC_SOURCE
@@ -99,8 +104,8 @@ def _profile_key(profile: Entity, scale: float) -> tuple | None:
             return None
         if outline is None:
             return None
-        rings = [outline.polygon.exterior, *outline.polygon.interiors]
-        coords = tuple(tuple(np.round(np.asarray(r.coords), 9).ravel()) for r in rings)
+        rings = shapely.get_rings(outline.polygon)
+        coords = tuple(tuple(np.round(shapely.get_coordinates(r), 9).ravel()) for r in rings)
         return (scale, profile.is_a(), profile.ProfileName or "", coords)
     return None
 
@@ -124,14 +129,20 @@ def _angle_scale(entity: Entity) -> float:
     import ifcopenshell.util.unit as uunit
 
     try:
-        return float(uunit.calculate_unit_scale(entity.file, "PLANEANGLEUNIT"))
+        scale = float(uunit.calculate_unit_scale(entity.file, "PLANEANGLEUNIT"))
     except Exception:  # no unit assignment: radians
         return 1.0
+    if not (math.isfinite(scale) and scale > 0.0):
+        raise ElementError(f"the plane angle unit has a conversion factor of {scale:g}")
+    return scale
 
 
 def _get(profile: Entity, attr: str, scale: float) -> float:
     value = getattr(profile, attr, None)
-    return float(value) * scale if value is not None else 0.0
+    if value is None:
+        return 0.0
+    label = getattr(profile, "ProfileName", None) or f"#{profile.id()}"
+    return real(value, f"{attr} of {profile.is_a()} '{label}'") * scale
 
 
 def _parametric_shape(profile: Entity, name: str, s: float) -> Shape | ResolvedProfile | None:
@@ -142,7 +153,9 @@ def _parametric_shape(profile: Entity, name: str, s: float) -> Shape | ResolvedP
 
     def slope(attr: str) -> float:
         raw = getattr(profile, attr, None)
-        return float(raw) * _angle_scale(profile) if raw else 0.0
+        if not raw:
+            return 0.0
+        return real(raw, f"{attr} of {kind} '{label}'") * _angle_scale(profile)
 
     if profile.is_a("IfcAsymmetricIShapeProfileDef"):
         bb, tb = _get(profile, "BottomFlangeWidth", s), _get(profile, "BottomFlangeThickness", s)
@@ -240,7 +253,16 @@ def _section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
 
 
 def _from_shape(shape: Shape, name: str) -> ResolvedProfile:
-    """A parametric shape, preferring the tabulated section its name designates."""
+    """A parametric shape, preferring the tabulated section its name designates.
+
+    Dimensions no section can have (zero or negative, flanges that leave no web, a web
+    wider than its flange) make the element not checked, whatever its name says."""
+    why = plausible(shape)
+    if why is not None:
+        detail = f"profile {shape.describe()}: {why}"
+        return ResolvedProfile(
+            name or shape.name, None, "", 0.0, 0.0, Reason.of(NotChecked.BAD_ELEMENT, detail=detail)
+        )
     section, reason = section_of(shape)
     named = find_shape(name) if name else None
     if named is not None and named.section is not None and named.family is shape.family:
@@ -283,16 +305,24 @@ def _from_outline(
     label = name or kind
     try:
         outline = profile_outline(profile)
+    except ElementError as exc:  # a curve with bad points or no area
+        outline = None
+        why = str(exc)
     except Exception as exc:  # a curve the reader does not know
         outline = None
         why = f"its curve cannot be read ({type(exc).__name__})"
     else:
         why = "its curve cannot be read"
-    if outline is not None:
+    if outline is not None and not isinstance(outline.polygon, Polygon):
+        why = f"{outline.repaired} into separate parts"
+    elif outline is not None:
         poly = affinity.scale(outline.polygon, scale, scale, origin=(0.0, 0.0))
         found = recognise(poly, label)
         if isinstance(found, Recognised):
-            return _recognised(found, label, poly.area, depth, width)
+            resolved = _recognised(found, label, poly.area, depth, width)
+            if outline.repaired:
+                resolved.notes.append(outline.repaired)
+            return resolved
         why = found
     detail = f"{label}: {why}" + (f"; the name '{name}' designates no shape" if name else "")
     return ResolvedProfile(
@@ -376,16 +406,23 @@ def material_names(material: Entity | None) -> list[Entity]:
     return []
 
 
-def yield_stress(ifc: ifcopenshell.file, material: Entity, pressure_scale: float) -> float | None:
-    """YieldStress of a material in Pa (IFC4 material properties, IFC2X3 mechanical props)."""
+def yield_stress(
+    ifc: ifcopenshell.file, material: Entity, pressure_scale: float | None
+) -> float | None:
+    """YieldStress of a material in Pa (IFC4 material properties, IFC2X3 mechanical props);
+    None when it gives none or the file's pressure unit is unusable (``pressure_scale``
+    None). ElementError for a value that is not a number."""
+    if pressure_scale is None:
+        return None
+    what = f"YieldStress of material '{material.Name}'"
     for props in getattr(material, "HasProperties", None) or ():
         for prop in getattr(props, "Properties", None) or ():
             if prop.Name == "YieldStress" and getattr(prop, "NominalValue", None) is not None:
-                return float(prop.NominalValue.wrappedValue) * pressure_scale
+                return real(prop.NominalValue.wrappedValue, what) * pressure_scale
     if ifc.schema == "IFC2X3":
         for props in ifc.by_type("IfcMechanicalSteelMaterialProperties"):
-            if props.Material == material and props.YieldStress:
-                return float(props.YieldStress) * pressure_scale
+            if props.Material == material and props.YieldStress is not None:
+                return real(props.YieldStress, what) * pressure_scale
     return None
 
 
@@ -395,7 +432,7 @@ class GradeContext:
 
     default: Steel | None = None  # steel.default_grade when the settings set it
     materials: Mapping[str, str] = field(default_factory=dict)  # [steel.materials]
-    pressure_scale: float = 1.0
+    pressure_scale: float | None = 1.0  # None: the file's pressure unit is unusable
 
     def mapped(self, name: str) -> str | None:
         key = " ".join(name.split()).casefold()
@@ -468,6 +505,8 @@ def resolve_material(
         if cache is not None:
             cache[key] = found
     resolved = replace(found, notes=list(found.notes))
+    if resolved.reason is not None:  # the material says something no steel can be
+        return resolved
     el_type = uelement.get_type(element)
     texts = [
         ("type name", getattr(el_type, "Name", None)),
@@ -573,6 +612,12 @@ def _from_materials(
                 return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "material name")
     for mat in mats:
         fy = yield_stress(ifc, mat, context.pressure_scale)
+        if fy is not None and fy_problem(fy):
+            detail = f"material '{mat.Name}': {fy_problem(fy)}"
+            return ResolvedMaterial(
+                mat.Name or "", MaterialCategory.STEEL, None, "material property",
+                reason=Reason.of(NotChecked.BAD_ELEMENT, detail=detail),
+            )  # fmt: skip
         if fy is not None:
             steel = steel_from_yield(fy, mat.Name or "steel")
             return ResolvedMaterial(
