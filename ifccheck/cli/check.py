@@ -20,13 +20,67 @@ if TYPE_CHECKING:
     from ifccheck.results import CheckResult
 
 
-def _read(path: str, settings: Settings) -> tuple[Model, float]:
+def _read(path: str, settings: Settings, length_unit: str | None) -> tuple[Model, float]:
     from ifccheck.ifc.reader import read_model
 
     t0 = time.perf_counter()
     steel = settings.steel
-    model = read_model(path, default_grade=steel.default_grade, materials=steel.materials)
+    model = read_model(
+        path,
+        default_grade=steel.default_grade,
+        materials=steel.materials,
+        length_unit=length_unit,
+    )
     return model, time.perf_counter() - t0
+
+
+def _length_unit(ctx: click.Context, param: click.Parameter, value: str | None) -> str | None:
+    """--length-unit: a unit a model is read in ('mm', 'ft', 'metre'...), or None."""
+    from ifccheck.errors import QuantityError, UsageError
+    from ifccheck.units import model_length_unit
+
+    if value is None:
+        return None
+    try:
+        return model_length_unit(value)
+    except QuantityError as exc:
+        raise UsageError(f"--length-unit: {exc}") from None
+
+
+length_unit_option = click.option(
+    "--length-unit",
+    callback=_length_unit,
+    metavar="UNIT",
+    help="Length unit of a model that assigns none (m, cm, mm, ft, in). Never used when the "
+    "model assigns its own.",
+)
+
+
+def _out_dir(out_dir: str) -> Path:
+    """The --out directory, created and tried for writing before the check runs."""
+    import tempfile
+
+    from ifccheck.errors import UsageError
+
+    path = Path(out_dir)
+    try:
+        path.mkdir(parents=True, exist_ok=True)
+        with tempfile.NamedTemporaryFile(dir=path, prefix=".ifccheck-probe-"):
+            pass
+    except OSError as exc:
+        raise UsageError(f"--out {path}: cannot write there ({exc.strerror or exc})") from None
+    return path
+
+
+def _written(write, out_dir: Path):
+    """Run an output writer; a failure to write (disk full, permissions) is one line."""
+    from ifccheck.errors import UsageError
+
+    try:
+        return write()
+    except OSError as exc:
+        where = exc.filename or out_dir
+        raise UsageError(f"--out {out_dir}: cannot write {where} ({exc.strerror or exc})") from None
 
 
 @click.command()
@@ -39,7 +93,10 @@ def _read(path: str, settings: Settings) -> tuple[Model, float]:
 )
 @click.option("--read-only", is_flag=True,
               help="Only read the model: skip the framing graph and the demand.")  # fmt: skip
-def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool) -> None:
+@length_unit_option
+def inspect(
+    model_path: str, as_json: bool, config: str | None, read_only: bool, length_unit: str | None
+) -> None:
     """Show what was read from MODEL and what the framing and loads make of it."""
     from ifccheck.floors import prepare_floors
     from ifccheck.framing import analyse_framing
@@ -47,14 +104,15 @@ def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool)
     from ifccheck.report.inspect import inspect_document, inspect_text
 
     settings = _settings(config, None)
-    model, seconds = _read(model_path, settings)
+    model, seconds = _read(model_path, settings, length_unit)
     framing = demand = None
     if not read_only:
         prepare_floors(model, settings)
         framing = analyse_framing(model, settings.framing, settings.bracing)
         demand = compute_demand(model, framing, settings)
     if as_json:
-        click.echo(json.dumps(inspect_document(model, seconds, framing, demand), indent=1))
+        document = inspect_document(model, seconds, framing, demand)
+        click.echo(json.dumps(document, indent=1, allow_nan=False))
     else:
         click.echo(
             inspect_text(model, seconds, DisplayUnits.for_model(model.length_unit), framing, demand)
@@ -62,11 +120,13 @@ def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool)
 
 
 def _settings(config: str | None, method: str | None):
+    from ifccheck.check import standard_of
     from ifccheck.config import load_settings
 
     settings = load_settings(Path(config) if config else None)
     if method:
         settings.design.method = method.upper()
+    standard_of(settings)  # an unknown design standard is bad settings, for every command
     return settings
 
 
@@ -140,9 +200,10 @@ def _check_keys_over_revisions(settings, old_model, new_model) -> None:
 
 
 def _output_options(command):
-    """--out, --units and --method, shared by check and diff."""
+    """--out, --units, --method and --length-unit, shared by check and diff."""
     for option in reversed(
         [
+            length_unit_option,
             click.option(
                 "--out",
                 "out_dir",
@@ -180,7 +241,7 @@ def _output_options(command):
     help="CSV of GUID, moment (and shear) from an analysis, overriding computed demand.",
 )
 @_output_options
-def check(model_path, config, demands, out_dir, units, method) -> None:
+def check(model_path, config, demands, length_unit, out_dir, units, method) -> None:
     """Check every beam of MODEL and write the results to --out.
 
     Exit code 0 when every beam passes, 1 when any fails or cannot be checked.
@@ -189,10 +250,13 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
     from ifccheck.report import write_all
 
     settings = _settings(config, method)
-    result, model, _ = run_check(model_path, settings, demands, _progress())
+    out = _out_dir(out_dir)
+    result, model, _ = run_check(
+        model_path, settings, demands, _progress(), length_unit=length_unit
+    )
     chosen = _units(units, model.length_unit)
-    written = write_all(result, Path(model_path), Path(out_dir), chosen)
-    names = {m.guid: m.name or m.guid for m in model.members}
+    written = _written(lambda: write_all(result, Path(model_path), out, chosen), out)
+    names = {m.guid: m.name or m.guid for m in [*model.members, *model.unreadable]}
     for guid, message in result.warnings:
         who = names.get(guid, guid)
         click.echo(f"warning: {who}: {message}" if who else f"warning: {message}", err=True)
@@ -213,7 +277,7 @@ def check(model_path, config, demands, out_dir, units, method) -> None:
     help="Settings file (TOML) used for both revisions.",
 )
 @_output_options
-def diff(old_path, new_path, config, out_dir, units, method) -> None:
+def diff(old_path, new_path, config, length_unit, out_dir, units, method) -> None:
     """Compare two revisions: which beams lost bracing or support, or got worse.
 
     Exit code 1 when any beam was weakened, 0 when none was.
@@ -224,12 +288,13 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     from ifccheck.report.wording import change_reasons, diff_names
 
     settings = _settings(config, method)
-    old, old_model, _ = run_check(old_path, settings, strict_keys=False)
-    new, model, _ = run_check(new_path, settings, strict_keys=False)
+    out = _out_dir(out_dir)
+    old, old_model, _ = run_check(old_path, settings, strict_keys=False, length_unit=length_unit)
+    new, model, _ = run_check(new_path, settings, strict_keys=False, length_unit=length_unit)
     _check_keys_over_revisions(settings, old_model, model)
     chosen = _units(units, model.length_unit)
     result = diff_results(old, new)
-    written = write_diff_all(result, Path(out_dir), chosen)
+    written = _written(lambda: write_diff_all(result, out, chosen), out)
     weakened = result.weakened
     click.echo(
         f"{old.model.file} → {new.model.file}: {result.matched} beams matched, "
