@@ -85,6 +85,7 @@ def _guarded(read: Callable[[Entity], T], element: Entity) -> T:
             "file is valid IFC, this is an ifccheck bug"
         ) from None
 
+
 LINEAR_CLASSES = ("IfcBeam", "IfcColumn", "IfcMember")
 SLAB_CLASSES = ("IfcSlab", "IfcPlate")
 WALL_CLASSES = ("IfcWall",)
