@@ -309,7 +309,7 @@ def read_model(
     reader = _Reader(ifc, Path(path).name, default, materials or {}, (scale, unit_name))
     model = reader.read()
     model.warnings[:0] = [("", w) for w in warnings + reader.unit_warnings]
-    if not any(m.role in (MemberRole.BEAM,) for m in model.members):
+    if not any(m.role is MemberRole.BEAM for m in [*model.members, *model.unreadable]):
         raise ModelError(f"{Path(path)}: {_no_beams(ifc)}")
     return model
 
