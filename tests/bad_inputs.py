@@ -352,6 +352,13 @@ def text_beam_cut_short(text: str, f: ifcopenshell.file) -> str:
     return text.replace(_line(text, b10.id()), f"#{b10.id()}=IFCBEAM('{b10.GlobalId}',$,'B10');")
 
 
+def text_no_global_id(text: str, f: ifcopenshell.file) -> str:
+    """B10 written without its GlobalId."""
+    b10 = named(f, "B10")
+    old = _line(text, b10.id())
+    return text.replace(old, old.replace(f"'{b10.GlobalId}'", "$", 1))
+
+
 def text_dangling(text: str, f: ifcopenshell.file) -> str:
     """B10 refers to a placement that is not in the file."""
     b10 = named(f, "B10")
@@ -485,6 +492,7 @@ CASES: list[Case] = [
          text=text_representation_is_a_direction, element="B10", not_checked=("B10",)),
     Case("beam_with_its_guid_only", "check", 1, "no readable geometry",
          text=text_beam_cut_short, element="B10", not_checked=("B10",)),
+    Case("beam_without_global_id", "check", 2, "damaged IFC file", text=text_no_global_id),
     Case("cardinal_point_out_of_range", "check", 1, "cardinal point 42",
          then(axis_only("B10"), cardinal_point("B10", 42)), element="B10",
          not_checked=("B10",)),

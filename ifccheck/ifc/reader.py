@@ -15,6 +15,7 @@ import os
 import re
 import tempfile
 import zipfile
+from collections import Counter
 from collections.abc import Callable, Mapping
 from pathlib import Path
 from typing import TypeVar
@@ -369,6 +370,8 @@ class _Reader:
         )
         self.placements = geo.PlacementCache()
         self._materials: dict = {}
+        self.keys: dict[int, str] = {}
+        self.median: np.ndarray | None = None  # median member position (m), once read
 
     # --- entry ------------------------------------------------------------------
     def read(self) -> Model:
@@ -411,14 +414,15 @@ class _Reader:
         return self.keys.get(element.id(), element.GlobalId)
 
     def _note_duplicates(self) -> None:
+        elements = self._elements(LINEAR_CLASSES + SLAB_CLASSES + WALL_CLASSES)
+        counts = Counter(e.GlobalId for e in elements if isinstance(e.GlobalId, str))
         groups: dict[str, list[str]] = {}
         names: dict[str, str] = {}
-        for element in self._elements(LINEAR_CLASSES + SLAB_CLASSES + WALL_CLASSES):
-            key = self.key(element)
-            if key != element.GlobalId or any(k.startswith(element.GlobalId + ":")
-                                              for k in self.keys.values()):  # fmt: skip
+        for element in elements:
+            if counts[element.GlobalId] > 1:
+                key = self.key(element)
                 groups.setdefault(element.GlobalId, []).append(key)
-                names[key] = element.Name or element.is_a()
+                names[key] = _text(element.Name) or element.is_a()
         if not groups:
             return
         self.model.duplicate_guids = groups
@@ -440,13 +444,14 @@ class _Reader:
 
     def _unreadable(self, element: Entity, detail: str) -> None:
         """A beam, column or member that cannot be read: listed, out of the framing."""
-        name = element.Name or ""
-        predefined = ""
+        name = _text(element.Name)
         try:
-            predefined = (uelement.get_predefined_type(element) or "").upper()
-        except Exception:  # an enumeration the library cannot read: no type
-            predefined = ""
-        role = _role(element, predefined)
+            predefined = _text(uelement.get_predefined_type(element)).upper()
+            role = _role(element, predefined)
+            storey = self._storey(element)
+        except Exception:  # relationships as unreadable as the element: class alone
+            predefined, storey = "", ""
+            role = _role_of_class(element)
         nan = (math.nan, math.nan, math.nan)
         reason = Reason.of(NotChecked.BAD_ELEMENT, detail=detail)
         self.model.unreadable.append(
@@ -455,7 +460,7 @@ class _Reader:
                 ifc_class=element.is_a(),
                 predefined_type=predefined,
                 name=name,
-                storey=self._storey(element),
+                storey=storey,
                 role=role,
                 start=nan,
                 end=nan,
@@ -509,7 +514,7 @@ class _Reader:
 
     def _far_areas(self) -> None:
         """Slabs and walls far from the members are ignored with a warning."""
-        median = getattr(self, "median", None)
+        median = self.median
         if median is None:
             return
         places: list[tuple[str, list[Slab] | list[Wall]]] = [
@@ -1033,6 +1038,9 @@ def element_keys(ifc: ifcopenshell.file) -> dict[int, str]:
             continue
     for i in sorted(found):
         guid = found[i].GlobalId
+        if not isinstance(guid, str) or not guid:  # no GlobalId: the entity's own number
+            keys[i] = f"#{i}"
+            continue
         n = seen.get(guid, 0) + 1
         seen[guid] = n
         if n > 1:
@@ -1042,6 +1050,17 @@ def element_keys(ifc: ifcopenshell.file) -> dict[int, str]:
 
 def _point(v: np.ndarray) -> tuple[float, float, float]:
     return float(v[0]), float(v[1]), float(v[2])
+
+
+def _text(value: object) -> str:
+    """A string attribute as text ('' for none or a value of another type)."""
+    return value if isinstance(value, str) else ""
+
+
+def _role_of_class(element: Entity) -> MemberRole:
+    if element.is_a("IfcColumn"):
+        return MemberRole.COLUMN
+    return MemberRole.BEAM if element.is_a("IfcBeam") else MemberRole.OTHER
 
 
 def _bad(resolved: ResolvedProfile) -> bool:

@@ -258,7 +258,7 @@ class _Units:
             scale = _usable_scale(project_unit)
             # a project unit with no usable conversion (a zero factor): explicit SI units
             self._has_project_unit[kind] = scale is not None
-            if scale is not None:
+            if scale is not None and project_unit is not None:
                 self.scale[kind] = 1.0 / scale
                 self.unit_name[kind] = _unit_words(project_unit)
             else:
