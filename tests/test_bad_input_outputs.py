@@ -10,6 +10,7 @@ import re
 from pathlib import Path
 
 import ifcopenshell
+import ifcopenshell.guid
 import pytest
 from bad_inputs import SETTINGS, valid_model
 from click.testing import CliRunner
@@ -131,3 +132,37 @@ def test_bcf_selects_a_shared_global_id_by_the_global_id_itself(tmp_path: Path):
     for e in copy.by_type("IfcBeam"):
         if e.Name in ("B10", "B20"):
             assert any(k.startswith("ifccheck") for k in uelement.get_psets(e)), e.Name
+
+
+def test_diff_with_an_unreadable_beam_in_either_revision(tmp_path: Path):
+    # revision A valid; revision B: B10 placed relative to itself, with its own GlobalId
+    # (matched) or a new one (matched neither by GlobalId nor by position)
+    import warnings
+
+    old = valid_model(tmp_path / "a.ifc")
+    f = ifcopenshell.open(str(old))
+    b10 = next(e for e in f.by_type("IfcBeam") if e.Name == "B10")
+    b10.ObjectPlacement.PlacementRelTo = b10.ObjectPlacement
+    same = tmp_path / "same.ifc"  # B10 keeps its GlobalId: matched, and weakened
+    f.write(str(same))
+    b10.GlobalId = ifcopenshell.guid.new()
+    new = tmp_path / "b.ifc"
+    f.write(str(new))
+    settings = tmp_path / "s.toml"
+    settings.write_text(SETTINGS)
+    for a, b in ((old, new), (new, old), (old, same), (same, old)):
+        with warnings.catch_warnings(record=True) as caught:
+            warnings.simplefilter("always")
+            res = CliRunner().invoke(main, ["diff", str(a), str(b), "--config", str(settings),
+                                            "--out", str(tmp_path / f"out-{a.stem}")])  # fmt: skip
+        assert res.exit_code in (0, 1), res.output
+        assert "internal error" not in res.output
+        assert not [w for w in caught if issubclass(w.category, RuntimeWarning)], [
+            str(w.message) for w in caught
+        ]
+        doc = json.loads((tmp_path / f"out-{a.stem}" / "diff.json").read_text(),
+                         parse_constant=_refuse)  # fmt: skip
+        if b == same:  # B10 passed in A and is not checked in B: weakened
+            assert res.exit_code == 1
+            changes = doc["beams"].values()
+            assert any(c["name"] == "B10" and c["change"] == "weakened" for c in changes)
