@@ -37,6 +37,8 @@ def _shown(value: object) -> str:
 
 def real(value: object, what: str) -> float:
     """A finite number read from the file; ElementError naming ``what`` otherwise."""
+    if type(value) is float and math.isfinite(value):  # the common case, fast
+        return value
     if isinstance(value, bool) or not isinstance(value, int | float):
         raise ElementError(f"{what} is {_shown(value)}, not a number")
     v = float(value)
@@ -49,21 +51,27 @@ def reals(values: object, what: str, least: int = 1) -> tuple[float, ...]:
     """A list of finite numbers (coordinates, direction ratios), at least ``least`` long."""
     if not isinstance(values, tuple | list) or len(values) < least:
         raise ElementError(f"{what} is {_shown(values)}, not {least} or more numbers")
+    if all(type(v) is float for v in values) and all(map(math.isfinite, values)):
+        return tuple(values)  # the common case, fast
     return tuple(real(v, what) for v in values)
 
 
 def coordinates(point: Entity | None, what: str) -> tuple[float, ...]:
     """The coordinates of an IfcCartesianPoint."""
-    if point is None or not hasattr(point, "Coordinates"):
-        raise ElementError(f"{what} has no point")
-    return reals(point.Coordinates, f"{what} (#{point.id()})", 2)
+    try:
+        values = point.Coordinates  # type: ignore[union-attr]
+    except AttributeError:  # None, or an entity that is not a point
+        raise ElementError(f"{what} is {_shown(point)}, not a point") from None
+    return reals(values, f"{what} (#{point.id()})", 2)  # type: ignore[union-attr]
 
 
 def direction(entity: Entity | None, what: str) -> tuple[float, float, float]:
     """The unit vector of an IfcDirection (ElementError for a zero or unreadable one)."""
-    if entity is None or not hasattr(entity, "DirectionRatios"):
-        raise ElementError(f"{what} is not a direction")
-    ratios = reals(entity.DirectionRatios, what, 2)
+    try:
+        values = entity.DirectionRatios  # type: ignore[union-attr]
+    except AttributeError:  # None, or an entity that is not a direction
+        raise ElementError(f"{what} is {_shown(entity)}, not a direction") from None
+    ratios = reals(values, what, 2)
     try:
         return _unit(ratios)
     except ElementError:

@@ -414,6 +414,8 @@ class _Reader:
         return self.keys.get(element.id(), element.GlobalId)
 
     def _note_duplicates(self) -> None:
+        if not any(":" in k for k in self.keys.values()):  # no GlobalId is shared
+            return
         elements = self._elements(LINEAR_CLASSES + SLAB_CLASSES + WALL_CLASSES)
         counts = Counter(e.GlobalId for e in elements if isinstance(e.GlobalId, str))
         groups: dict[str, list[str]] = {}
@@ -492,12 +494,14 @@ class _Reader:
         members = self.model.members
         if len(members) < 2:
             return
-        mids = np.array([np.add(m.start, m.end) / 2.0 for m in members], dtype=float)
-        self.median = np.median(mids, axis=0)
+        starts = np.array([m.start for m in members], dtype=float)
+        ends = np.array([m.end for m in members], dtype=float)
+        self.median = np.median((starts + ends) / 2.0, axis=0)
+        distance = np.maximum(
+            np.linalg.norm(starts - self.median, axis=1), np.linalg.norm(ends - self.median, axis=1)
+        )
         keep: list[Member] = []
-        for m in members:
-            ends = np.array([m.start, m.end], dtype=float)
-            far = float(np.max(np.linalg.norm(ends - self.median, axis=1)))
+        for m, far in zip(members, distance.tolist(), strict=True):
             if far <= FAR_LIMIT:
                 keep.append(m)
                 continue
