@@ -57,6 +57,7 @@ log = logging.getLogger(__name__)
 # Members farther than this from the median member position are not used (m): a
 # georeferenced model puts its origin far away, but its members lie close together.
 FAR_LIMIT = 100_000.0
+PLAN_GRID = 1e-9  # m: plan outlines are snapped to it (see _scale_poly)
 # A slab thinner than this is taken as having no thickness (m).
 MIN_SLAB_THICKNESS = 1e-6
 DUPLICATES_SHOWN = 10  # shared GlobalIds listed by name in the warning
@@ -377,7 +378,7 @@ class _Reader:
     def read(self) -> Model:
         self._read_storeys()
         self.model.material_names = sorted(
-            {m.Name for m in self.ifc.by_type("IfcMaterial") if m.Name}
+            {m.Name for m in self.ifc.by_type("IfcMaterial") if isinstance(m.Name, str) and m.Name}
         )
         self.keys = element_keys(self.ifc)
         self._note_duplicates()
@@ -497,9 +498,7 @@ class _Reader:
         starts = np.array([m.start for m in members], dtype=float)
         ends = np.array([m.end for m in members], dtype=float)
         self.median = np.median((starts + ends) / 2.0, axis=0)
-        distance = np.maximum(
-            np.linalg.norm(starts - self.median, axis=1), np.linalg.norm(ends - self.median, axis=1)
-        )
+        distance = np.maximum(_distance(starts, self.median), _distance(ends, self.median))
         keep: list[Member] = []
         for m, far in zip(members, distance.tolist(), strict=True):
             if far <= FAR_LIMIT:
@@ -530,7 +529,7 @@ class _Reader:
             for item in items:
                 x0, y0, x1, y1 = item.footprint.bounds
                 corners = np.array([[x0, y0], [x1, y1], [x0, y1], [x1, y0]])
-                far = float(np.max(np.linalg.norm(corners - median[:2], axis=1)))
+                far = float(np.max(_distance(corners, median[:2])))
                 if far <= FAR_LIMIT:
                     keep.append(item)
                     continue
@@ -976,7 +975,10 @@ class _Reader:
             top = max(p.top for p in parts)
             s = self.scale
             notes = [p.repaired for p in parts if p.repaired]
-            return _scale_poly(poly, s), bottom * s, top * s, notes
+            plan = _scale_poly(poly, s)
+            if plan.is_empty:
+                raise ElementError("its plan outline encloses no area (smaller than 1 nm)")
+            return plan, bottom * s, top * s, notes
         verts_faces = self._tessellate_faces(element)
         if verts_faces is None:
             return None
@@ -986,7 +988,7 @@ class _Reader:
         tris = [t for t in tris if t.is_valid and t.area > 1e-9]
         if not tris:
             return None
-        poly = unary_union(tris)
+        poly = _scale_poly(unary_union(tris), 1.0)
         note = "footprint taken from tessellated body geometry"
         return poly, float(verts[:, 2].min()), float(verts[:, 2].max()), [note]
 
@@ -1056,6 +1058,16 @@ def _point(v: np.ndarray) -> tuple[float, float, float]:
     return float(v[0]), float(v[1]), float(v[2])
 
 
+def _distance(points: np.ndarray, centre: np.ndarray) -> np.ndarray:
+    """Euclidean distances of points (rows) from a centre, without overflow for
+    coordinates near the largest float (each row scaled by its largest component)."""
+    with np.errstate(over="ignore"):  # a difference beyond the largest float: inf, far
+        d = np.abs(points - centre)
+        scale = d.max(axis=1)
+        safe = np.where(np.isfinite(scale) & (scale > 0.0), scale, 1.0)
+        return scale * np.sqrt(((d / safe[:, None]) ** 2).sum(axis=1))
+
+
 def _text(value: object) -> str:
     """A string attribute as text ('' for none or a value of another type)."""
     return value if isinstance(value, str) else ""
@@ -1072,9 +1084,16 @@ def _bad(resolved: ResolvedProfile) -> bool:
 
 
 def _scale_poly(poly, s: float):
-    from shapely import affinity
+    """A plan outline in metres, on a nanometre grid: coordinates so small they are
+    subnormal make the polygon operations of the loads stage divide by zero."""
+    import shapely
 
-    return affinity.scale(poly, xfact=s, yfact=s, origin=(0, 0))
+    snapped = shapely.transform(poly, lambda c: np.round(c * (s / PLAN_GRID)) * PLAN_GRID)
+    if snapped.is_valid:
+        return snapped
+    parts = [g for g in shapely.get_parts(shapely.make_valid(snapped))
+             if isinstance(g, Polygon | MultiPolygon)]  # fmt: skip
+    return unary_union(parts) if parts else Polygon()
 
 
 def _section_frame(obj: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
