@@ -480,6 +480,17 @@ def _analysis_materials(element: Entity) -> list[Entity]:
     return found
 
 
+class _BeyondTable(Exception):
+    """A grade whose yield strength by thickness stops short of the section's plates."""
+
+
+def _steel_named(text: str, thickest: float | None, *, round_hss: bool = False) -> Steel | None:
+    try:
+        return steel_from_name(text, thickest, round_hss=round_hss)
+    except ValueError as exc:  # EN 10025-2: a plate thicker than the grade's table
+        raise _BeyondTable(str(exc)) from None
+
+
 def resolve_material(
     ifc: ifcopenshell.file,
     element: Entity,
@@ -492,8 +503,28 @@ def resolve_material(
 
     ``cache`` (one per file) reuses the material-only answer for members sharing
     materials; the names and properties of each element are read only when the
-    materials give no grade.
+    materials give no grade. A grade whose yield strength is not tabulated for the
+    section's thickness leaves the element not checked (section_out_of_scope).
     """
+    try:
+        return _resolve_material(ifc, element, shape, context, profile_name, cache)
+    except _BeyondTable as exc:
+        select = uelement.get_material(element, should_skip_usage=False, should_inherit=True)
+        name = " / ".join(m.Name for m in material_names(select) if m.Name) or "(no material)"
+        return ResolvedMaterial(
+            name, MaterialCategory.STEEL, None, "",
+            reason=Reason.of(NotChecked.SECTION_OUT_OF_SCOPE, detail=str(exc)),
+        )  # fmt: skip
+
+
+def _resolve_material(
+    ifc: ifcopenshell.file,
+    element: Entity,
+    shape: Shape | None,
+    context: GradeContext,
+    profile_name: str = "",
+    cache: dict | None = None,
+) -> ResolvedMaterial:
     select = uelement.get_material(element, should_skip_usage=False, should_inherit=True)
     mats = material_names(select)
     thickest = shape.thickest if shape is not None else None
@@ -526,11 +557,11 @@ def resolve_material(
     candidates = [*texts, *(("type property", t) for t in _property_texts(el_type))]
     candidates += [("element property", t) for t in _property_texts(element)]
     for source, text in candidates:
-        steel = steel_from_name(text or "", thickest, round_hss=round_hss)
+        steel = _steel_named(text or "", thickest, round_hss=round_hss)
         if steel is not None:
             return _found_elsewhere(resolved, steel, source, text or "")
     for mat in _analysis_materials(element):
-        steel = steel_from_name(mat.Name or "", thickest, round_hss=round_hss)
+        steel = _steel_named(mat.Name or "", thickest, round_hss=round_hss)
         if steel is not None:
             source = "analysis member material"
             return _found_elsewhere(resolved, steel, source, mat.Name or "")
@@ -555,7 +586,10 @@ def _note_disagreement(
 ) -> None:
     assert resolved.steel is not None
     for source, text in texts:
-        other = steel_from_name(text or "", thickest, round_hss=round_hss)
+        try:
+            other = _steel_named(text or "", thickest, round_hss=round_hss)
+        except _BeyondTable:  # a grade named elsewhere that cannot apply: nothing to note
+            continue
         if other is not None and other.grade != resolved.steel.grade:
             resolved.notes.append(
                 f"the {source} '{text}' names {other.grade}; the material's "
@@ -601,13 +635,13 @@ def _from_materials(
     for mat in mats:
         mapped = context.mapped(mat.Name or "")
         if mapped is not None:
-            steel = steel_from_name(mapped, thickest, round_hss=round_hss)
+            steel = _steel_named(mapped, thickest, round_hss=round_hss)
             if steel is not None:
                 note = f"grade {steel.grade} for material '{mat.Name}' from [steel.materials]"
                 return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "settings", [note])
     for mat in mats:
         for text in (mat.Name, getattr(mat, "Description", None)):
-            steel = steel_from_name(text or "", thickest, round_hss=round_hss)
+            steel = _steel_named(text or "", thickest, round_hss=round_hss)
             if steel is not None:
                 return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "material name")
     for mat in mats:
