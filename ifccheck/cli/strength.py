@@ -73,6 +73,10 @@ from ifccheck.units import (
 
 # Longest shape name quoted back in a message (characters).
 NAME_SHOWN = 60
+# Lengths beyond these are typing or unit errors (common practice: no member is longer
+# than a kilometre, no section deeper or wider than 10 m).
+LB_MAX = 1000.0  # m
+DIMENSION_MAX = 10.0  # m
 # Cb outside 1.0 (uniform moment) to 3.0 is taken as a typing error (common practice;
 # AISC 360-05 capped Eq. F1-1 at 3.0, from memory).
 CB_RANGE = (1.0, 3.0)
@@ -145,6 +149,7 @@ def _dimension_section(text: str) -> Section | None:
             )
         scale, _ = _quantity(f"1 {m.group('unit')}", "length", "shape")
         dims = {k: v * scale for k, v in zip(kind.keys, nums, strict=False)}
+        _check_sizes(dims, text)
     else:
         head = _HEAD.match(spec)
         if not head:
@@ -164,6 +169,7 @@ def _dimension_section(text: str) -> Section | None:
         missing = [k for k in kind.keys[: kind.required] if k not in dims]
         if missing:
             raise UsageError(f"shape: missing {', '.join(missing)} in {shown(text)}")
+        _check_sizes(dims, text)
     name = re.sub(r"\s+", " ", spec)
     try:
         return kind.build(name, **dims)
@@ -172,6 +178,15 @@ def _dimension_section(text: str) -> Section | None:
         if message.startswith(name):  # the builders start with the name: cut it short
             message = shown(name) + message[len(name) :]
         raise UsageError(f"shape: {message}") from None
+
+
+def _check_sizes(dims: dict[str, float], text: str) -> None:
+    for key, value in dims.items():
+        if not math.isfinite(value) or abs(value) > DIMENSION_MAX:
+            raise UsageError(
+                f"shape: {key} = {value:g} m in {shown(text)} is more than {DIMENSION_MAX:g} m "
+                "(check the unit)"
+            )
 
 
 def _section(shape: str, fabrication: str | None) -> Section:
@@ -219,7 +234,10 @@ def _steel(section: Section, grade: str | None, fy_text: str | None) -> Steel:
             raise UsageError(f"--fy: {problem}")
         return steel_from_yield(fy, f"Fy {' '.join(fy_text.split())}")
     if grade:
-        steel = steel_from_name(grade, max(section.tf, section.tw))
+        try:
+            steel = steel_from_name(grade, max(section.tf, section.tw))
+        except ValueError as exc:  # EN 10025-2 stops at a plate thickness
+            raise UsageError(f"--grade: {exc}") from None
         if steel is None:
             raise UsageError(f"unknown grade {shown(grade)}; known: {', '.join(known_grades())}")
         return steel
@@ -349,6 +367,8 @@ def strength(
     lb, lb_unit = _quantity(lb_text, "length", "--lb")
     if lb < 0.0:
         raise UsageError("--lb must not be negative")
+    if lb > LB_MAX:
+        raise UsageError(f"--lb {shown(lb_text)} is more than {LB_MAX:,.0f} m (check the unit)")
     section = _section(shape, fabrication)
     steel = _steel(section, grade, fy_text)
     reason = scope(section, steel, axis)
