@@ -360,6 +360,20 @@ def text_no_global_id(text: str, f: ifcopenshell.file) -> str:
     return text.replace(old, old.replace(f"'{b10.GlobalId}'", "$", 1))
 
 
+def text_material_name_number(text: str, f: ifcopenshell.file) -> str:
+    """The material A992 named by a number instead of a string."""
+    mat = next(m for m in f.by_type("IfcMaterial") if m.Name == "A992")
+    old = _line(text, mat.id())
+    return text.replace(old, old.replace("'A992'", "-1.E308", 1))
+
+
+def text_subnormal_corner(text: str, f: ifcopenshell.file) -> str:
+    """One corner of the slab outline 1e-300 ft from its line: a subnormal coordinate."""
+    curve = solid(named(f, "Slab")).SweptArea.OuterCurve
+    p = next(p for p in curve.Points if tuple(p.Coordinates) == (0.0, 30.0))
+    return text.replace(_line(text, p.id()), f"#{p.id()}=IFCCARTESIANPOINT((0.,1.E-300));")
+
+
 def text_dangling(text: str, f: ifcopenshell.file) -> str:
     """B10 refers to a placement that is not in the file."""
     b10 = named(f, "B10")
@@ -443,6 +457,7 @@ class Case:
     element: str | None = None
     not_checked: tuple[str, ...] = ()
     others_checked: bool = True
+    reason_code: str = "bad_element"  # of the beams in ``not_checked``
     warnings: tuple[str, ...] = field(default_factory=tuple)  # fragments of other warnings
 
 
@@ -511,6 +526,14 @@ CASES: list[Case] = [
          then(lambda f: setattr(_in(f, "G0"), "PlacementRelTo", _in(f, "C0-0")),
               lambda f: setattr(_in(f, "C0-0"), "PlacementRelTo", _in(f, "G0"))),
          element="G0", not_checked=("G0",), others_checked=False),
+    Case("material_named_by_a_number", "check", 1, "cannot be read",
+         text=text_material_name_number, element="B10", not_checked=BEAMS),
+    Case("plate_thicker_than_the_grade_table", "check", 1, "beyond the tabulated range",
+         then(own_material("B10", 345e6), set_dims("B10", OverallWidth=2.0, WebThickness=0.9,
+                                                   ProfileName=None),
+              lambda f: setattr(next(m for m in f.by_type("IfcMaterial") if m.Name == "Steel"),
+                                "Name", "S355")),
+         element="B10", not_checked=("B10",), reason_code="section_out_of_scope"),
     Case("fillet_negative", "check", 1, "a dimension is negative",
          set_dims("B10", FilletRadius=-0.01), element="B10", not_checked=("B10",)),
     Case("storey_zero_axis", "check", 1, "Axis of placement",
@@ -533,6 +556,7 @@ CASES: list[Case] = [
          others_checked=False),
     Case("negative_thickness_slab", "check", 1, "is -1, not positive", slab_depth(-1.0),
          element="Slab", others_checked=False),
+    Case("subnormal_slab_corner", "check", 0, "", text=text_subnormal_corner),
     Case("slab_of_a_square_micron", "check", 1, "not conserved",
          slab_points([(0.0, 0.0), (1e-6, 0.0), (1e-6, 1e-6), (0.0, 1e-6)]),
          others_checked=False),
@@ -622,6 +646,12 @@ CASES: list[Case] = [
     # --- strength (item 4)
     Case("strength_infinite_lb", "strength", 2, "--lb", args=("W24X84", "--lb", "inf ft")),
     Case("strength_nan_lb", "strength", 2, "--lb", args=("W24X84", "--lb", "nan ft")),
+    Case("strength_lb_beyond_a_kilometre", "strength", 2, "more than 1,000 m",
+         args=("W24X84", "--lb", "1e308 m")),
+    Case("strength_dimensions_in_furlongs", "strength", 2, "check the unit",
+         args=("I:300x150x7x10 furlong", "--lb", "3 m")),
+    Case("strength_plate_beyond_the_grade_table", "strength", 2, "beyond the tabulated range",
+         args=("I:2000x1000x300x300mm", "--lb", "3 m", "--grade", "S355")),
     Case("strength_negative_lb", "strength", 2, "--lb must not be negative",
          args=("W24X84", "--lb", "-3 ft")),
     Case("strength_cb_100", "strength", 2, "--cb 100 is outside 1.0 to 3.0",
