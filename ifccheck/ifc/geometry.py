@@ -35,6 +35,12 @@ def _shown(value: object) -> str:
     return text if len(text) <= SHOWN else text[: SHOWN - 1] + "…"
 
 
+def text_value(value: object) -> str:
+    """A string attribute as text: '' for none, or for a value of another type (a number
+    or a reference where a label belongs, which the parser does not refuse)."""
+    return value if isinstance(value, str) else ""
+
+
 def real(value: object, what: str) -> float:
     """A finite number read from the file; ElementError naming ``what`` otherwise."""
     if type(value) is float and math.isfinite(value):  # the common case, fast

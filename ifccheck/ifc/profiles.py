@@ -30,6 +30,7 @@ from shapely.geometry import Polygon
 
 from ifccheck.errors import ElementError
 from ifccheck.ifc.geometry import real
+from ifccheck.ifc.geometry import text_value as _text
 from ifccheck.model import MaterialCategory, Section, ShapeFamily, Steel
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.sections import grade_problem, material_category, steel_from_name, steel_from_yield
@@ -106,7 +107,7 @@ def _profile_key(profile: Entity, scale: float) -> tuple | None:
             return None
         rings = shapely.get_rings(outline.polygon)
         coords = tuple(tuple(np.round(shapely.get_coordinates(r), 9).ravel()) for r in rings)
-        return (scale, profile.is_a(), profile.ProfileName or "", coords)
+        return (scale, profile.is_a(), _text(profile.ProfileName), coords)
     return None
 
 
@@ -222,7 +223,7 @@ def _parametric_shape(profile: Entity, name: str, s: float) -> Shape | ResolvedP
 
 
 def _section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
-    name = (getattr(profile, "ProfileName", None) or "").strip()
+    name = _text(getattr(profile, "ProfileName", None)).strip()
     if profile.is_a("IfcDerivedProfileDef"):
         parent = section_from_profile(profile.ParentProfile, scale)
         parent.notes.append(
@@ -510,7 +511,8 @@ def resolve_material(
         return _resolve_material(ifc, element, shape, context, profile_name, cache)
     except _BeyondTable as exc:
         select = uelement.get_material(element, should_skip_usage=False, should_inherit=True)
-        name = " / ".join(m.Name for m in material_names(select) if m.Name) or "(no material)"
+        name = " / ".join(_text(m.Name) for m in material_names(select) if _text(m.Name))
+        name = name or "(no material)"
         return ResolvedMaterial(
             name, MaterialCategory.STEEL, None, "",
             reason=Reason.of(NotChecked.SECTION_OUT_OF_SCOPE, detail=str(exc)),
@@ -540,10 +542,10 @@ def _resolve_material(
         return resolved
     el_type = uelement.get_type(element)
     texts = [
-        ("type name", getattr(el_type, "Name", None)),
+        ("type name", _text(getattr(el_type, "Name", None))),
         ("profile name", profile_name),
-        ("element name", element.Name),
-        ("element type", getattr(element, "ObjectType", None)),
+        ("element name", _text(element.Name)),
+        ("element type", _text(getattr(element, "ObjectType", None))),
     ]
     if resolved.steel is not None:
         _note_disagreement(resolved, texts, thickest, round_hss)
@@ -561,10 +563,10 @@ def _resolve_material(
         if steel is not None:
             return _found_elsewhere(resolved, steel, source, text or "")
     for mat in _analysis_materials(element):
-        steel = _steel_named(mat.Name or "", thickest, round_hss=round_hss)
+        steel = _steel_named(_text(mat.Name), thickest, round_hss=round_hss)
         if steel is not None:
             source = "analysis member material"
-            return _found_elsewhere(resolved, steel, source, mat.Name or "")
+            return _found_elsewhere(resolved, steel, source, _text(mat.Name))
     return _no_grade(resolved, context, [t for _, t in texts if t])
 
 
@@ -630,36 +632,40 @@ def _from_materials(
     round_hss: bool,
     context: GradeContext,
 ) -> ResolvedMaterial:
-    names = [m.Name or "" for m in mats]
+    names = [_text(m.Name) for m in mats]
     label = " / ".join(n for n in names if n) or "(no material)"
     for mat in mats:
-        mapped = context.mapped(mat.Name or "")
+        mapped = context.mapped(_text(mat.Name))
         if mapped is not None:
             steel = _steel_named(mapped, thickest, round_hss=round_hss)
             if steel is not None:
                 note = f"grade {steel.grade} for material '{mat.Name}' from [steel.materials]"
-                return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "settings", [note])
+                return ResolvedMaterial(
+                    _text(mat.Name), MaterialCategory.STEEL, steel, "settings", [note]
+                )
     for mat in mats:
-        for text in (mat.Name, getattr(mat, "Description", None)):
+        for text in (_text(mat.Name), _text(getattr(mat, "Description", None))):
             steel = _steel_named(text or "", thickest, round_hss=round_hss)
             if steel is not None:
-                return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "material name")
+                return ResolvedMaterial(
+                    _text(mat.Name), MaterialCategory.STEEL, steel, "material name"
+                )
     for mat in mats:
         fy = yield_stress(ifc, mat, context.pressure_scale)
         if fy is not None and fy_problem(fy):
             detail = f"material '{mat.Name}': {fy_problem(fy)}"
             return ResolvedMaterial(
-                mat.Name or "", MaterialCategory.STEEL, None, "material property",
+                _text(mat.Name), MaterialCategory.STEEL, None, "material property",
                 reason=Reason.of(NotChecked.BAD_ELEMENT, detail=detail),
             )  # fmt: skip
         if fy is not None:
-            steel = steel_from_yield(fy, mat.Name or "steel")
+            steel = steel_from_yield(fy, _text(mat.Name) or "steel")
             return ResolvedMaterial(
-                mat.Name or "", MaterialCategory.STEEL, steel, "material property"
+                _text(mat.Name), MaterialCategory.STEEL, steel, "material property"
             )
     category = MaterialCategory.UNKNOWN
     for mat in mats:
-        text = " ".join(filter(None, [mat.Name, getattr(mat, "Category", None)]))
+        text = " ".join(filter(None, [_text(mat.Name), _text(getattr(mat, "Category", None))]))
         found = material_category(text)
         if found in (MaterialCategory.CONCRETE, MaterialCategory.TIMBER):
             return ResolvedMaterial(label, found, None, "material name")

@@ -53,6 +53,7 @@ from ifccheck.units import MODEL_LENGTH_UNITS, model_length_unit
 
 Entity = ifcopenshell.entity_instance
 log = logging.getLogger(__name__)
+_text = geo.text_value
 
 # Members farther than this from the median member position are not used (m): a
 # georeferenced model puts its origin far away, but its members lie close together.
@@ -235,7 +236,7 @@ def length_unit_name(ifc: ifcopenshell.file) -> str:
     if unit.is_a("IfcSIUnit"):
         prefix = (unit.Prefix or "").lower()
         return f"{prefix}metre"
-    name = (unit.Name or "").strip().lower()
+    name = _text(unit.Name).strip().lower()
     aliases = {"feet": "foot", "ft": "foot", "inches": "inch", "in": "inch", "yards": "yard"}
     return aliases.get(name, name or "unknown")
 
@@ -249,7 +250,7 @@ def unit_scale(ifc: ifcopenshell.file, unit_type: str) -> tuple[float | None, st
         return None, f"the {unit_type} assignment cannot be read"
     if unit is None:
         return None, ""
-    name = (getattr(unit, "Name", None) or unit.is_a()) if hasattr(unit, "is_a") else "?"
+    name = (_text(getattr(unit, "Name", None)) or unit.is_a()) if hasattr(unit, "is_a") else "?"
     if unit.is_a("IfcContextDependentUnit"):
         return None, f"{unit_type} {name!s} is a context-dependent unit with no conversion to SI"
     try:
@@ -486,7 +487,7 @@ class _Reader:
         )  # fmt: skip
 
     def _skipped(self, element: Entity, what: str, exc: Exception) -> None:
-        label = f"{what} '{element.Name}'" if element.Name else what
+        label = f"{what} '{_text(element.Name)}'" if _text(element.Name) else what
         self.model.warnings.append((self.key(element), f"{label} ignored: {exc}"))
 
     def _far_members(self) -> None:
@@ -556,12 +557,13 @@ class _Reader:
             try:
                 _guarded(self._read_storey, st)
             except ElementError as exc:
-                self.model.warnings.append((st.GlobalId, f"storey '{st.Name}' ignored: {exc}"))
+                name = _text(st.Name)
+                self.model.warnings.append((st.GlobalId, f"storey '{name}' ignored: {exc}"))
         self.model.storeys.sort(key=lambda s: s.elevation)
 
     def _read_storey(self, st: Entity) -> None:
         """One storey: its elevation from its placement, else its Elevation attribute."""
-        name = st.Name or st.GlobalId
+        name = _text(st.Name) or _text(st.GlobalId) or f"#{st.id()}"
         elevation = st.Elevation if isinstance(st.Elevation, int | float) else None
         try:
             z = self.placements.of(st)[2, 3] * self.scale
@@ -591,7 +593,7 @@ class _Reader:
             container = uelement.get_aggregate(container)
         if container is None:
             return ""
-        return container.Name or container.GlobalId
+        return _text(container.Name) or _text(container.GlobalId)
 
     # --- members ----------------------------------------------------------------
     def _member(self, element: Entity) -> Member | None:
@@ -633,7 +635,7 @@ class _Reader:
             guid=self.key(element),
             ifc_class=element.is_a(),
             predefined_type=predefined,
-            name=element.Name or "",
+            name=_text(element.Name),
             storey=self._storey(element),
             role=role,
             start=_point(start),
@@ -675,7 +677,7 @@ class _Reader:
         if select is not None and select.is_a("IfcMaterialProfileSet"):
             profiles = [p.Profile for p in select.MaterialProfiles if p.Profile]
             if profiles:
-                return profiles[0], source, select.Name or ""
+                return profiles[0], source, _text(select.Name)
         return None, "", ""
 
     def _main_extrusion(
@@ -696,7 +698,7 @@ class _Reader:
         t = None
         if axis is not None and np.linalg.norm(axis[1] - axis[0]) > 0:
             t = (axis[1] - axis[0]) / np.linalg.norm(axis[1] - axis[0])
-        set_name = (getattr(set_profile, "ProfileName", None) or "").strip().upper()
+        set_name = _text(getattr(set_profile, "ProfileName", None)).strip().upper()
 
         def score(item: tuple[np.ndarray, Entity]) -> tuple[bool, bool, float]:
             try:
@@ -707,7 +709,7 @@ class _Reader:
             area = item[1].SweptArea
             same = set_profile is not None and (
                 area == set_profile
-                or (bool(set_name) and (area.ProfileName or "").strip().upper() == set_name)
+                or (bool(set_name) and _text(area.ProfileName).strip().upper() == set_name)
             )
             return along, same, length
 
@@ -759,10 +761,10 @@ class _Reader:
     def _profile_by_name(self, element: Entity) -> ResolvedProfile | None:
         el_type = uelement.get_type(element)
         for text, source in (
-            (getattr(el_type, "Name", None), "type name"),
-            (getattr(element, "ObjectType", None), "name"),
+            (_text(getattr(el_type, "Name", None)), "type name"),
+            (_text(getattr(element, "ObjectType", None)), "name"),
             (getattr(element, "Tag", None), "name"),
-            (element.Name, "name"),
+            (_text(element.Name), "name"),
         ):
             resolved = resolve_name(text)
             if resolved is not None:
@@ -889,7 +891,7 @@ class _Reader:
     # --- slabs and walls ----------------------------------------------------------
     def _slab(self, element: Entity) -> Slab | None:
         found = self._footprint(element)
-        label = f"slab '{element.Name}'" if element.Name else "slab"
+        label = f"slab '{_text(element.Name)}'" if _text(element.Name) else "slab"
         if found is None:
             if element.is_a("IfcSlab"):
                 self.model.warnings.append(
@@ -945,7 +947,7 @@ class _Reader:
             return None
         return Slab(
             guid=self.key(element),
-            name=element.Name or "",
+            name=_text(element.Name),
             storey=self._storey(element),
             footprint=footprint,
             underside=bottom,
@@ -1020,7 +1022,7 @@ class _Reader:
             raise ElementError("it has no plan area or no height")
         return Wall(
             guid=self.key(element),
-            name=element.Name or "",
+            name=_text(element.Name),
             storey=self._storey(element),
             footprint=poly,
             base=bottom,
@@ -1066,11 +1068,6 @@ def _distance(points: np.ndarray, centre: np.ndarray) -> np.ndarray:
         scale = d.max(axis=1)
         safe = np.where(np.isfinite(scale) & (scale > 0.0), scale, 1.0)
         return scale * np.sqrt(((d / safe[:, None]) ** 2).sum(axis=1))
-
-
-def _text(value: object) -> str:
-    """A string attribute as text ('' for none or a value of another type)."""
-    return value if isinstance(value, str) else ""
 
 
 def _role_of_class(element: Entity) -> MemberRole:
@@ -1119,7 +1116,7 @@ def _role(element: Entity, predefined: str) -> MemberRole:
         return MemberRole.COLUMN
     if element.is_a("IfcBeam"):
         return MemberRole.BEAM
-    object_type = (getattr(element, "ObjectType", None) or "").upper()
+    object_type = _text(getattr(element, "ObjectType", None)).upper()
     kind = predefined if predefined not in ("", "USERDEFINED", "NOTDEFINED") else object_type
     if kind in BRACE_TYPES:
         return MemberRole.BRACE
