@@ -374,6 +374,18 @@ def text_subnormal_corner(text: str, f: ifcopenshell.file) -> str:
     return text.replace(_line(text, p.id()), f"#{p.id()}=IFCCARTESIANPOINT((0.,1.E-300));")
 
 
+def text_label(pick: Callable[[ifcopenshell.file], Entity], label: str, value: str) -> TextMutation:
+    """A number or a reference where the label ``label`` of an entity belongs."""
+
+    def mutate(text: str, f: ifcopenshell.file) -> str:
+        old = _line(text, pick(f).id())
+        new = old.replace(f"'{label}'", value, 1)
+        assert new != old
+        return text.replace(old, new)
+
+    return mutate
+
+
 def text_dangling(text: str, f: ifcopenshell.file) -> str:
     """B10 refers to a placement that is not in the file."""
     b10 = named(f, "B10")
@@ -526,14 +538,20 @@ CASES: list[Case] = [
          then(lambda f: setattr(_in(f, "G0"), "PlacementRelTo", _in(f, "C0-0")),
               lambda f: setattr(_in(f, "C0-0"), "PlacementRelTo", _in(f, "G0"))),
          element="G0", not_checked=("G0",), others_checked=False),
-    Case("material_named_by_a_number", "check", 1, "cannot be read",
-         text=text_material_name_number, element="B10", not_checked=BEAMS),
+    Case("material_named_by_a_number", "check", 1, "names no steel grade",
+         text=text_material_name_number, not_checked=BEAMS, reason_code="no_grade"),
     Case("plate_thicker_than_the_grade_table", "check", 1, "beyond the tabulated range",
          then(own_material("B10", 345e6), set_dims("B10", OverallWidth=2.0, WebThickness=0.9,
                                                    ProfileName=None),
               lambda f: setattr(next(m for m in f.by_type("IfcMaterial") if m.Name == "Steel"),
                                 "Name", "S355")),
          element="B10", not_checked=("B10",), reason_code="section_out_of_scope"),
+    Case("storey_named_by_a_number", "check", 0, "",  # listed by its GlobalId
+         text=text_label(lambda f: f.by_type("IfcBuildingStorey")[0], "Level 2", "1.E-300")),
+    Case("slab_named_by_a_reference", "check", 0, "",
+         text=text_label(lambda f: named(f, "Slab"), "Slab", "#2")),
+    Case("unit_named_by_a_number", "check", 0, "",
+         text=text_label(lambda f: f.by_type("IfcConversionBasedUnit")[0], "FOOT", "1.E300")),
     Case("fillet_negative", "check", 1, "a dimension is negative",
          set_dims("B10", FilletRadius=-0.01), element="B10", not_checked=("B10",)),
     Case("storey_zero_axis", "check", 1, "Axis of placement",
