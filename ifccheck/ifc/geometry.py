@@ -133,9 +133,11 @@ class PlacementCache:
 
 def _unit(v: tuple[float, ...]) -> tuple[float, float, float]:
     x, y, z = (*tuple(v), 0.0, 0.0, 0.0)[:3]
-    n = math.sqrt(x * x + y * y + z * z)
-    if not (n > 0.0 and math.isfinite(n)):
+    big = max(abs(x), abs(y), abs(z))  # scaled first: ratios of 1e-200 or 1e200 are fine
+    if not (big > 0.0 and math.isfinite(big)):
         raise ElementError(f"direction {tuple(v)} has no length")
+    x, y, z = x / big, y / big, z / big
+    n = math.sqrt(x * x + y * y + z * z)
     return x / n, y / n, z / n
 
 

@@ -9,11 +9,13 @@ the tessellated body (counted as a geometry fallback).
 
 from __future__ import annotations
 
+import json
 import logging
 import math
 import os
 import re
 import tempfile
+import threading
 import zipfile
 from collections import Counter
 from collections.abc import Callable, Mapping
@@ -142,14 +144,21 @@ def _known_schemas() -> set[str]:
     return {s.upper() for s in wrapper.schema_names()}
 
 
+# The IFC library's log is one per process: parses in threads take turns, so that each
+# reads the messages of its own file.
+_PARSE_LOCK = threading.Lock()
+
+
 def _parse(p: Path, file_name: str) -> ifcopenshell.file:
-    ifcopenshell.get_log()  # drain what earlier calls left in the library's log
-    try:
-        f = ifcopenshell.open(file_name)
-    except Exception as exc:  # ifcopenshell raises several error types
-        detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
-        raise ModelError(f"{p}: cannot parse IFC file: {detail}") from None
-    _check_parse_log(p)
+    with _PARSE_LOCK:
+        ifcopenshell.get_log()  # drain what earlier calls left in the library's log
+        try:
+            f = ifcopenshell.open(file_name)
+        except Exception as exc:  # ifcopenshell raises several error types
+            text = str(exc).strip()
+            detail = text.splitlines()[0] if text else type(exc).__name__
+            raise ModelError(f"{p}: cannot parse IFC file: {detail}") from None
+        _check_parse_log(p)
     _check_complete(p, f)
     return f
 
@@ -159,10 +168,19 @@ _LOG_ERROR = re.compile(r"^\[error\](?:\s*\[[^\]]*\])*\s*(?P<message>.*)$")
 
 
 def parse_errors(log: str) -> list[str]:
-    """The error messages in an ifcopenshell log (warnings left out)."""
+    """The error messages in an ifcopenshell log, text or JSON format (warnings left out)."""
     out = []
     for line in log.splitlines():
-        m = _LOG_ERROR.match(line.strip())
+        line = line.strip()
+        if line.startswith("{"):
+            try:
+                entry = json.loads(line)
+            except ValueError:  # not a JSON line after all
+                entry = {}
+            if isinstance(entry, dict) and entry.get("level") == "error":
+                out.append(str(entry.get("message", "")).strip())
+            continue
+        m = _LOG_ERROR.match(line)
         if m:
             out.append(m.group("message").strip())
     return out
@@ -208,16 +226,18 @@ def _open_as(
     with tempfile.TemporaryDirectory(prefix="ifccheck-") as tmp:
         copy = Path(tmp) / p.name
         copy.write_bytes(patched)
-        ifcopenshell.get_log()  # drain what earlier calls left in the library's log
-        try:
-            f = ifcopenshell.open(str(copy))
-        except Exception as exc:  # an entity IFC4 does not have
-            detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
-            raise ModelError(
-                f"{p}: schema {declared} is not known to the IFC library, and reading it as "
-                f"{target} failed: {detail}"
-            ) from None
-        _check_parse_log(p)
+        with _PARSE_LOCK:
+            ifcopenshell.get_log()  # drain what earlier calls left in the library's log
+            try:
+                f = ifcopenshell.open(str(copy))
+            except Exception as exc:  # an entity IFC4 does not have
+                text = str(exc).strip()
+                detail = text.splitlines()[0] if text else type(exc).__name__
+                raise ModelError(
+                    f"{p}: schema {declared} is not known to the IFC library, and reading it "
+                    f"as {target} failed: {detail}"
+                ) from None
+            _check_parse_log(p)
         _check_complete(p, f)
     if warnings is not None:
         warnings.append(
