@@ -195,3 +195,23 @@ def test_a_carriage_return_stays_in_its_row(tmp_path: Path, valid: Path):
 
 
 SETTINGS_TEXT = '[loads]\ndead = "10 psf"\nlive = "20 psf"\n'
+
+
+def test_a_damaged_file_is_refused_whichever_log_format_the_library_uses(tmp_path, valid):
+    import ifcopenshell.ifcopenshell_wrapper as wrapper
+
+    from ifccheck.errors import ModelError
+    from ifccheck.ifc.reader import open_ifc, parse_errors
+
+    text = valid.read_text().replace("DATA;\n", "DATA;\n#900000=IFCNOSUCHTHING(1.);\n", 1)
+    path = tmp_path / "damaged.ifc"
+    path.write_text(text)
+    wrapper.set_log_format_json()
+    try:
+        with pytest.raises(ModelError, match=r"damaged IFC file.*IFCNOSUCHTHING"):
+            open_ifc(path)
+    finally:
+        wrapper.set_log_format_text()
+    with pytest.raises(ModelError, match=r"damaged IFC file.*IFCNOSUCHTHING"):
+        open_ifc(path)
+    assert parse_errors("[warning] [VAL016] [2026-01-01 00:00:00] Expected 9 values") == []
