@@ -32,7 +32,7 @@ from ifccheck.adequacy import assess_bracing
 from ifccheck.config import BracingSettings, Settings, StoreyLoads, settings_to_dict
 from ifccheck.design import get_standard
 from ifccheck.design.base import DesignStandard, segment_moments
-from ifccheck.errors import OutOfScope
+from ifccheck.errors import OutOfScope, SettingsError
 from ifccheck.explain import explain_beams
 from ifccheck.floors import prepare_floors
 from ifccheck.framing import analyse_framing
@@ -106,6 +106,14 @@ def sha256_of(path: Path) -> str:
     return h.hexdigest()
 
 
+def standard_of(settings: Settings) -> DesignStandard:
+    """The design standard the settings name; SettingsError for one not registered."""
+    try:
+        return get_standard(settings.design.standard)
+    except ValueError as exc:
+        raise SettingsError(f"settings: design.standard: {exc}") from None
+
+
 def run_check(
     model_path: str | Path,
     settings: Settings,
@@ -114,16 +122,22 @@ def run_check(
     strict_keys: bool = True,
     requirements: bool = False,
     project_ids: Sequence[str | Path] = (),
+    length_unit: str | None = None,
 ) -> tuple[CheckResult, Model, Framing]:
     """The whole job on one model file. A settings key naming nothing in the model is a
     SettingsError unless ``strict_keys`` is False (``diff`` checks keys over both files).
 
     ``requirements`` audits the model against the tool's information requirements first
     (``settings.requirements``), ``project_ids`` against each of those IDS files too; the
-    audit goes on the result, and a beam not checked for want of one names it."""
+    audit goes on the result, and a beam not checked for want of one names it.
+    ``length_unit`` is the unit of a model that assigns none (``--length-unit``)."""
     path = Path(model_path)
+    standard = standard_of(settings)
     model = read_model(
-        path, default_grade=settings.steel.default_grade, materials=settings.steel.materials
+        path,
+        default_grade=settings.steel.default_grade,
+        materials=settings.steel.materials,
+        length_unit=length_unit,
     )
     audit = _audit_ifc(path, settings, requirements, project_ids)
     prepare_floors(model, settings, strict_keys)
@@ -134,7 +148,6 @@ def run_check(
         overrides = load_demand_csv(Path(demands_path))
     demand = compute_demand(model, framing, settings, overrides)
     warnings += [w for w in demand.warnings if w not in warnings]
-    standard = get_standard(settings.design.standard)
     assess_bracing(
         model, framing, demand, standard, settings.design.method, settings.bracing.adequacy,
         tuple(settings.bracing.moment_connections),
@@ -144,6 +157,8 @@ def run_check(
         for m in model.members
         if m.role is MemberRole.BEAM
     ]
+    # beams the reader could not place: listed as not checked, with the reason
+    beams += [(m, None, None) for m in model.unreadable if m.role is MemberRole.BEAM]
     spec = StageSpec(IN_SERVICE, settings.bracing.slab, True)
     results = check_beams(beams, standard, settings, progress, spec)
     for b in results:
@@ -153,7 +168,7 @@ def run_check(
         stage, c_warnings = _construction_stage(model, settings, standard, results)
         stages.append(stage)
         warnings += [w for w in c_warnings if w not in warnings]
-    names = {m.guid: m.name for m in model.members if m.name}
+    names = {m.guid: m.name for m in [*model.members, *model.unreadable] if m.name}
     names.update({w.guid: w.name for w in model.walls if w.name})
     names.update({s.guid: s.name for s in model.slabs if s.name})
     for b in results:

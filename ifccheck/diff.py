@@ -56,9 +56,13 @@ def match_beams(
     cell = MATCH_TOLERANCE * 2
     grid: dict[tuple[int, int, int], list[BeamResult]] = defaultdict(list)
     for o in old_by_guid.values():
-        grid[_cell(_mid(o), cell)].append(o)
+        if _placed(o):
+            grid[_cell(_mid(o), cell)].append(o)
     added: list[BeamResult] = []
     for b in unmatched_new:
+        if not _placed(b):  # a beam the reader could not place matches by GlobalId only
+            added.append(b)
+            continue
         found = None
         cx, cy, cz = _cell(_mid(b), cell)
         for key in (
@@ -77,6 +81,10 @@ def match_beams(
         old_by_guid.pop(found.guid)
         pairs.append((found, b, "geometry"))
     return pairs, added, list(old_by_guid.values())
+
+
+def _placed(b: BeamResult) -> bool:
+    return bool(np.isfinite(b.start).all() and np.isfinite(b.end).all())
 
 
 def _mid(b: BeamResult) -> np.ndarray:

@@ -22,6 +22,12 @@ class ModelError(InputError):
     """The file cannot be read as a model."""
 
 
+class ElementError(ModelError):
+    """One element of a model cannot be read (a profile, placement or body that makes no
+    sense). The reader catches it and lists that element as not checked, or skips it with
+    a warning; it reaches the command line only if a model-wide object is at fault."""
+
+
 class SettingsError(InputError, ValueError):
     """A settings file or value that cannot be used; the message names the key."""
 

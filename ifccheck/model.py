@@ -274,6 +274,14 @@ class Model:
     geometry_fallbacks: int = 0
     levels: list[Level] = field(default_factory=list)  # set by the floors stage
     material_names: list[str] = field(default_factory=list)  # every IfcMaterial's name
+    # Beams, columns and members that could not be read (a placement that cycles, a zero
+    # direction, coordinates far from the rest): kept out of the framing and the loads,
+    # each with its reason in ``unresolved``; the beams among them are listed as not checked.
+    # Their start and end are NaN: their position is not known.
+    unreadable: list[Member] = field(default_factory=list)
+    # A GlobalId several elements share → the keys its elements are listed under
+    # (the first keeps the GlobalId, the others get ":2", ":3"...).
+    duplicate_guids: dict[str, list[str]] = field(default_factory=dict)
 
     def member(self, guid: str) -> Member:
         for m in self.members:

@@ -117,6 +117,37 @@ _EXAMPLE = {
     "density": "2400 kg/m^3",
 }
 
+# -- the length unit of a model that assigns none (--length-unit) ------------------
+
+# metres per unit (exact by definition: 1 ft = 0.3048 m, 1 in = 0.0254 m)
+MODEL_LENGTH_UNITS: dict[str, float] = {
+    "metre": 1.0,
+    "centimetre": 0.01,
+    "millimetre": 0.001,
+    "foot": 0.3048,
+    "inch": 0.0254,
+}
+_MODEL_LENGTH_ALIASES = {
+    "m": "metre", "meter": "metre", "metres": "metre", "meters": "metre",
+    "cm": "centimetre", "centimeter": "centimetre",
+    "mm": "millimetre", "millimeter": "millimetre",
+    "ft": "foot", "feet": "foot", "in": "inch", "inches": "inch",
+}  # fmt: skip
+
+
+def model_length_unit(text: str) -> str:
+    """The name of a model length unit ('mm' → 'millimetre'); QuantityError otherwise."""
+    key = " ".join(str(text).split()).lower()
+    name = _MODEL_LENGTH_ALIASES.get(key, key)
+    if name not in MODEL_LENGTH_UNITS:
+        shown = key if len(key) <= 40 else key[:39] + "…"
+        raise QuantityError(
+            f"{shown!r} is not a length unit a model is read in "
+            f"(one of {', '.join(MODEL_LENGTH_UNITS)}, or m, cm, mm, ft, in)"
+        )
+    return name
+
+
 # -- unit systems and the one display table -------------------------------------
 
 SYSTEMS: tuple[UnitSystem, ...] = ("si", "imperial")

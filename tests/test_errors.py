@@ -86,3 +86,12 @@ def test_long_input_is_not_echoed_in_full(tmp_path):
     res = CliRunner().invoke(main, ["strength", "W" * 10_000, "--lb", "3 m"])
     assert res.exit_code == EXIT_BAD_INPUT
     assert len(res.output) < 400
+
+
+@pytest.mark.parametrize("args", [[], ["token"]], ids=["no command", "token without command"])
+def test_a_group_without_its_command_is_one_line_naming_the_commands(args):
+    res = CliRunner().invoke(main, args)
+    assert res.exit_code == EXIT_BAD_INPUT
+    lines = [ln for ln in res.output.splitlines() if ln.strip()]
+    assert len(lines) == 1 and lines[0].startswith("ifccheck: error: "), res.output
+    assert "missing command (one of" in lines[0] and "Usage:" not in lines[0]

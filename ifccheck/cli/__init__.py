@@ -41,6 +41,13 @@ def _exit_bad_input(message: str) -> NoReturn:
 
 def _usage_message(exc: click.UsageError) -> str:
     text = exc.format_message()
+    if isinstance(exc, getattr(click.exceptions, "NoArgsIsHelpError", ())) or text.startswith(
+        "Usage:"
+    ):  # a group called without its command: name the commands, not the whole help
+        group = exc.ctx.command if exc.ctx is not None else None
+        names = sorted(getattr(group, "commands", {}) or {})
+        text = "missing command" + (f" (one of {', '.join(names)})" if names else "")
+        text += "; see --help"
     if exc.ctx is not None and exc.ctx.command_path:
         text = f"{exc.ctx.command_path}: {text}"
     return text

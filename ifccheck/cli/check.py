@@ -2,9 +2,11 @@
 
 from __future__ import annotations
 
+import contextlib
 import json
 import sys
 import time
+from collections.abc import Iterator
 from pathlib import Path
 from typing import TYPE_CHECKING
 
@@ -20,13 +22,76 @@ if TYPE_CHECKING:
     from ifccheck.results import CheckResult
 
 
-def _read(path: str, settings: Settings) -> tuple[Model, float]:
+def _read(path: str, settings: Settings, length_unit: str | None) -> tuple[Model, float]:
     from ifccheck.ifc.reader import read_model
 
     t0 = time.perf_counter()
     steel = settings.steel
-    model = read_model(path, default_grade=steel.default_grade, materials=steel.materials)
+    model = read_model(
+        path,
+        default_grade=steel.default_grade,
+        materials=steel.materials,
+        length_unit=length_unit,
+    )
     return model, time.perf_counter() - t0
+
+
+def _length_unit(ctx: click.Context, param: click.Parameter, value: str | None) -> str | None:
+    """--length-unit: a unit a model is read in ('mm', 'ft', 'metre'...), or None."""
+    from ifccheck.errors import QuantityError, UsageError
+    from ifccheck.units import model_length_unit
+
+    if value is None:
+        return None
+    try:
+        return model_length_unit(value)
+    except QuantityError as exc:
+        raise UsageError(f"--length-unit: {exc}") from None
+
+
+length_unit_option = click.option(
+    "--length-unit",
+    callback=_length_unit,
+    metavar="UNIT",
+    help="Length unit of a model that assigns none (m, cm, mm, ft, in). Never used when the "
+    "model assigns its own.",
+)
+
+
+@contextlib.contextmanager
+def _out_dir(out_dir: str) -> Iterator[Path]:
+    """The --out directory, created and tried for writing before the check runs; one
+    this run created is removed again, if still empty, when the run stops on an error."""
+    import tempfile
+
+    from ifccheck.errors import UsageError
+
+    path = Path(out_dir)
+    existed = path.exists()
+    try:
+        path.mkdir(parents=True, exist_ok=True)
+        with tempfile.NamedTemporaryFile(dir=path, prefix=".ifccheck-probe-"):
+            pass
+    except OSError as exc:
+        raise UsageError(f"--out {path}: cannot write there ({exc.strerror or exc})") from None
+    try:
+        yield path
+    except Exception:
+        if not existed:
+            with contextlib.suppress(OSError):
+                path.rmdir()  # only if empty
+        raise
+
+
+def _written(write, out_dir: Path):
+    """Run an output writer; a failure to write (disk full, permissions) is one line."""
+    from ifccheck.errors import UsageError
+
+    try:
+        return write()
+    except OSError as exc:
+        where = exc.filename or out_dir
+        raise UsageError(f"--out {out_dir}: cannot write {where} ({exc.strerror or exc})") from None
 
 
 @click.command()
@@ -39,7 +104,10 @@ def _read(path: str, settings: Settings) -> tuple[Model, float]:
 )
 @click.option("--read-only", is_flag=True,
               help="Only read the model: skip the framing graph and the demand.")  # fmt: skip
-def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool) -> None:
+@length_unit_option
+def inspect(
+    model_path: str, as_json: bool, config: str | None, read_only: bool, length_unit: str | None
+) -> None:
     """Show what was read from MODEL and what the framing and loads make of it."""
     from ifccheck.floors import prepare_floors
     from ifccheck.framing import analyse_framing
@@ -47,14 +115,15 @@ def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool)
     from ifccheck.report.inspect import inspect_document, inspect_text
 
     settings = _settings(config, None)
-    model, seconds = _read(model_path, settings)
+    model, seconds = _read(model_path, settings, length_unit)
     framing = demand = None
     if not read_only:
         prepare_floors(model, settings)
         framing = analyse_framing(model, settings.framing, settings.bracing)
         demand = compute_demand(model, framing, settings)
     if as_json:
-        click.echo(json.dumps(inspect_document(model, seconds, framing, demand), indent=1))
+        document = inspect_document(model, seconds, framing, demand)
+        click.echo(json.dumps(document, indent=1, allow_nan=False))
     else:
         click.echo(
             inspect_text(model, seconds, DisplayUnits.for_model(model.length_unit), framing, demand)
@@ -62,11 +131,13 @@ def inspect(model_path: str, as_json: bool, config: str | None, read_only: bool)
 
 
 def _settings(config: str | None, method: str | None):
+    from ifccheck.check import standard_of
     from ifccheck.config import load_settings
 
     settings = load_settings(Path(config) if config else None)
     if method:
         settings.design.method = method.upper()
+    standard_of(settings)  # an unknown design standard is bad settings, for every command
     return settings
 
 
@@ -222,9 +293,10 @@ def _warning_lines(warnings, names) -> list[str]:
 
 
 def _output_options(command):
-    """--out, --units and --method, shared by check and diff."""
+    """--out, --units, --method and --length-unit, shared by check and diff."""
     for option in reversed(
         [
+            length_unit_option,
             click.option(
                 "--out",
                 "out_dir",
@@ -270,7 +342,9 @@ def _output_options(command):
               help="Audit the model against this IDS file too (repeatable); with "
               "--no-requirements, instead.")  # fmt: skip
 @_output_options
-def check(model_path, config, demands, no_requirements, ids_files, out_dir, units, method) -> None:
+def check(
+    model_path, config, demands, no_requirements, ids_files, length_unit, out_dir, units, method
+) -> None:
     """Check every beam of MODEL and write the results to --out.
 
     The model is audited first against the information the check needs
@@ -282,12 +356,13 @@ def check(model_path, config, demands, no_requirements, ids_files, out_dir, unit
     from ifccheck.report.basis import defaults_line
 
     settings = _settings(config, method)
-    result, model, _ = run_check(
-        model_path, settings, demands, _progress(), requirements=not no_requirements,
-        project_ids=ids_files,
-    )  # fmt: skip
-    chosen = _units(units, model.length_unit)
-    written = write_all(result, Path(model_path), Path(out_dir), chosen)
+    with _out_dir(out_dir) as out:
+        result, model, _ = run_check(
+            model_path, settings, demands, _progress(), requirements=not no_requirements,
+            project_ids=ids_files, length_unit=length_unit,
+        )  # fmt: skip
+        chosen = _units(units, model.length_unit)
+        written = _written(lambda: write_all(result, Path(model_path), out, chosen), out)
     for line in _warning_lines(result.warnings, result.names):
         click.echo(line, err=True)
     du = DisplayUnits(chosen)
@@ -313,7 +388,7 @@ def check(model_path, config, demands, no_requirements, ids_files, out_dir, unit
     help="Settings file (TOML) used for both revisions.",
 )
 @_output_options
-def diff(old_path, new_path, config, out_dir, units, method) -> None:
+def diff(old_path, new_path, config, length_unit, out_dir, units, method) -> None:
     """Compare two revisions: which beams lost bracing or support, or got worse.
 
     Exit code 1 when any beam was weakened, 0 when none was.
@@ -324,12 +399,15 @@ def diff(old_path, new_path, config, out_dir, units, method) -> None:
     from ifccheck.report.wording import change_reasons, diff_names
 
     settings = _settings(config, method)
-    old, old_model, _ = run_check(old_path, settings, strict_keys=False)
-    new, model, _ = run_check(new_path, settings, strict_keys=False)
-    _check_keys_over_revisions(settings, old_model, model)
-    chosen = _units(units, model.length_unit)
-    result = diff_results(old, new)
-    written = write_diff_all(result, Path(out_dir), chosen)
+    with _out_dir(out_dir) as out:
+        old, old_model, _ = run_check(
+            old_path, settings, strict_keys=False, length_unit=length_unit
+        )
+        new, model, _ = run_check(new_path, settings, strict_keys=False, length_unit=length_unit)
+        _check_keys_over_revisions(settings, old_model, model)
+        chosen = _units(units, model.length_unit)
+        result = diff_results(old, new)
+        written = _written(lambda: write_diff_all(result, out, chosen), out)
     weakened = result.weakened
     if old.beams and new.beams and not result.matched:
         click.echo(

@@ -51,6 +51,7 @@ from ifccheck.sections import (
     steel_from_yield,
 )
 from ifccheck.sections.classify import Slenderness, is_built_up
+from ifccheck.sections.grades import fy_problem
 from ifccheck.sections.shapes import (
     angle_from_dimensions,
     double_angle_from_dimensions,
@@ -70,13 +71,31 @@ from ifccheck.units import (
     unit_name,
 )
 
+# Longest shape name quoted back in a message (characters).
+NAME_SHOWN = 60
+# Lengths beyond these are typing or unit errors (common practice: no member is longer
+# than a kilometre, no section deeper or wider than 10 m).
+LB_MAX = 1000.0  # m
+DIMENSION_MAX = 10.0  # m
+# Cb outside 1.0 (uniform moment) to 3.0 is taken as a typing error (common practice;
+# AISC 360-05 capped Eq. F1-1 at 3.0, from memory).
+CB_RANGE = (1.0, 3.0)
+
+
+def shown(text: str, limit: int = NAME_SHOWN) -> str:
+    """Text as quoted back in a message: whitespace collapsed, cut to ``limit`` characters."""
+    one = " ".join(str(text).split())
+    return repr(one if len(one) <= limit else one[: limit - 1] + "…")
+
 
 def _quantity(text: str, dimension: str, what: str) -> tuple[float, str]:
-    """(value in SI base units, unit name as written) of a quantity with a unit."""
+    """(value in SI base units, unit name as written) of a finite quantity with a unit."""
     try:
         value = parse_quantity(text, dimension)
     except QuantityError as exc:
         raise UsageError(f"{what}: {exc}") from None
+    if not math.isfinite(value):
+        raise UsageError(f"{what}: {shown(text)} is not a finite {dimension}")
     return value, unit_name(text)
 
 
@@ -126,10 +145,11 @@ def _dimension_section(text: str) -> Section | None:
         if not kind.required <= len(nums) <= len(kind.keys):
             raise UsageError(
                 f"shape: {m.group('kind').upper()} takes {kind.required} to {len(kind.keys)} "
-                f"numbers ({' x '.join(kind.keys)}), got {len(nums)} in {text!r}"
+                f"numbers ({' x '.join(kind.keys)}), got {len(nums)} in {shown(text)}"
             )
         scale, _ = _quantity(f"1 {m.group('unit')}", "length", "shape")
         dims = {k: v * scale for k, v in zip(kind.keys, nums, strict=False)}
+        _check_sizes(dims, text)
     else:
         head = _HEAD.match(spec)
         if not head:
@@ -138,19 +158,35 @@ def _dimension_section(text: str) -> Section | None:
         rest = spec[head.end() :]
         pairs = _KEYWORD.findall(rest)
         if not pairs or _KEYWORD.sub("", rest).strip():
-            raise UsageError(f"shape: cannot read dimensions in {text!r} (e.g. 'I d=300mm ...')")
+            raise UsageError(
+                f"shape: cannot read dimensions in {shown(text)} (e.g. 'I d=300mm ...')"
+            )
         dims = {}
         for key, value in pairs:
             if key.lower() not in kind.keys:
-                raise UsageError(f"shape: {key!r} is not one of {', '.join(kind.keys)}")
+                raise UsageError(f"shape: {shown(key)} is not one of {', '.join(kind.keys)}")
             dims[key.lower()] = _quantity(value, "length", f"shape {key}")[0]
         missing = [k for k in kind.keys[: kind.required] if k not in dims]
         if missing:
-            raise UsageError(f"shape: missing {', '.join(missing)} in {text!r}")
+            raise UsageError(f"shape: missing {', '.join(missing)} in {shown(text)}")
+        _check_sizes(dims, text)
+    name = re.sub(r"\s+", " ", spec)
     try:
-        return kind.build(re.sub(r"\s+", " ", spec), **dims)
+        return kind.build(name, **dims)
     except ValueError as exc:
-        raise UsageError(f"shape: {exc}") from None
+        message = str(exc)
+        if message.startswith(name):  # the builders start with the name: cut it short
+            message = shown(name) + message[len(name) :]
+        raise UsageError(f"shape: {message}") from None
+
+
+def _check_sizes(dims: dict[str, float], text: str) -> None:
+    for key, value in dims.items():
+        if not math.isfinite(value) or abs(value) > DIMENSION_MAX:
+            raise UsageError(
+                f"shape: {key} = {value:g} m in {shown(text)} is more than {DIMENSION_MAX:g} m "
+                "(check the unit)"
+            )
 
 
 def _section(shape: str, fabrication: str | None) -> Section:
@@ -159,7 +195,7 @@ def _section(shape: str, fabrication: str | None) -> Section:
         section = _dimension_section(shape)
     if section is None:
         raise UsageError(
-            f"unknown shape {shape!r}: not a known designation and not a dimension spec "
+            f"unknown shape {shown(shape)}: not a known designation and not a dimension spec "
             "such as 'I:300x150x7.1x10.7x15mm' or 'RHS:200x100x8mm'"
         )
     if fabrication:
@@ -193,13 +229,17 @@ def _steel(section: Section, grade: str | None, fy_text: str | None) -> Steel:
         raise UsageError("give either --grade or --fy, not both")
     if fy_text:
         fy, _ = _quantity(fy_text, "stress", "--fy")
-        if fy <= 0.0:
-            raise UsageError("--fy must be positive")
-        return steel_from_yield(fy, f"Fy {fy_text.strip()}")
+        problem = fy_problem(fy)
+        if problem:
+            raise UsageError(f"--fy: {problem}")
+        return steel_from_yield(fy, f"Fy {' '.join(fy_text.split())}")
     if grade:
-        steel = steel_from_name(grade, max(section.tf, section.tw))
+        try:
+            steel = steel_from_name(grade, max(section.tf, section.tw))
+        except ValueError as exc:  # EN 10025-2 stops at a plate thickness
+            raise UsageError(f"--grade: {exc}") from None
         if steel is None:
-            raise UsageError(f"unknown grade {grade!r}; known: {', '.join(known_grades())}")
+            raise UsageError(f"unknown grade {shown(grade)}; known: {', '.join(known_grades())}")
         return steel
     return _default_steel(section)
 
@@ -244,7 +284,14 @@ def _family_text(section: Section) -> str:
 @click.option(
     "--lb", "lb_text", required=True, help="Unbraced length with unit: '10 ft', '3.05 m'."
 )
-@click.option("--cb", type=float, default=1.0, show_default=True, help="Moment gradient factor Cb.")
+@click.option(
+    "--cb", type=float, default=1.0, show_default=True,
+    help="Moment gradient factor Cb, 1.0 to 3.0 (AISC 360-16 Eq. F1-1).",
+)  # fmt: skip
+@click.option(
+    "--cb-unchecked", is_flag=True,
+    help="Accept a Cb outside 1.0 to 3.0 (a value from your own analysis).",
+)  # fmt: skip
 @click.option(
     "--grade",
     default=None,
@@ -281,6 +328,7 @@ def strength(
     shape: str,
     lb_text: str,
     cb: float,
+    cb_unchecked: bool,
     grade: str | None,
     fy_text: str | None,
     method: str,
@@ -308,16 +356,24 @@ def strength(
         raise UsageError(str(exc)) from None
     if not (math.isfinite(cb) and cb > 0.0):
         raise UsageError("--cb must be a positive number")
+    lo, hi = CB_RANGE
+    if not cb_unchecked and not lo <= cb <= hi:
+        raise UsageError(
+            f"--cb {cb:g} is outside {lo:.1f} to {hi:.1f} (common practice); give "
+            "--cb-unchecked to use it anyway"
+        )
     if points < 2:
         raise UsageError("--points must be at least 2")
     lb, lb_unit = _quantity(lb_text, "length", "--lb")
     if lb < 0.0:
         raise UsageError("--lb must not be negative")
+    if lb > LB_MAX:
+        raise UsageError(f"--lb {shown(lb_text)} is more than {LB_MAX:,.0f} m (check the unit)")
     section = _section(shape, fabrication)
     steel = _steel(section, grade, fy_text)
     reason = scope(section, steel, axis)
     if reason:
-        raise UsageError(f"{section.name}: {reason}")
+        raise UsageError(f"{shown(section.name)}: {reason}")
     top = compression == "top"
 
     r = flexure(section, steel, [lb], [cb], meth, axis=axis, compression_top=top)

@@ -24,12 +24,18 @@ from dataclasses import dataclass, field, replace
 import ifcopenshell
 import ifcopenshell.util.element as uelement
 import numpy as np
+import shapely
 from shapely import affinity
+from shapely.geometry import Polygon
 
+from ifccheck.errors import ElementError
+from ifccheck.ifc.geometry import real
+from ifccheck.ifc.geometry import text_value as _text
 from ifccheck.model import MaterialCategory, Section, ShapeFamily, Steel
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.sections import grade_problem, material_category, steel_from_name, steel_from_yield
-from ifccheck.sections.dimensions import Shape, section_of, shape_of_section
+from ifccheck.sections.dimensions import Shape, plausible, section_of, shape_of_section
+from ifccheck.sections.grades import fy_problem
 from ifccheck.sections.names import find_shape
 from ifccheck.sections.outline import Recognised, recognise
 from ifccheck.sections.table import SOURCE as AISC_SOURCE
@@ -99,9 +105,9 @@ def _profile_key(profile: Entity, scale: float) -> tuple | None:
             return None
         if outline is None:
             return None
-        rings = [outline.polygon.exterior, *outline.polygon.interiors]
-        coords = tuple(tuple(np.round(np.asarray(r.coords), 9).ravel()) for r in rings)
-        return (scale, profile.is_a(), profile.ProfileName or "", coords)
+        rings = shapely.get_rings(outline.polygon)
+        coords = tuple(tuple(np.round(shapely.get_coordinates(r), 9).ravel()) for r in rings)
+        return (scale, profile.is_a(), _text(profile.ProfileName), coords)
     return None
 
 
@@ -124,14 +130,20 @@ def _angle_scale(entity: Entity) -> float:
     import ifcopenshell.util.unit as uunit
 
     try:
-        return float(uunit.calculate_unit_scale(entity.file, "PLANEANGLEUNIT"))
+        scale = float(uunit.calculate_unit_scale(entity.file, "PLANEANGLEUNIT"))
     except Exception:  # no unit assignment: radians
         return 1.0
+    if not (math.isfinite(scale) and scale > 0.0):
+        raise ElementError(f"the plane angle unit has a conversion factor of {scale:g}")
+    return scale
 
 
 def _get(profile: Entity, attr: str, scale: float) -> float:
     value = getattr(profile, attr, None)
-    return float(value) * scale if value is not None else 0.0
+    if value is None:
+        return 0.0
+    label = getattr(profile, "ProfileName", None) or f"#{profile.id()}"
+    return real(value, f"{attr} of {profile.is_a()} '{label}'") * scale
 
 
 def _parametric_shape(profile: Entity, name: str, s: float) -> Shape | ResolvedProfile | None:
@@ -142,7 +154,9 @@ def _parametric_shape(profile: Entity, name: str, s: float) -> Shape | ResolvedP
 
     def slope(attr: str) -> float:
         raw = getattr(profile, attr, None)
-        return float(raw) * _angle_scale(profile) if raw else 0.0
+        if not raw:
+            return 0.0
+        return real(raw, f"{attr} of {kind} '{label}'") * _angle_scale(profile)
 
     if profile.is_a("IfcAsymmetricIShapeProfileDef"):
         bb, tb = _get(profile, "BottomFlangeWidth", s), _get(profile, "BottomFlangeThickness", s)
@@ -209,7 +223,7 @@ def _parametric_shape(profile: Entity, name: str, s: float) -> Shape | ResolvedP
 
 
 def _section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
-    name = (getattr(profile, "ProfileName", None) or "").strip()
+    name = _text(getattr(profile, "ProfileName", None)).strip()
     if profile.is_a("IfcDerivedProfileDef"):
         parent = section_from_profile(profile.ParentProfile, scale)
         parent.notes.append(
@@ -240,7 +254,16 @@ def _section_from_profile(profile: Entity, scale: float) -> ResolvedProfile:
 
 
 def _from_shape(shape: Shape, name: str) -> ResolvedProfile:
-    """A parametric shape, preferring the tabulated section its name designates."""
+    """A parametric shape, preferring the tabulated section its name designates.
+
+    Dimensions no section can have (zero or negative, flanges that leave no web, a web
+    wider than its flange) make the element not checked, whatever its name says."""
+    why = plausible(shape)
+    if why is not None:
+        detail = f"profile {shape.describe()}: {why}"
+        return ResolvedProfile(
+            name or shape.name, None, "", 0.0, 0.0, Reason.of(NotChecked.BAD_ELEMENT, detail=detail)
+        )
     section, reason = section_of(shape)
     named = find_shape(name) if name else None
     if named is not None and named.section is not None and named.family is shape.family:
@@ -283,16 +306,24 @@ def _from_outline(
     label = name or kind
     try:
         outline = profile_outline(profile)
+    except ElementError as exc:  # a curve with bad points or no area
+        outline = None
+        why = str(exc)
     except Exception as exc:  # a curve the reader does not know
         outline = None
         why = f"its curve cannot be read ({type(exc).__name__})"
     else:
         why = "its curve cannot be read"
-    if outline is not None:
+    if outline is not None and not isinstance(outline.polygon, Polygon):
+        why = f"{outline.repaired} into separate parts"
+    elif outline is not None:
         poly = affinity.scale(outline.polygon, scale, scale, origin=(0.0, 0.0))
         found = recognise(poly, label)
         if isinstance(found, Recognised):
-            return _recognised(found, label, poly.area, depth, width)
+            resolved = _recognised(found, label, poly.area, depth, width)
+            if outline.repaired:
+                resolved.notes.append(outline.repaired)
+            return resolved
         why = found
     detail = f"{label}: {why}" + (f"; the name '{name}' designates no shape" if name else "")
     return ResolvedProfile(
@@ -376,16 +407,23 @@ def material_names(material: Entity | None) -> list[Entity]:
     return []
 
 
-def yield_stress(ifc: ifcopenshell.file, material: Entity, pressure_scale: float) -> float | None:
-    """YieldStress of a material in Pa (IFC4 material properties, IFC2X3 mechanical props)."""
+def yield_stress(
+    ifc: ifcopenshell.file, material: Entity, pressure_scale: float | None
+) -> float | None:
+    """YieldStress of a material in Pa (IFC4 material properties, IFC2X3 mechanical props);
+    None when it gives none or the file's pressure unit is unusable (``pressure_scale``
+    None). ElementError for a value that is not a number."""
+    if pressure_scale is None:
+        return None
+    what = f"YieldStress of material '{material.Name}'"
     for props in getattr(material, "HasProperties", None) or ():
         for prop in getattr(props, "Properties", None) or ():
             if prop.Name == "YieldStress" and getattr(prop, "NominalValue", None) is not None:
-                return float(prop.NominalValue.wrappedValue) * pressure_scale
+                return real(prop.NominalValue.wrappedValue, what) * pressure_scale
     if ifc.schema == "IFC2X3":
         for props in ifc.by_type("IfcMechanicalSteelMaterialProperties"):
-            if props.Material == material and props.YieldStress:
-                return float(props.YieldStress) * pressure_scale
+            if props.Material == material and props.YieldStress is not None:
+                return real(props.YieldStress, what) * pressure_scale
     return None
 
 
@@ -395,7 +433,7 @@ class GradeContext:
 
     default: Steel | None = None  # steel.default_grade when the settings set it
     materials: Mapping[str, str] = field(default_factory=dict)  # [steel.materials]
-    pressure_scale: float = 1.0
+    pressure_scale: float | None = 1.0  # None: the file's pressure unit is unusable
 
     def mapped(self, name: str) -> str | None:
         key = " ".join(name.split()).casefold()
@@ -443,6 +481,17 @@ def _analysis_materials(element: Entity) -> list[Entity]:
     return found
 
 
+class _BeyondTable(Exception):
+    """A grade whose yield strength by thickness stops short of the section's plates."""
+
+
+def _steel_named(text: str, thickest: float | None, *, round_hss: bool = False) -> Steel | None:
+    try:
+        return steel_from_name(text, thickest, round_hss=round_hss)
+    except ValueError as exc:  # EN 10025-2: a plate thicker than the grade's table
+        raise _BeyondTable(str(exc)) from None
+
+
 def resolve_material(
     ifc: ifcopenshell.file,
     element: Entity,
@@ -455,8 +504,29 @@ def resolve_material(
 
     ``cache`` (one per file) reuses the material-only answer for members sharing
     materials; the names and properties of each element are read only when the
-    materials give no grade.
+    materials give no grade. A grade whose yield strength is not tabulated for the
+    section's thickness leaves the element not checked (section_out_of_scope).
     """
+    try:
+        return _resolve_material(ifc, element, shape, context, profile_name, cache)
+    except _BeyondTable as exc:
+        select = uelement.get_material(element, should_skip_usage=False, should_inherit=True)
+        name = " / ".join(_text(m.Name) for m in material_names(select) if _text(m.Name))
+        name = name or "(no material)"
+        return ResolvedMaterial(
+            name, MaterialCategory.STEEL, None, "",
+            reason=Reason.of(NotChecked.SECTION_OUT_OF_SCOPE, detail=str(exc)),
+        )  # fmt: skip
+
+
+def _resolve_material(
+    ifc: ifcopenshell.file,
+    element: Entity,
+    shape: Shape | None,
+    context: GradeContext,
+    profile_name: str = "",
+    cache: dict | None = None,
+) -> ResolvedMaterial:
     select = uelement.get_material(element, should_skip_usage=False, should_inherit=True)
     mats = material_names(select)
     thickest = shape.thickest if shape is not None else None
@@ -468,12 +538,14 @@ def resolve_material(
         if cache is not None:
             cache[key] = found
     resolved = replace(found, notes=list(found.notes))
+    if resolved.reason is not None:  # the material says something no steel can be
+        return resolved
     el_type = uelement.get_type(element)
     texts = [
-        ("type name", getattr(el_type, "Name", None)),
+        ("type name", _text(getattr(el_type, "Name", None))),
         ("profile name", profile_name),
-        ("element name", element.Name),
-        ("element type", getattr(element, "ObjectType", None)),
+        ("element name", _text(element.Name)),
+        ("element type", _text(getattr(element, "ObjectType", None))),
     ]
     if resolved.steel is not None:
         _note_disagreement(resolved, texts, thickest, round_hss)
@@ -487,14 +559,14 @@ def resolve_material(
     candidates = [*texts, *(("type property", t) for t in _property_texts(el_type))]
     candidates += [("element property", t) for t in _property_texts(element)]
     for source, text in candidates:
-        steel = steel_from_name(text or "", thickest, round_hss=round_hss)
+        steel = _steel_named(text or "", thickest, round_hss=round_hss)
         if steel is not None:
             return _found_elsewhere(resolved, steel, source, text or "")
     for mat in _analysis_materials(element):
-        steel = steel_from_name(mat.Name or "", thickest, round_hss=round_hss)
+        steel = _steel_named(_text(mat.Name), thickest, round_hss=round_hss)
         if steel is not None:
             source = "analysis member material"
-            return _found_elsewhere(resolved, steel, source, mat.Name or "")
+            return _found_elsewhere(resolved, steel, source, _text(mat.Name))
     return _no_grade(resolved, context, [t for _, t in texts if t])
 
 
@@ -516,7 +588,10 @@ def _note_disagreement(
 ) -> None:
     assert resolved.steel is not None
     for source, text in texts:
-        other = steel_from_name(text or "", thickest, round_hss=round_hss)
+        try:
+            other = _steel_named(text or "", thickest, round_hss=round_hss)
+        except _BeyondTable:  # a grade named elsewhere that cannot apply: nothing to note
+            continue
         if other is not None and other.grade != resolved.steel.grade:
             resolved.notes.append(
                 f"the {source} '{text}' names {other.grade}; the material's "
@@ -557,30 +632,40 @@ def _from_materials(
     round_hss: bool,
     context: GradeContext,
 ) -> ResolvedMaterial:
-    names = [m.Name or "" for m in mats]
+    names = [_text(m.Name) for m in mats]
     label = " / ".join(n for n in names if n) or "(no material)"
     for mat in mats:
-        mapped = context.mapped(mat.Name or "")
+        mapped = context.mapped(_text(mat.Name))
         if mapped is not None:
-            steel = steel_from_name(mapped, thickest, round_hss=round_hss)
+            steel = _steel_named(mapped, thickest, round_hss=round_hss)
             if steel is not None:
                 note = f"grade {steel.grade} for material '{mat.Name}' from [steel.materials]"
-                return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "settings", [note])
+                return ResolvedMaterial(
+                    _text(mat.Name), MaterialCategory.STEEL, steel, "settings", [note]
+                )
     for mat in mats:
-        for text in (mat.Name, getattr(mat, "Description", None)):
-            steel = steel_from_name(text or "", thickest, round_hss=round_hss)
+        for text in (_text(mat.Name), _text(getattr(mat, "Description", None))):
+            steel = _steel_named(text or "", thickest, round_hss=round_hss)
             if steel is not None:
-                return ResolvedMaterial(mat.Name, MaterialCategory.STEEL, steel, "material name")
+                return ResolvedMaterial(
+                    _text(mat.Name), MaterialCategory.STEEL, steel, "material name"
+                )
     for mat in mats:
         fy = yield_stress(ifc, mat, context.pressure_scale)
-        if fy is not None:
-            steel = steel_from_yield(fy, mat.Name or "steel")
+        if fy is not None and fy_problem(fy):
+            detail = f"material '{mat.Name}': {fy_problem(fy)}"
             return ResolvedMaterial(
-                mat.Name or "", MaterialCategory.STEEL, steel, "material property"
+                _text(mat.Name), MaterialCategory.STEEL, None, "material property",
+                reason=Reason.of(NotChecked.BAD_ELEMENT, detail=detail),
+            )  # fmt: skip
+        if fy is not None:
+            steel = steel_from_yield(fy, _text(mat.Name) or "steel")
+            return ResolvedMaterial(
+                _text(mat.Name), MaterialCategory.STEEL, steel, "material property"
             )
     category = MaterialCategory.UNKNOWN
     for mat in mats:
-        text = " ".join(filter(None, [mat.Name, getattr(mat, "Category", None)]))
+        text = " ".join(filter(None, [_text(mat.Name), _text(getattr(mat, "Category", None))]))
         found = material_category(text)
         if found in (MaterialCategory.CONCRETE, MaterialCategory.TIMBER):
             return ResolvedMaterial(label, found, None, "material name")

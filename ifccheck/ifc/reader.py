@@ -9,12 +9,18 @@ the tessellated body (counted as a geometry fallback).
 
 from __future__ import annotations
 
+import json
 import logging
+import math
+import os
 import re
 import tempfile
+import threading
 import zipfile
-from collections.abc import Mapping
+from collections import Counter
+from collections.abc import Callable, Mapping
 from pathlib import Path
+from typing import TypeVar
 
 import ifcopenshell
 import ifcopenshell.util.element as uelement
@@ -23,7 +29,7 @@ import numpy as np
 from shapely.geometry import MultiPolygon, Polygon
 from shapely.ops import unary_union
 
-from ifccheck.errors import ModelError
+from ifccheck.errors import ElementError, ModelError
 from ifccheck.ifc import geometry as geo
 from ifccheck.ifc.profiles import (
     GradeContext,
@@ -45,9 +51,45 @@ from ifccheck.model import (
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.sections import default_steel
 from ifccheck.sections.dimensions import shape_of_section
+from ifccheck.units import MODEL_LENGTH_UNITS, model_length_unit
 
 Entity = ifcopenshell.entity_instance
 log = logging.getLogger(__name__)
+_text = geo.text_value
+
+# Members farther than this from the median member position are not used (m): a
+# georeferenced model puts its origin far away, but its members lie close together.
+FAR_LIMIT = 100_000.0
+PLAN_GRID = 1e-9  # m: plan outlines are snapped to it (see _scale_poly)
+# A slab thinner than this is taken as having no thickness (m).
+MIN_SLAB_THICKNESS = 1e-6
+DUPLICATES_SHOWN = 10  # shared GlobalIds listed by name in the warning
+
+T = TypeVar("T")
+
+
+def read_guarded(read: Callable[[Entity], T], element: Entity) -> T:
+    """Read one element; anything in its data the reader cannot use is an ElementError.
+
+    Coordinates too large to add overflow to inf without a numpy warning: the element is
+    then refused as not finite where its position is checked. An entity of the wrong type
+    where a reference belongs (a point for a placement, say) fails as whatever Python
+    error its use raises: that too makes the element unreadable, never the run, with the
+    error named (IFCCHECK_DEBUG=1 raises it, to tell a reader bug from bad data)."""
+    try:
+        with np.errstate(over="ignore", invalid="ignore"):
+            return read(element)
+    except ElementError:
+        raise
+    except Exception as exc:
+        if os.environ.get("IFCCHECK_DEBUG"):
+            raise
+        text = " ".join(str(exc).split())[:120]
+        raise ElementError(
+            f"its data is not what IFC allows there ({type(exc).__name__}: {text}); if the "
+            "file is valid IFC, this is an ifccheck bug"
+        ) from None
+
 
 LINEAR_CLASSES = ("IfcBeam", "IfcColumn", "IfcMember")
 SLAB_CLASSES = ("IfcSlab", "IfcPlate")
@@ -102,12 +144,77 @@ def _known_schemas() -> set[str]:
     return {s.upper() for s in wrapper.schema_names()}
 
 
+# The IFC library's log is one per process: parses in threads take turns, so that each
+# reads the messages of its own file.
+_PARSE_LOCK = threading.Lock()
+
+
 def _parse(p: Path, file_name: str) -> ifcopenshell.file:
+    with _PARSE_LOCK:
+        ifcopenshell.get_log()  # drain what earlier calls left in the library's log
+        try:
+            f = ifcopenshell.open(file_name)
+        except Exception as exc:  # ifcopenshell raises several error types
+            text = str(exc).strip()
+            detail = text.splitlines()[0] if text else type(exc).__name__
+            raise ModelError(f"{p}: cannot parse IFC file: {detail}") from None
+        _check_parse_log(p)
+    _check_complete(p, f)
+    return f
+
+
+# "[error] [SYN123] [2026-01-01 00:00:00] message" (ifcopenshell's text log format)
+_LOG_ERROR = re.compile(r"^\[error\](?:\s*\[[^\]]*\])*\s*(?P<message>.*)$")
+
+
+def parse_errors(log: str) -> list[str]:
+    """The error messages in an ifcopenshell log, text or JSON format (warnings left out)."""
+    out = []
+    for line in log.splitlines():
+        line = line.strip()
+        if line.startswith("{"):
+            try:
+                entry = json.loads(line)
+            except ValueError:  # not a JSON line after all
+                entry = {}
+            if isinstance(entry, dict) and entry.get("level") == "error":
+                out.append(str(entry.get("message", "")).strip())
+            continue
+        m = _LOG_ERROR.match(line)
+        if m:
+            out.append(m.group("message").strip())
+    return out
+
+
+def _check_parse_log(p: Path) -> None:
+    """A file the parser had to skip or drop parts of is refused (ModelError).
+
+    The IFC library reads on past an entity it cannot parse (a file cut mid-entity, a
+    name not in the schema, text where a number belongs in a list) and leaves a
+    reference to a missing entity empty; checking what remains would pass a model with
+    members lost, so the file is refused with the parser's first message."""
+    errors = parse_errors(ifcopenshell.get_log())
+    if not errors:
+        return
+    first = errors[0]
+    kind = "incomplete" if "reference" in first.lower() else "damaged"
+    more = f" (and {len(errors) - 1} more)" if len(errors) > 1 else ""
+    raise ModelError(f"{p}: {kind} IFC file, the parser reports: {first}{more}")
+
+
+def _check_complete(p: Path, f: ifcopenshell.file) -> None:
+    """A file with no entities or no IfcProject is not a model (ModelError)."""
     try:
-        return ifcopenshell.open(file_name)
-    except Exception as exc:  # ifcopenshell raises several error types
-        detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
-        raise ModelError(f"{p}: cannot parse IFC file: {detail}") from None
+        projects = len(f.by_type("IfcProject"))
+    except RuntimeError:  # a schema without IfcProject
+        projects = 0
+    if not projects:
+        what = (
+            "no entities (empty DATA section)"
+            if len(f.by_type("IfcRoot")) == 0
+            else ("no IfcProject")
+        )
+        raise ModelError(f"{p}: not a complete IFC model: {what}")
 
 
 def _open_as(
@@ -119,14 +226,19 @@ def _open_as(
     with tempfile.TemporaryDirectory(prefix="ifccheck-") as tmp:
         copy = Path(tmp) / p.name
         copy.write_bytes(patched)
-        try:
-            f = ifcopenshell.open(str(copy))
-        except Exception as exc:  # an entity IFC4 does not have
-            detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
-            raise ModelError(
-                f"{p}: schema {declared} is not known to the IFC library, and reading it as "
-                f"{target} failed: {detail}"
-            ) from None
+        with _PARSE_LOCK:
+            ifcopenshell.get_log()  # drain what earlier calls left in the library's log
+            try:
+                f = ifcopenshell.open(str(copy))
+            except Exception as exc:  # an entity IFC4 does not have
+                text = str(exc).strip()
+                detail = text.splitlines()[0] if text else type(exc).__name__
+                raise ModelError(
+                    f"{p}: schema {declared} is not known to the IFC library, and reading it "
+                    f"as {target} failed: {detail}"
+                ) from None
+            _check_parse_log(p)
+        _check_complete(p, f)
     if warnings is not None:
         warnings.append(
             f"schema {declared} is not known to the IFC library: read as {target}, whose "
@@ -136,36 +248,91 @@ def _open_as(
 
 
 def length_unit_name(ifc: ifcopenshell.file) -> str:
-    """Name of the file's length unit: 'metre', 'millimetre', 'foot', 'inch', ..."""
+    """Name of the file's length unit: 'metre', 'millimetre', 'foot', 'inch', ...
+    ('metre', the SI default, for a file that assigns none)."""
     unit = uunit.get_project_unit(ifc, "LENGTHUNIT")
     if unit is None:
         return "metre"
     if unit.is_a("IfcSIUnit"):
         prefix = (unit.Prefix or "").lower()
         return f"{prefix}metre"
-    name = (unit.Name or "").strip().lower()
+    name = _text(unit.Name).strip().lower()
     aliases = {"feet": "foot", "ft": "foot", "inches": "inch", "in": "inch", "yards": "yard"}
     return aliases.get(name, name or "unknown")
+
+
+def unit_scale(ifc: ifcopenshell.file, unit_type: str) -> tuple[float | None, str]:
+    """(scale to SI, "") of the project's unit of a type: (None, "") when the file assigns
+    none, (None, why) when the one it assigns has no usable conversion."""
+    try:
+        unit = uunit.get_project_unit(ifc, unit_type)
+    except Exception:  # a unit assignment the library cannot walk
+        return None, f"the {unit_type} assignment cannot be read"
+    if unit is None:
+        return None, ""
+    name = (_text(getattr(unit, "Name", None)) or unit.is_a()) if hasattr(unit, "is_a") else "?"
+    if unit.is_a("IfcContextDependentUnit"):
+        return None, f"{unit_type} {name!s} is a context-dependent unit with no conversion to SI"
+    try:
+        scale = float(uunit.calculate_unit_scale(ifc, unit_type))
+    except Exception:  # a conversion factor that is not a number
+        return None, f"the conversion factor of {unit_type} {name!s} is not a number"
+    if not (math.isfinite(scale) and scale > 0.0):
+        return None, f"{unit_type} {name!s} has a conversion factor of {scale:g} (not positive)"
+    return scale, ""
+
+
+def model_length_scale(
+    ifc: ifcopenshell.file, path: Path, length_unit: str | None, warnings: list[str]
+) -> tuple[float, str]:
+    """(metres per file unit, unit name) of a model.
+
+    A model must say its length unit (lengths are never guessed from magnitudes):
+    one that assigns none, or one with no usable conversion, is a ModelError unless
+    ``length_unit`` (``--length-unit``) is given, which is then used with a warning.
+    ``length_unit`` is not used when the model assigns a usable unit of its own."""
+    scale, problem = unit_scale(ifc, "LENGTHUNIT")
+    if scale is not None:
+        name = length_unit_name(ifc)
+        if length_unit is not None and model_length_unit(length_unit) != name:
+            warnings.append(
+                f"--length-unit {length_unit} not used: the model assigns its own length unit "
+                f"({name})"
+            )
+        return scale, name
+    what = problem or "the model assigns no length unit (IfcUnitAssignment)"
+    if length_unit is None:
+        raise ModelError(
+            f"{path}: {what}; lengths are never guessed: give --length-unit (e.g. mm or ft)"
+        )
+    name = model_length_unit(length_unit)
+    warnings.append(f"{what}: lengths taken in {name} (--length-unit)")
+    return MODEL_LENGTH_UNITS[name], name
 
 
 def read_model(
     path: str | Path,
     default_grade: str | None = None,
     materials: Mapping[str, str] | None = None,
+    length_unit: str | None = None,
 ) -> Model:
     """Read a model file. Raises ModelError for a file that is not a usable model.
 
     ``default_grade`` is the grade members are checked on when the model names
     none; None (the default) leaves such members not checked. ``materials`` maps
-    material names to grades (the settings' ``[steel.materials]``).
+    material names to grades (the settings' ``[steel.materials]``). ``length_unit``
+    is the unit a model that assigns none is read in (see :func:`model_length_scale`).
+    An element that cannot be read is listed in ``Model.unreadable`` (beams, columns,
+    members) or skipped with a warning (slabs, walls, openings); never the run.
     """
     warnings: list[str] = []
     ifc = open_ifc(path, warnings)
+    scale, unit_name = model_length_scale(ifc, Path(path), length_unit, warnings)
     default = default_steel(default_grade) if default_grade else None
-    reader = _Reader(ifc, Path(path).name, default, materials or {})
+    reader = _Reader(ifc, Path(path).name, default, materials or {}, (scale, unit_name))
     model = reader.read()
-    model.warnings[:0] = [("", w) for w in warnings]
-    if not any(m.role in (MemberRole.BEAM,) for m in model.members):
+    model.warnings[:0] = [("", w) for w in warnings + reader.unit_warnings]
+    if not any(m.role is MemberRole.BEAM for m in [*model.members, *model.unreadable]):
         raise ModelError(f"{Path(path)}: {_no_beams(ifc)}")
     return model
 
@@ -205,43 +372,194 @@ class _Reader:
         name: str,
         default: Steel | None,
         materials: Mapping[str, str],
+        length: tuple[float, str],
     ) -> None:
         self.ifc = ifc
         self.name = name
-        self.scale = float(uunit.calculate_unit_scale(ifc, "LENGTHUNIT"))
-        try:
-            self.pressure_scale = float(uunit.calculate_unit_scale(ifc, "PRESSUREUNIT"))
-        except Exception:  # no pressure unit assigned: SI pascal
-            self.pressure_scale = 1.0
+        self.scale = length[0]
+        self.unit_warnings: list[str] = []
+        pressure, problem = unit_scale(ifc, "PRESSUREUNIT")
+        if problem:  # yield stresses given as properties cannot be read
+            self.unit_warnings.append(f"{problem}: yield stresses given as properties not read")
+        # no pressure unit assigned: SI pascal; an unusable one: None
+        self.pressure_scale = pressure if pressure is not None else (None if problem else 1.0)
         self.grades = GradeContext(default, dict(materials), self.pressure_scale)
         self.model = Model(
             source=name,
             schema=ifc.schema_identifier if hasattr(ifc, "schema_identifier") else ifc.schema,
-            length_unit=length_unit_name(ifc),
+            length_unit=length[1],
             length_scale=self.scale,
         )
         self.placements = geo.PlacementCache()
         self._materials: dict = {}
+        self.keys: dict[int, str] = {}
+        self.median: np.ndarray | None = None  # median member position (m), once read
 
     # --- entry ------------------------------------------------------------------
     def read(self) -> Model:
         self._read_storeys()
         self.model.material_names = sorted(
-            {m.Name for m in self.ifc.by_type("IfcMaterial") if m.Name}
+            {m.Name for m in self.ifc.by_type("IfcMaterial") if isinstance(m.Name, str) and m.Name}
         )
+        self.keys = element_keys(self.ifc)
+        self._note_duplicates()
         for element in self._elements(LINEAR_CLASSES):
-            member = self._member(element)
+            try:
+                member = read_guarded(self._member, element)
+            except ElementError as exc:
+                self._unreadable(element, str(exc))
+                continue
             if member is not None:
                 self.model.members.append(member)
+        self._far_members()
         for element in self._elements(SLAB_CLASSES):
-            slab = self._slab(element)
+            try:
+                slab = read_guarded(self._slab, element)
+            except ElementError as exc:
+                self._skipped(element, "slab" if element.is_a("IfcSlab") else "plate", exc)
+                continue
             if slab is not None:
                 self.model.slabs.append(slab)
         for element in self._elements(WALL_CLASSES):
-            wall = self._wall(element)
+            try:
+                wall = read_guarded(self._wall, element)
+            except ElementError as exc:
+                self._skipped(element, "wall", exc)
+                continue
             if wall is not None:
                 self.model.walls.append(wall)
+        self._far_areas()
         return self.model
+
+    def key(self, element: Entity) -> str:
+        """The GUID an element is listed under (suffixed when the GUID is shared)."""
+        return self.keys.get(element.id(), element.GlobalId)
+
+    def _note_duplicates(self) -> None:
+        if not any(":" in k for k in self.keys.values()):  # no GlobalId is shared
+            return
+        elements = self._elements(LINEAR_CLASSES + SLAB_CLASSES + WALL_CLASSES)
+        counts = Counter(e.GlobalId for e in elements if isinstance(e.GlobalId, str))
+        groups: dict[str, list[str]] = {}
+        names: dict[str, str] = {}
+        for element in elements:
+            if counts[element.GlobalId] > 1:
+                key = self.key(element)
+                groups.setdefault(element.GlobalId, []).append(key)
+                names[key] = _text(element.Name) or element.is_a()
+        if not groups:
+            return
+        self.model.duplicate_guids = groups
+        shown = [
+            f"{g} ({', '.join(f'{names[k]} as {k}' for k in keys)})"
+            for g, keys in list(groups.items())[:DUPLICATES_SHOWN]
+        ]
+        more = len(groups) - len(shown)
+        self.model.warnings.append(
+            (
+                "",
+                f"{len(groups)} GlobalId{'s are' if len(groups) != 1 else ' is'} shared by "
+                f"several elements (IFC requires them unique): {'; '.join(shown)}"
+                + (f"; and {more} more" if more > 0 else "")
+                + "; results list each element under its GlobalId with ':2', ':3'... added "
+                "after the first",
+            )
+        )
+
+    def _unreadable(self, element: Entity, detail: str) -> None:
+        """A beam, column or member that cannot be read: listed, out of the framing."""
+        name = _text(element.Name)
+        try:
+            predefined = _text(uelement.get_predefined_type(element)).upper()
+            role = _role(element, predefined)
+            storey = self._storey(element)
+        except Exception:  # relationships as unreadable as the element: class alone
+            predefined, storey = "", ""
+            role = _role_of_class(element)
+        nan = (math.nan, math.nan, math.nan)
+        reason = Reason.of(NotChecked.BAD_ELEMENT, detail=detail)
+        self.model.unreadable.append(
+            Member(
+                guid=self.key(element),
+                ifc_class=element.is_a(),
+                predefined_type=predefined,
+                name=name,
+                storey=storey,
+                role=role,
+                start=nan,
+                end=nan,
+                web_up=(0.0, 0.0, 1.0),
+                profile_name="",
+                section=None,
+                steel=None,
+                material_name="",
+                material=MaterialCategory.UNKNOWN,
+                axis_source="",
+                profile_source="",
+                grade_source="",
+                notes=[f"position unknown: {detail}"],
+                unresolved=reason,
+            )
+        )
+        self.model.warnings.append(
+            (self.key(element), f"{element.is_a()} cannot be read and is left out of the "
+                                f"framing: {detail}")
+        )  # fmt: skip
+
+    def _skipped(self, element: Entity, what: str, exc: Exception) -> None:
+        label = f"{what} '{_text(element.Name)}'" if _text(element.Name) else what
+        self.model.warnings.append((self.key(element), f"{label} ignored: {exc}"))
+
+    def _far_members(self) -> None:
+        """Members far from the rest (beyond FAR_LIMIT of the median member position) are
+        taken out of the framing and listed as unreadable: their coordinates are absurd."""
+        members = self.model.members
+        if len(members) < 2:
+            return
+        starts = np.array([m.start for m in members], dtype=float)
+        ends = np.array([m.end for m in members], dtype=float)
+        self.median = np.median((starts + ends) / 2.0, axis=0)
+        distance = np.maximum(_distance(starts, self.median), _distance(ends, self.median))
+        keep: list[Member] = []
+        for m, far in zip(members, distance.tolist(), strict=True):
+            if far <= FAR_LIMIT:
+                keep.append(m)
+                continue
+            detail = (
+                f"it lies {far / 1000.0:,.0f} km from the median position of the model's "
+                f"members (more than {FAR_LIMIT / 1000.0:.0f} km: absurd coordinates)"
+            )
+            m.notes.insert(0, f"position not used: {detail}")
+            m.start = m.end = (math.nan, math.nan, math.nan)
+            m.unresolved = Reason.of(NotChecked.BAD_ELEMENT, detail=detail)
+            self.model.unreadable.append(m)
+            self.model.warnings.append((m.guid, f"{m.ifc_class} left out of the framing: {detail}"))
+        self.model.members = keep
+
+    def _far_areas(self) -> None:
+        """Slabs and walls far from the members are ignored with a warning."""
+        median = self.median
+        if median is None:
+            return
+        places: list[tuple[str, list[Slab] | list[Wall]]] = [
+            ("slab", self.model.slabs),
+            ("wall", self.model.walls),
+        ]
+        for kind, items in places:
+            keep: list = []
+            for item in items:
+                x0, y0, x1, y1 = item.footprint.bounds
+                corners = np.array([[x0, y0], [x1, y1], [x0, y1], [x1, y0]])
+                far = float(np.max(_distance(corners, median[:2])))
+                if far <= FAR_LIMIT:
+                    keep.append(item)
+                    continue
+                label = f"{kind} '{item.name}'" if item.name else kind
+                self.model.warnings.append(
+                    (item.guid, f"{label} ignored: it lies {far / 1000.0:,.0f} km from the "
+                                "median position of the model's members (absurd coordinates)")
+                )  # fmt: skip
+            items[:] = keep
 
     def _elements(self, classes: tuple[str, ...]) -> list[Entity]:
         seen: dict[int, Entity] = {}
@@ -256,11 +574,29 @@ class _Reader:
 
     def _read_storeys(self) -> None:
         for st in self.ifc.by_type("IfcBuildingStorey"):
-            z = self.placements.of(st)[2, 3] * self.scale
-            if st.ObjectPlacement is None and st.Elevation is not None:
-                z = float(st.Elevation) * self.scale
-            self.model.storeys.append(Storey(st.GlobalId, st.Name or st.GlobalId, float(z)))
+            try:
+                read_guarded(self._read_storey, st)
+            except ElementError as exc:
+                name = _text(st.Name)
+                self.model.warnings.append((st.GlobalId, f"storey '{name}' ignored: {exc}"))
         self.model.storeys.sort(key=lambda s: s.elevation)
+
+    def _read_storey(self, st: Entity) -> None:
+        """One storey: its elevation from its placement, else its Elevation attribute."""
+        name = _text(st.Name) or _text(st.GlobalId) or f"#{st.id()}"
+        elevation = st.Elevation if isinstance(st.Elevation, int | float) else None
+        try:
+            z = self.placements.of(st)[2, 3] * self.scale
+        except ElementError as exc:
+            if elevation is None or not math.isfinite(elevation):
+                raise
+            self.model.warnings.append(
+                (st.GlobalId, f"storey '{name}': {exc}; its Elevation attribute used")
+            )
+            z = float(elevation) * self.scale
+        if st.ObjectPlacement is None and elevation is not None and math.isfinite(elevation):
+            z = float(elevation) * self.scale
+        self.model.storeys.append(Storey(st.GlobalId, name, float(z)))
 
     def _storey(self, element: Entity) -> str:
         """The storey an element is in, through the assemblies it is a part of."""
@@ -277,7 +613,7 @@ class _Reader:
             container = uelement.get_aggregate(container)
         if container is None:
             return ""
-        return container.Name or container.GlobalId
+        return _text(container.Name) or _text(container.GlobalId)
 
     # --- members ----------------------------------------------------------------
     def _member(self, element: Entity) -> Member | None:
@@ -291,11 +627,14 @@ class _Reader:
         notes += profile.notes
         line = self._centroid_line(element, profile, notes, extrusion, axis)
         if line is None:
-            self.model.warnings.append(
-                (element.GlobalId, f"{element.is_a()} '{element.Name}' has no readable geometry")
-            )
-            return None
+            raise ElementError("it has no readable geometry (no axis, extrusion or body)")
         start, end, web_up, axis_source = line
+        if not (np.isfinite(start).all() and np.isfinite(end).all()):
+            raise ElementError("its position is not a finite point (coordinates overflow)")
+        if not np.linalg.norm(np.subtract(end, start)) > 0.0:
+            raise ElementError("it has zero length (its axis and body start and end at one point)")
+        if not np.isfinite(web_up).all():
+            raise ElementError("its section has no depth direction")
         shape = profile.shape
         if shape is None and profile.section is not None:
             shape = shape_of_section(profile.section)
@@ -313,15 +652,15 @@ class _Reader:
                 NotChecked.NOT_STEEL, category=material.category.value, material=material.name
             )
         member = Member(
-            guid=element.GlobalId,
+            guid=self.key(element),
             ifc_class=element.is_a(),
             predefined_type=predefined,
-            name=element.Name or "",
+            name=_text(element.Name),
             storey=self._storey(element),
             role=role,
-            start=tuple(float(v) for v in start),
-            end=tuple(float(v) for v in end),
-            web_up=tuple(float(v) for v in web_up),
+            start=_point(start),
+            end=_point(end),
+            web_up=_point(web_up),
             profile_name=profile.name,
             section=profile.section,
             steel=material.steel,
@@ -336,6 +675,14 @@ class _Reader:
             family=profile.family,
             dimensions=shape.dimensions() if shape is not None else {},
         )
+        if unresolved is not None and unresolved.code is NotChecked.BAD_ELEMENT:
+            self.model.warnings.append((member.guid, f"{element.is_a()} {unresolved.text}"))
+        shared = self.model.duplicate_guids.get(element.GlobalId)
+        if shared:
+            others = ", ".join(k for k in shared if k != member.guid)
+            member.notes.append(
+                f"GlobalId {element.GlobalId} is shared with {others}: listed as {member.guid}"
+            )
         return member
 
     def _set_profile(self, element: Entity) -> tuple[Entity | None, str, str]:
@@ -350,7 +697,7 @@ class _Reader:
         if select is not None and select.is_a("IfcMaterialProfileSet"):
             profiles = [p.Profile for p in select.MaterialProfiles if p.Profile]
             if profiles:
-                return profiles[0], source, select.Name or ""
+                return profiles[0], source, _text(select.Name)
         return None, "", ""
 
     def _main_extrusion(
@@ -371,15 +718,18 @@ class _Reader:
         t = None
         if axis is not None and np.linalg.norm(axis[1] - axis[0]) > 0:
             t = (axis[1] - axis[0]) / np.linalg.norm(axis[1] - axis[0])
-        set_name = (getattr(set_profile, "ProfileName", None) or "").strip().upper()
+        set_name = _text(getattr(set_profile, "ProfileName", None)).strip().upper()
 
         def score(item: tuple[np.ndarray, Entity]) -> tuple[bool, bool, float]:
-            direction, length = geo.extrusion_direction(*item)
+            try:
+                direction, length = geo.extrusion_direction(*item)
+            except ElementError:  # an unreadable item is the member only if nothing else is
+                return False, False, -1.0
             along = t is None or abs(float(np.dot(direction, t))) > 0.999
             area = item[1].SweptArea
             same = set_profile is not None and (
                 area == set_profile
-                or (bool(set_name) and (area.ProfileName or "").strip().upper() == set_name)
+                or (bool(set_name) and _text(area.ProfileName).strip().upper() == set_name)
             )
             return along, same, length
 
@@ -397,6 +747,8 @@ class _Reader:
         if set_profile is not None:
             resolved = section_from_profile(set_profile, self.scale)
             resolved.source = set_source
+            if _bad(resolved):  # impossible dimensions: no name makes them a section
+                return resolved
             if resolved.section is None and resolved.shape is None and set_name:
                 by_set_name = resolve_name(set_name)
                 if by_set_name is not None and by_set_name.section is not None:
@@ -411,6 +763,8 @@ class _Reader:
         if extrusion is not None:
             resolved = section_from_profile(extrusion[1].SweptArea, self.scale)
             resolved.source = "swept area"
+            if _bad(resolved):
+                return resolved
             if resolved.section is None:
                 fallback = self._profile_by_name(element)
                 if fallback is not None and (
@@ -427,10 +781,10 @@ class _Reader:
     def _profile_by_name(self, element: Entity) -> ResolvedProfile | None:
         el_type = uelement.get_type(element)
         for text, source in (
-            (getattr(el_type, "Name", None), "type name"),
-            (getattr(element, "ObjectType", None), "name"),
+            (_text(getattr(el_type, "Name", None)), "type name"),
+            (_text(getattr(element, "ObjectType", None)), "name"),
             (getattr(element, "Tag", None), "name"),
-            (element.Name, "name"),
+            (_text(element.Name), "name"),
         ):
             resolved = resolve_name(text)
             if resolved is not None:
@@ -506,18 +860,27 @@ class _Reader:
         else:
             pm = geo.axis2_matrix(getattr(prof, "Position", None))
         p0 = geo.transform(m @ pm, np.array([centre[0], centre[1], 0.0]))[0]
-        direction = np.asarray(solid.ExtrudedDirection.DirectionRatios, dtype=float)
-        direction = m[:3, :3] @ (direction / np.linalg.norm(direction))
-        p1 = p0 + direction * solid.Depth
+        direction = m[:3, :3] @ np.asarray(geo.extruded_direction(solid), dtype=float)
+        p1 = p0 + direction * geo.extrusion_depth(solid)
         frame = m @ pm
         up = frame[:3, 1] if up2d is None else frame[:3, 0] * up2d[0] + frame[:3, 1] * up2d[1]
         up = up - np.dot(up, direction) * direction
-        return p0, p1, up / np.linalg.norm(up)
+        norm = float(np.linalg.norm(up))
+        if not norm > 1e-9:
+            raise ElementError(f"extrusion #{solid.id()} runs in its own profile plane")
+        return p0, p1, up / norm
 
     def _cardinal_point(self, element: Entity) -> int:
         select = uelement.get_material(element, should_skip_usage=False, should_inherit=False)
         if select is not None and select.is_a("IfcMaterialProfileSetUsage"):
-            return int(select.CardinalPoint or 5)
+            cp = select.CardinalPoint
+            if cp is None:
+                return 5
+            if isinstance(cp, bool) or not isinstance(cp, int) or not 1 <= cp <= 10:
+                raise ElementError(
+                    f"cardinal point {geo._shown(cp)} is not 1 to 10 (IfcCardinalPointReference)"
+                )
+            return cp
         return 5
 
     def _geometry_line(
@@ -548,30 +911,63 @@ class _Reader:
     # --- slabs and walls ----------------------------------------------------------
     def _slab(self, element: Entity) -> Slab | None:
         found = self._footprint(element)
+        label = f"slab '{_text(element.Name)}'" if _text(element.Name) else "slab"
         if found is None:
             if element.is_a("IfcSlab"):
                 self.model.warnings.append(
-                    (element.GlobalId, f"slab '{element.Name}' has no readable footprint")
+                    (self.key(element), f"{label} has no readable footprint")
                 )
             return None
         poly, bottom, top, notes = found
         thickness = top - bottom
         if element.is_a("IfcPlate") and (thickness > 0.5 or poly.area < 1.0):
             return None  # a plate that is not a deck (stiffener, gusset...)
+        if not thickness > MIN_SLAB_THICKNESS:
+            if element.is_a("IfcSlab"):
+                self.model.warnings.append(
+                    (self.key(element), f"{label} ignored: it has zero thickness "
+                                        "(it neither carries load nor braces)")
+                )  # fmt: skip
+            return None
+        for note in notes:
+            if "crosses itself" in note:
+                self.model.warnings.append((self.key(element), f"{label}: {note}"))
         openings: list[Polygon] = []
         for rel in getattr(element, "HasOpenings", None) or ():
             opening = rel.RelatedOpeningElement
-            hole = self._footprint(opening)
+            try:
+                hole = self._footprint(opening)
+            except ElementError as exc:
+                self.model.warnings.append(
+                    (self.key(element), f"opening {opening.GlobalId} of {label} ignored: {exc}")
+                )
+                continue
             if hole is None:
                 notes.append(f"opening {opening.GlobalId} could not be read and is ignored")
                 continue
-            hpoly, hb, ht, _ = hole
+            hpoly, hb, ht, hnotes = hole
+            for note in hnotes:
+                if "crosses itself" in note:
+                    self.model.warnings.append(
+                        (self.key(element), f"opening {opening.GlobalId} of {label}: {note}")
+                    )
+            if not hpoly.area > 0.0:
+                self.model.warnings.append(
+                    (self.key(element), f"opening {opening.GlobalId} of {label} ignored: "
+                                        "it encloses no area")
+                )  # fmt: skip
+                continue
             if ht > bottom and hb < top:
                 openings.append(hpoly)
         footprint = poly.difference(unary_union(openings)) if openings else poly
+        if footprint.is_empty:
+            self.model.warnings.append(
+                (self.key(element), f"{label} ignored: its openings cover all of it")
+            )
+            return None
         return Slab(
-            guid=element.GlobalId,
-            name=element.Name or "",
+            guid=self.key(element),
+            name=_text(element.Name),
             storey=self._storey(element),
             footprint=footprint,
             underside=bottom,
@@ -585,7 +981,7 @@ class _Reader:
         self, element: Entity
     ) -> tuple[Polygon | MultiPolygon, float, float, list[str]] | None:
         obj = self.placements.of(element)
-        parts = []
+        parts: list[geo.Footprint] = []
         for item_matrix, item in geo.body_items(element):
             if not item.is_a("IfcExtrudedAreaSolid"):
                 parts = []
@@ -596,11 +992,15 @@ class _Reader:
                 break
             parts.append(found)
         if parts:
-            poly = unary_union([p[0] for p in parts])
-            bottom = min(p[1] for p in parts)
-            top = max(p[2] for p in parts)
+            poly = unary_union([p.polygon for p in parts])
+            bottom = min(p.bottom for p in parts)
+            top = max(p.top for p in parts)
             s = self.scale
-            return _scale_poly(poly, s), bottom * s, top * s, []
+            notes = [p.repaired for p in parts if p.repaired]
+            plan = _scale_poly(poly, s)
+            if plan.is_empty:
+                raise ElementError("its plan outline encloses no area (smaller than 1 nm)")
+            return plan, bottom * s, top * s, notes
         verts_faces = self._tessellate_faces(element)
         if verts_faces is None:
             return None
@@ -610,7 +1010,7 @@ class _Reader:
         tris = [t for t in tris if t.is_valid and t.area > 1e-9]
         if not tris:
             return None
-        poly = unary_union(tris)
+        poly = _scale_poly(unary_union(tris), 1.0)
         note = "footprint taken from tessellated body geometry"
         return poly, float(verts[:, 2].min()), float(verts[:, 2].max()), [note]
 
@@ -638,9 +1038,11 @@ class _Reader:
             self.ifc, element, None, GradeContext(pressure_scale=self.pressure_scale)
         )
         category = material.category
+        if not poly.area > 0.0 or not top > bottom:
+            raise ElementError("it has no plan area or no height")
         return Wall(
-            guid=element.GlobalId,
-            name=element.Name or "",
+            guid=self.key(element),
+            name=_text(element.Name),
             storey=self._storey(element),
             footprint=poly,
             base=bottom,
@@ -649,10 +1051,66 @@ class _Reader:
         )
 
 
-def _scale_poly(poly, s: float):
-    from shapely import affinity
+def element_keys(ifc: ifcopenshell.file) -> dict[int, str]:
+    """Entity id → the key an element is listed under, for the elements whose GlobalId
+    another element the reader reads also has: the first (lowest id) keeps the GlobalId,
+    the others get ':2', ':3'... (':' is not in the IFC GlobalId alphabet). The check
+    copy's write-back finds elements by the same keys."""
+    seen: dict[str, int] = {}
+    keys: dict[int, str] = {}
+    found: dict[int, Entity] = {}
+    for cls in LINEAR_CLASSES + SLAB_CLASSES + WALL_CLASSES:
+        try:
+            found.update({e.id(): e for e in ifc.by_type(cls)})
+        except RuntimeError:  # class not in this schema
+            continue
+    for i in sorted(found):
+        guid = found[i].GlobalId
+        if not isinstance(guid, str) or not guid:  # no GlobalId: the entity's own number
+            keys[i] = f"#{i}"
+            continue
+        n = seen.get(guid, 0) + 1
+        seen[guid] = n
+        if n > 1:
+            keys[i] = f"{guid}:{n}"
+    return keys
 
-    return affinity.scale(poly, xfact=s, yfact=s, origin=(0, 0))
+
+def _point(v: np.ndarray) -> tuple[float, float, float]:
+    return float(v[0]), float(v[1]), float(v[2])
+
+
+def _distance(points: np.ndarray, centre: np.ndarray) -> np.ndarray:
+    """Euclidean distances of points (rows) from a centre, without overflow for
+    coordinates near the largest float (each row scaled by its largest component)."""
+    with np.errstate(over="ignore"):  # a difference beyond the largest float: inf, far
+        d = np.abs(points - centre)
+        scale = d.max(axis=1)
+        safe = np.where(np.isfinite(scale) & (scale > 0.0), scale, 1.0)
+        return scale * np.sqrt(((d / safe[:, None]) ** 2).sum(axis=1))
+
+
+def _role_of_class(element: Entity) -> MemberRole:
+    if element.is_a("IfcColumn"):
+        return MemberRole.COLUMN
+    return MemberRole.BEAM if element.is_a("IfcBeam") else MemberRole.OTHER
+
+
+def _bad(resolved: ResolvedProfile) -> bool:
+    return resolved.reason is not None and resolved.reason.code is NotChecked.BAD_ELEMENT
+
+
+def _scale_poly(poly, s: float):
+    """A plan outline in metres, on a nanometre grid: coordinates so small they are
+    subnormal make the polygon operations of the loads stage divide by zero."""
+    import shapely
+
+    snapped = shapely.transform(poly, lambda c: np.round(c * (s / PLAN_GRID)) * PLAN_GRID)
+    if snapped.is_valid:
+        return snapped
+    parts = [g for g in shapely.get_parts(shapely.make_valid(snapped))
+             if isinstance(g, Polygon | MultiPolygon)]  # fmt: skip
+    return unary_union(parts) if parts else Polygon()
 
 
 def _section_frame(obj: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -678,7 +1136,7 @@ def _role(element: Entity, predefined: str) -> MemberRole:
         return MemberRole.COLUMN
     if element.is_a("IfcBeam"):
         return MemberRole.BEAM
-    object_type = (getattr(element, "ObjectType", None) or "").upper()
+    object_type = _text(getattr(element, "ObjectType", None)).upper()
     kind = predefined if predefined not in ("", "USERDEFINED", "NOTDEFINED") else object_type
     if kind in BRACE_TYPES:
         return MemberRole.BRACE

@@ -36,10 +36,16 @@ from xmlschema.validators.exceptions import XMLSchemaException
 from ifccheck import __version__
 from ifccheck.atomic import atomic_path
 from ifccheck.config import RequirementSettings
-from ifccheck.errors import IdsFileError
+from ifccheck.errors import ElementError, IdsFileError
 from ifccheck.ifc import geometry as geo
 from ifccheck.ifc.profiles import resolve_name
-from ifccheck.ifc.reader import BEAMLIKE_MEMBER_TYPES, BRACE_TYPES, STRUT_TYPES, open_ifc
+from ifccheck.ifc.reader import (
+    BEAMLIKE_MEMBER_TYPES,
+    BRACE_TYPES,
+    STRUT_TYPES,
+    open_ifc,
+    read_guarded,
+)
 from ifccheck.model import Member, Model
 from ifccheck.reasons import NotChecked
 from ifccheck.results import BeamResult, RequirementElement, RequirementResult
@@ -646,13 +652,19 @@ def profile_problem(element: Entity) -> str | None:
 
 def _own_ifc_record(r: Requirement, elements: Sequence[Entity]) -> RequirementResult:
     failing: list[RequirementElement] = []
-    for e in elements:
+
+    def problem_of(e: Entity) -> str | None:
         if r.key == "profile":
-            problem = profile_problem(e)
-        elif r.key == "axis":
-            problem = None if geo.axis_points(e) is not None else "no 'Axis' representation"
-        else:
-            raise ValueError(r.key)
+            return profile_problem(e)
+        if r.key == "axis":
+            return None if geo.axis_points(e) is not None else "no 'Axis' representation"
+        raise ValueError(r.key)
+
+    for e in elements:
+        try:
+            problem = read_guarded(problem_of, e)
+        except ElementError as exc:  # the element's data cannot be read: it fails
+            problem = str(exc)
         if problem is not None:
             failing.append(_element(e, problem))
     return own_record(r.key, len(elements), failing)

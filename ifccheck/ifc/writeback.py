@@ -37,7 +37,7 @@ import ifcopenshell.ifcopenshell_wrapper as wrapper
 import ifcopenshell.util.unit
 
 from ifccheck.atomic import atomic_path
-from ifccheck.ifc.reader import open_ifc
+from ifccheck.ifc.reader import LINEAR_CLASSES, element_keys, open_ifc
 from ifccheck.results import BeamResult, CheckResult
 
 PSET_NAME = "ifccheck_SteelBeamAdequacy"
@@ -255,9 +255,11 @@ class _Units:
         self._explicit: dict[str, Any] = {}
         for kind, (unit_type, _, si_name) in _KINDS.items():
             project_unit = ifcopenshell.util.unit.get_project_unit(f, unit_type)
-            self._has_project_unit[kind] = project_unit is not None
-            if project_unit is not None:
-                self.scale[kind] = 1.0 / ifcopenshell.util.unit.get_unit_scale(project_unit)
+            scale = _usable_scale(project_unit)
+            # a project unit with no usable conversion (a zero factor): explicit SI units
+            self._has_project_unit[kind] = scale is not None
+            if scale is not None and project_unit is not None:
+                self.scale[kind] = 1.0 / scale
                 self.unit_name[kind] = _unit_words(project_unit)
             else:
                 self.scale[kind] = 1.0
@@ -287,6 +289,17 @@ class _Units:
                     "IfcSIUnit", UnitType=Enum(unit_type), Name=Enum(si_name)
                 )
         return self._explicit[kind]
+
+
+def _usable_scale(unit: ifcopenshell.entity_instance | None) -> float | None:
+    """SI per unit of a project unit, or None for none or one with no usable conversion."""
+    if unit is None:
+        return None
+    try:
+        scale = float(ifcopenshell.util.unit.get_unit_scale(unit))
+    except Exception:  # a conversion factor that is not a number
+        return None
+    return scale if math.isfinite(scale) and scale > 0.0 else None
 
 
 def _unit_words(unit: ifcopenshell.entity_instance) -> str:
@@ -474,14 +487,29 @@ def _owner_history(f: ifcopenshell.file, result: CheckResult, sink: _Sink) -> An
 def _add_psets(f: ifcopenshell.file, result: CheckResult, sink: _Sink) -> list[str]:
     writer = _PsetWriter(f, result, sink)
     missing: list[str] = []
+    elements = _elements_by_key(f)
     for b in result.beams:
-        try:
-            element = f.by_guid(b.guid)
-        except RuntimeError:
+        element = elements.get(b.guid)
+        if element is None:
             missing.append(b.guid)
             continue
         writer.write(element, b)
     return missing
+
+
+def _elements_by_key(f: ifcopenshell.file) -> dict[str, ifcopenshell.entity_instance]:
+    """Beams, columns and members by the key the reader lists them under (their GlobalId,
+    suffixed ':2', ':3'... where several share one)."""
+    keys = element_keys(f)
+    out: dict[str, ifcopenshell.entity_instance] = {}
+    for cls in LINEAR_CLASSES:
+        try:
+            found = f.by_type(cls)
+        except RuntimeError:  # class not in this schema
+            continue
+        for e in found:
+            out.setdefault(keys.get(e.id(), e.GlobalId), e)
+    return out
 
 
 def add_check_psets(f: ifcopenshell.file, result: CheckResult) -> list[str]:

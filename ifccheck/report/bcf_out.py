@@ -99,12 +99,14 @@ def _at(b: BeamResult, station: float) -> Vec:
 def _viewpoint(
     b: BeamResult, key: str, xml_handler, lines: Sequence[tuple[Vec, Vec]] = ()
 ) -> VisualizationInfoHandler:
-    pos, direction, up = camera_for(b.start, b.end)
+    placed = all(math.isfinite(v) for v in (*b.start, *b.end))  # NaN: position unknown
+    pos, direction, up = camera_for(b.start, b.end) if placed else ((0.0,) * 3,) * 3
     info = mdl.VisualizationInfo(
         guid=_uuid("viewpoint", key),
         components=mdl.Components(
             selection=mdl.ComponentSelection(
-                component=[mdl.Component(ifc_guid=b.guid, originating_system=None)]
+                # the element's own GlobalId: a shared one is keyed "GUID:2" in the results
+                component=[mdl.Component(ifc_guid=b.guid.split(":")[0], originating_system=None)]
             ),
             visibility=mdl.ComponentVisibility(default_visibility=True),
         ),
@@ -113,7 +115,9 @@ def _viewpoint(
             camera_direction=_direction(direction),
             camera_up_vector=_direction(up),
             field_of_view=60.0,
-        ),
+        )
+        if placed
+        else None,
         lines=(
             mdl.VisualizationInfoLines(
                 line=[mdl.Line(start_point=_point(a), end_point=_point(c)) for a, c in lines]

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from collections import defaultdict
 from collections.abc import Sequence
 from typing import TYPE_CHECKING, Any
@@ -135,7 +136,8 @@ def inspect_document(
     framing: Framing | None = None,
     demand: DemandResult | None = None,
 ) -> dict[str, Any]:
-    """The `inspect --json` document (SI base units)."""
+    """The `inspect --json` document (SI base units); strict JSON: a number that is not
+    finite (a position the reader could not find, an unbounded ratio) is written as null."""
     members = []
     for m in model.members:
         d = member_dict(m)
@@ -150,47 +152,64 @@ def inspect_document(
     for w in [*(framing.warnings if framing else []), *(demand.warnings if demand else [])]:
         if w not in warnings:
             warnings.append(w)
-    return {
-        "tool": "ifccheck",
-        "version": __version__,
-        "model": model.source,
-        "schema": model.schema,
-        "length_unit": model.length_unit,
-        "summary": summary(model, seconds),
-        "storeys": [
-            {"guid": s.guid, "name": s.name, "elevation": s.elevation} for s in model.storeys
-        ],
-        "members": members,
-        "slabs": [slab_dict(s) for s in model.slabs],
-        "walls": [
-            {"guid": w.guid, "name": w.name, "storey": w.storey, "base": w.base, "top": w.top}
-            for w in model.walls
-        ],
-        "levels": [
-            {"name": lv.name, "elevation": lv.elevation, "storey": lv.storey, "beams": lv.beams}
-            for lv in model.levels
-        ],
-        "deck_spans": [
-            {
-                "storey": ds.storey,
-                "level": ds.storey,
-                "angle": ds.angle,
-                "source": ds.source,
-                "evidence": ds.evidence,
-                "basis": ds.basis,
-                "typical_spacing": ds.typical_spacing,
-            }
-            for ds in (demand.deck_spans.values() if demand else [])
-        ],
-        "load_balance": [
-            {"level": r.level, "case": r.case, "applied": r.applied, "delivered": r.delivered}
-            for r in (demand.load_balance if demand else [])
-        ],
-        "excluded": dict(framing.excluded) if framing else {},
-        "load_path_cycles": [list(c) for c in framing.cycles] if framing else [],
-        "warnings": [{"guid": g, "message": msg} for g, msg in warnings],
-        "caution": CAUTION,
-    }
+    return finite_only(
+        {
+            "tool": "ifccheck",
+            "version": __version__,
+            "model": model.source,
+            "schema": model.schema,
+            "length_unit": model.length_unit,
+            "summary": summary(model, seconds),
+            "storeys": [
+                {"guid": s.guid, "name": s.name, "elevation": s.elevation} for s in model.storeys
+            ],
+            "members": members,
+            "unreadable": [member_dict(m) for m in model.unreadable],
+            "duplicate_guids": {g: list(keys) for g, keys in model.duplicate_guids.items()},
+            "slabs": [slab_dict(s) for s in model.slabs],
+            "walls": [
+                {"guid": w.guid, "name": w.name, "storey": w.storey, "base": w.base, "top": w.top}
+                for w in model.walls
+            ],
+            "levels": [
+                {"name": lv.name, "elevation": lv.elevation, "storey": lv.storey, "beams": lv.beams}
+                for lv in model.levels
+            ],
+            "deck_spans": [
+                {
+                    "storey": ds.storey,
+                    "level": ds.storey,
+                    "angle": ds.angle,
+                    "source": ds.source,
+                    "evidence": ds.evidence,
+                    "basis": ds.basis,
+                    "typical_spacing": ds.typical_spacing,
+                }
+                for ds in (demand.deck_spans.values() if demand else [])
+            ],
+            "load_balance": [
+                {"level": r.level, "case": r.case, "applied": r.applied, "delivered": r.delivered}
+                for r in (demand.load_balance if demand else [])
+            ],
+            "excluded": dict(framing.excluded) if framing else {},
+            "load_path_cycles": [list(c) for c in framing.cycles] if framing else [],
+            "warnings": [{"guid": g, "message": msg} for g, msg in warnings],
+            "caution": CAUTION,
+        }
+    )
+
+
+def finite_only(value: Any) -> Any:
+    """A JSON-ready value with every NaN or infinite float replaced by None."""
+    if isinstance(value, float):
+        return value if math.isfinite(value) else None
+    if isinstance(value, dict):
+        return {k: finite_only(v) for k, v in value.items()}
+    if isinstance(value, list | tuple):
+        return [finite_only(v) for v in value]
+    if hasattr(value, "item") and not isinstance(value, str | bytes):  # numpy scalars
+        return finite_only(value.item())
+    return value
 
 
 def summary(model: Model, seconds: float) -> dict[str, Any]:
@@ -203,6 +222,7 @@ def summary(model: Model, seconds: float) -> dict[str, Any]:
         "slabs": len(model.slabs),
         "walls": len(model.walls),
         "not_resolved": sum(1 for m in model.members if m.unresolved),
+        "unreadable": len(model.unreadable),
         "geometry_fallbacks": model.geometry_fallbacks,
         "seconds": round(seconds, 3),
     }
@@ -227,7 +247,7 @@ def inspect_text(
     order = [s.name for s in model.storeys] + sorted(
         set(by_storey) - {s.name for s in model.storeys}
     )
-    names = {m.guid: m.name or m.guid for m in model.members}
+    names = {m.guid: m.name or m.guid for m in [*model.members, *model.unreadable]}
     names.update({w.guid: w.name or w.guid for w in model.walls})
     header = ("member", "class", "profile", "grade", "length", "axis from", "profile from", "notes")
     for storey in order:
@@ -255,6 +275,8 @@ def inspect_text(
         framing_text = _framing_lines(members, framing, demand, du, names) if framing else []
         if len(framing_text) > 1:
             lines += [*framing_text, ""]
+    for m in model.unreadable:
+        lines.append(f"not read: {m.ifc_class} {m.name or m.guid}: {reason_text(m.unresolved)}")
     for s in model.slabs:
         lines.append(
             f"slab {s.name or s.guid} on {s.storey or '(no storey)'}: thickness "

@@ -154,11 +154,17 @@ def beam_tooltip(b: BeamResult, du: DisplayUnits) -> str:
     return " · ".join(p for p in parts if p)
 
 
+def _placed(b: BeamResult) -> bool:
+    """Whether a beam has a position to draw (one the reader could not place has NaN)."""
+    return all(math.isfinite(v) for v in (*b.start[:2], *b.end[:2]))
+
+
 def check_plan_svg(
     beams: Sequence[BeamResult], slabs: Sequence[SlabOutline], du: DisplayUnits,
     linked: set[str], title: str,
 ) -> str:  # fmt: skip
     """One storey: slabs, slab-braced bands, beams coloured by utilisation, brace points, labels."""
+    beams = [b for b in beams if _placed(b)]
     pts: list[Point2] = [(b.start[0], b.start[1]) for b in beams]
     pts += [(b.end[0], b.end[1]) for b in beams]
     pts += [(p[0], p[1]) for s in slabs for p in s.exterior]
@@ -277,6 +283,7 @@ def diff_plan_svg(
     changes: dict[str, BeamChange], added: set[str], du: DisplayUnits, title: str,
 ) -> str:  # fmt: skip
     """One storey of the new revision with the changes marked."""
+    beams, removed = [b for b in beams if _placed(b)], [b for b in removed if _placed(b)]
     pts: list[Point2] = [(b.start[0], b.start[1]) for b in [*beams, *removed]]
     pts += [(b.end[0], b.end[1]) for b in [*beams, *removed]]
     pts += [(p[0], p[1]) for s in slabs for p in s.exterior]

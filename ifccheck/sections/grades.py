@@ -18,6 +18,7 @@ Strengths are in Pa. Sources:
 
 from __future__ import annotations
 
+import math
 import re
 from dataclasses import dataclass
 
@@ -273,6 +274,25 @@ def steel_from_name(
 def _looks_en(name: str) -> bool:
     text = _clean(name)
     return bool(_en_grade(text) or re.search(r"\bEN\b|10025|EUROCODE", text))
+
+
+# Yield stresses of structural steels lie in this range (Pa, common practice: the weakest
+# mild steels near 170 MPa, quenched and tempered plate near 900 MPa); a value outside it
+# is a unit or typing error, not a steel.
+FY_PLAUSIBLE = (100e6, 1000e6)
+
+
+def fy_problem(fy: float) -> str | None:
+    """Why a yield stress (Pa) cannot be a structural steel's, or None if it can."""
+    lo, hi = FY_PLAUSIBLE
+    if not math.isfinite(fy):
+        return f"yield stress {fy} is not a finite number"
+    if lo <= fy <= hi:
+        return None
+    return (
+        f"yield stress {fy / 1e6:,.4g} MPa is outside {lo / 1e6:,.0f} to {hi / 1e6:,.0f} MPa "
+        "(structural steel)"
+    )
 
 
 def steel_from_yield(
