@@ -116,6 +116,13 @@ UPLOAD_BODY = {
                         "enum": ["si", "imperial"],
                         "description": "Units of the CSV and reports (default: the model's)",
                     },
+                    "length_unit": {
+                        "type": "string",
+                        "maxLength": TEXT_FIELDS["length_unit"],
+                        "description": "The length unit of a model that assigns none (m, cm, "
+                        "mm, ft, in), as `ifccheck check --length-unit`; a model with its own "
+                        "unit keeps it",
+                    },
                     "callback_url": {
                         "type": "string",
                         "maxLength": TEXT_FIELDS["callback_url"],

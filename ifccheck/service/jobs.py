@@ -43,6 +43,7 @@ OUT_DIR = "out"
 INPUT_DIR = "input"
 PROGRESS = "progress"
 PROJECT_IDS = "project.ids"  # a project's own IDS uploaded with the model
+LENGTH_UNIT_FILE = "length-unit.txt"  # the length_unit field, for a model with no unit
 
 # Test-only fault injection: "KEY=ACTION[;KEY=ACTION]" where KEY is a job's
 # model_key (or * for every job) and ACTION is delay:SECONDS, crash or raise.
@@ -179,9 +180,12 @@ def execute_job(spec: JobSpec) -> dict[str, Any]:
         progress(0.1 + 0.7 * done / max(total, 1))
 
     project_ids = [inputs / PROJECT_IDS] if (inputs / PROJECT_IDS).exists() else []
+    unit_file = inputs / LENGTH_UNIT_FILE
+    length_unit = unit_file.read_text(encoding="utf-8").strip() if unit_file.exists() else None
     result, model, _ = run_check(
-        model_path, settings, demands, beams_done, requirements=True, project_ids=project_ids
-    )
+        model_path, settings, demands, beams_done, requirements=True, project_ids=project_ids,
+        length_unit=length_unit,
+    )  # fmt: skip
     units = spec.units or system_for(model.length_unit)
     progress(0.82, force=True)
 

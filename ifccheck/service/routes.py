@@ -40,7 +40,7 @@ from ifccheck.service.deps import (
     token_of,
     unauthorised,
 )
-from ifccheck.service.jobs import FILE_NAMES, one_line
+from ifccheck.service.jobs import FILE_NAMES, LENGTH_UNIT_FILE, one_line
 from ifccheck.service.settings import ServiceConfig
 from ifccheck.service.uploads import TEXT_FIELDS, Upload, UploadError, receive
 from ifccheck.service.webhooks import check_callback_url
@@ -233,6 +233,17 @@ def validate_upload(upload: Upload, staging: Path, config: ServiceConfig) -> dic
     if units and units not in ("si", "imperial"):
         raise UploadError(422, f"units: {units!r} is not 'si' or 'imperial'")
     out["units"] = units or None
+    length_unit = upload.fields.get("length_unit", "").strip()
+    if length_unit:
+        from ifccheck.errors import QuantityError
+        from ifccheck.units import model_length_unit
+
+        try:
+            unit = model_length_unit(length_unit)
+        except QuantityError as exc:
+            raise UploadError(422, f"length_unit: {exc}") from None
+        # kept beside the inputs, read by the job (as --length-unit)
+        (staging / LENGTH_UNIT_FILE).write_text(unit, encoding="utf-8")
     url = upload.fields.get("callback_url", "").strip()
     if url:
         problem = check_callback_url(url, config.callback_hosts)

@@ -25,7 +25,12 @@ FILE_FIELDS = {
     "demands": "demands.csv",
     "ids": "project.ids",  # a project's own IDS, audited as well as the tool's
 }
-TEXT_FIELDS = {"model_key": 200, "units": 20, "callback_url": 2048}  # longest accepted value
+TEXT_FIELDS = {
+    "model_key": 200,
+    "units": 20,
+    "length_unit": 40,
+    "callback_url": 2048,
+}  # longest accepted value
 STEP_HEADER = b"ISO-10303-21;"
 _LEADING = b"\xef\xbb\xbf \t\r\n"  # a UTF-8 byte order mark and white space may precede it
 _HEAD_LIMIT = 4096  # bytes of a model read before its header must have appeared
@@ -156,10 +161,10 @@ class _Receiver:
         stripped = bytes(self._head).lstrip(_LEADING)
         if len(stripped) >= len(STEP_HEADER):
             if not stripped.startswith(STEP_HEADER):
-                raise _not_ifc()
+                raise _not_ifc(stripped)
             return True
         if final or len(self._head) > _HEAD_LIMIT or not STEP_HEADER.startswith(stripped):
-            raise _not_ifc()
+            raise _not_ifc(stripped)
         return False
 
     def _part_end(self) -> None:
@@ -179,7 +184,9 @@ class _Receiver:
             self._fh.close()
 
 
-def _not_ifc() -> UploadError:
+def _not_ifc(head: bytes = b"") -> UploadError:
+    if head.startswith(b"PK"):  # a zip archive, as the command line tells it
+        return UploadError(422, "model: compressed IFC (ifcZIP) is not read; unzip it first")
     return UploadError(
         422, "model: not an IFC file (it does not start with the STEP header ISO-10303-21;)"
     )
