@@ -687,7 +687,7 @@ CASES: list[Case] = [
          args=("W24X84", "--lb", "10 ft", "--fy", "5000 MPa")),
     Case("strength_fy_negative", "strength", 2, "--fy",
          args=("W24X84", "--lb", "10 ft", "--fy", "-345 MPa")),
-    Case("strength_fy_in_range", "strength", 0, "Fy = 50.0 ksi",
+    Case("strength_fy_in_range", "strength", 0, "Fy = 50 ksi",
          args=("W24X84", "--lb", "10 ft", "--fy", "50 ksi")),
     Case("strength_long_shape_name", "strength", 2, "unknown shape",
          args=("W" * 10_000, "--lb", "3 m")),

@@ -40,6 +40,8 @@ from ifccheck.design.aisc360 import AISC360, flexure, scope, shear
 from ifccheck.design.base import check_method
 from ifccheck.errors import QuantityError, UsageError
 from ifccheck.model import Section, ShapeFamily, Steel
+from ifccheck.report.display import DisplayUnits
+from ifccheck.report.wording import limit_state_words
 from ifccheck.sections import (
     channel_from_dimensions,
     classify_flexure,
@@ -371,6 +373,7 @@ def strength(
         raise UsageError(f"--lb {shown(lb_text)} is more than {LB_MAX:,.0f} m (check the unit)")
     section = _section(shape, fabrication)
     steel = _steel(section, grade, fy_text)
+    given = "--fy" if fy_text else "--grade" if grade else "default"
     reason = scope(section, steel, axis)
     if reason:
         raise UsageError(f"{shown(section.name)}: {reason}")
@@ -395,11 +398,13 @@ def strength(
             "built_up": is_built_up(section),
             "grade": steel.grade,
             "grade_source": steel.source,
+            "grade_given": given,  # "--grade", "--fy" or "default" (by the shape's family)
             "standard": AISC360.name,
             "method": meth,
             "axis": axis,
             "compression": compression,
             "factor": r.factor,
+            "factor_symbol": "φb" if meth == "LRFD" else "Ωb",
             "fy": steel.fy,
             "E": steel.E,
             "lb": lb,
@@ -408,6 +413,7 @@ def strength(
             "mn": float(r.mn[0]),
             "design_strength": float(r.design_strength[0]),
             "limit_state": str(r.limit_state[0]),
+            "limit_state_text": limit_state_words(str(r.limit_state[0])),
             "lp": float(r.lp[0]),
             "lr": float(r.lr[0]),
             "mr": float(r.mr[0]),
@@ -440,9 +446,16 @@ def strength(
         if section.family in (ShapeFamily.HOLLOW_RECT, ShapeFamily.HOLLOW_ROUND)
         else (f", {compression} in compression")
     )
+    du = DisplayUnits(u.system)
+    if given == "--fy":
+        steel_words = f"yield strength given (--fy {' '.join(str(fy_text).split())[:NAME_SHOWN]})"
+    elif given == "--grade":
+        steel_words = f"{steel.grade} (--grade)"
+    else:
+        steel_words = f"{steel.grade} (default for {_FAMILY_TEXT[section.family]}s)"
     lines = [
-        f"{section.name} ({_family_text(section)}, {section.source}), {steel.grade}: "
-        f"Fy = {u.fmt(steel.fy, 'stress')}, E = {u.fmt(steel.E, 'stress', 0)}",
+        f"{section.name} ({_family_text(section)}, {section.source}), {steel_words}: "
+        f"Fy = {du.trade(steel.fy, 'stress')}, E = {u.fmt(steel.E, 'stress', 0)}",
         f"{AISC360.name} Chapter F, {meth} ({fac}), Cb = {cb:.2f}, {axis} axis{side}",
         f"  Mp  = {u.fmt(float(r.mp[0]), 'moment')}  (plastic limit)",
     ]
@@ -457,7 +470,8 @@ def strength(
     lines += [
         f"  Lb  = {u.fmt(lb, 'length', 2)}",
         f"  Mn  = {u.fmt(float(r.mn[0]), 'moment')}",
-        f"  {sym} = {u.fmt(float(r.design_strength[0]), 'moment')}  governed by {r.limit_state[0]}",
+        f"  {sym} = {u.fmt(float(r.design_strength[0]), 'moment')}  governed by "
+        f"{limit_state_words(str(r.limit_state[0]))}",
         f"  {_element('flange', cls.flange)}; {_element('web', cls.web)}"
         f" (Table B4.1b cases {cls.case_flange}, {cls.case_web})",
         f"  shear {u.fmt(v.design_strength, 'force')} ({v.clause})",
@@ -471,7 +485,8 @@ def strength(
         lines.append(f"    {'Lb (' + lunit + ')':>10}  {sym + ' (' + munit + ')':>16}  limit state")
         for x, y, s in zip(sampled.lb, sampled.design_strength, sampled.limit_state, strict=True):
             lines.append(
-                f"    {x * u.factor('length'):>10.2f}  {y * u.factor('moment'):>16.1f}  {s}"
+                f"    {x * u.factor('length'):>10.2f}  {y * u.factor('moment'):>16.1f}  "
+                f"{limit_state_words(str(s))}"
             )
     lines.append(CAUTION)
     click.echo("\n".join(lines))
