@@ -20,7 +20,7 @@ import zipfile
 from collections import Counter
 from collections.abc import Callable, Mapping
 from pathlib import Path
-from typing import TypeVar
+from typing import Any, TypeVar
 
 import ifcopenshell
 import ifcopenshell.util.element as uelement
@@ -1023,8 +1023,9 @@ class _Reader:
             shape = ifcopenshell.geom.create_shape(settings, element)
         except Exception:  # geometry kernel failure: no footprint
             return None
-        verts = np.asarray(shape.geometry.verts, dtype=float).reshape(-1, 3)
-        faces = np.asarray(shape.geometry.faces, dtype=int).reshape(-1, 3)
+        geometry: Any = shape.geometry  # type: ignore[union-attr]  # a triangulation here
+        verts = np.asarray(geometry.verts, dtype=float).reshape(-1, 3)
+        faces = np.asarray(geometry.faces, dtype=int).reshape(-1, 3)
         return verts, faces
 
     def _wall(self, element: Entity) -> Wall | None:
