@@ -352,10 +352,31 @@ def strength(
     CHS od t. Examples: 'I:300x150x7.1x10.7x15mm', 'RHS:10x6x0.349in',
     'CHS:168.3x7.1mm', 'L d=4in b=4in t=0.5in'.
     """
+    meth = _method(method)
+    _check_numbers(cb, cb_unchecked, points)
+    lb, lb_unit = _lb(lb_text)
+    section = _section(shape, fabrication)
+    steel = _steel(section, grade, fy_text)
+    given = "--fy" if fy_text else "--grade" if grade else "default"
+    reason = scope(section, steel, axis)
+    if reason:
+        raise UsageError(f"{shown(section.name)}: {reason}")
+    c = _compute(section, steel, lb, cb, meth, axis, compression, curve, points)
+    if as_json:
+        click.echo(json.dumps(_json_doc(c, given), indent=2))
+        return
+    steel_text = " ".join(str(fy_text).split())[:NAME_SHOWN] if fy_text else ""
+    click.echo("\n".join(_text_lines(c, given, steel_text, system_for(lb_unit))))
+
+
+def _method(method: str) -> str:
     try:
-        meth = check_method(method)
+        return check_method(method)
     except ValueError as exc:
         raise UsageError(str(exc)) from None
+
+
+def _check_numbers(cb: float, cb_unchecked: bool, points: int) -> None:
     if not (math.isfinite(cb) and cb > 0.0):
         raise UsageError("--cb must be a positive number")
     lo, hi = CB_RANGE
@@ -366,19 +387,40 @@ def strength(
         )
     if points < 2:
         raise UsageError("--points must be at least 2")
+
+
+def _lb(lb_text: str) -> tuple[float, str]:
     lb, lb_unit = _quantity(lb_text, "length", "--lb")
     if lb < 0.0:
         raise UsageError("--lb must not be negative")
     if lb > LB_MAX:
         raise UsageError(f"--lb {shown(lb_text)} is more than {LB_MAX:,.0f} m (check the unit)")
-    section = _section(shape, fabrication)
-    steel = _steel(section, grade, fy_text)
-    given = "--fy" if fy_text else "--grade" if grade else "default"
-    reason = scope(section, steel, axis)
-    if reason:
-        raise UsageError(f"{shown(section.name)}: {reason}")
-    top = compression == "top"
+    return lb, lb_unit
 
+
+@dataclass(frozen=True)
+class _Computed:
+    """Everything the command prints, in SI."""
+
+    section: Section
+    steel: Steel
+    lb: float
+    cb: float
+    method: str
+    axis: str
+    compression: str
+    flex: Any  # the standard's flexure result for one segment
+    shear: Any
+    classes: Any
+    has_ltb: bool
+    curve: Any | None  # the sampled strength curve, or None
+
+
+def _compute(
+    section: Section, steel: Steel, lb: float, cb: float, meth: str, axis: str,
+    compression: str, curve: bool, points: int,
+) -> _Computed:  # fmt: skip
+    top = compression == "top"
     r = flexure(section, steel, [lb], [cb], meth, axis=axis, compression_top=top)
     v = shear(section, steel, meth, axis=axis)
     cls = classify_flexure(section, steel.fy, steel.E, top, "minor" if axis == "minor" else "major")
@@ -389,66 +431,73 @@ def strength(
         sampled = AISC360().strength_curve(
             section, steel, cb, meth, lb_max, points, axis=axis, compression_top=top
         )
+    return _Computed(section, steel, lb, cb, meth, axis, compression, r, v, cls, has_ltb,
+                     sampled)  # fmt: skip
 
-    if as_json:
-        out: dict[str, Any] = {
-            "shape": section.name,
-            "family": section.family.value,
-            "section_source": section.source,
-            "built_up": is_built_up(section),
-            "grade": steel.grade,
-            "grade_source": steel.source,
-            "grade_given": given,  # "--grade", "--fy" or "default" (by the shape's family)
-            "standard": AISC360.name,
-            "method": meth,
-            "axis": axis,
-            "compression": compression,
-            "factor": r.factor,
-            "factor_symbol": "φb" if meth == "LRFD" else "Ωb",
-            "fy": steel.fy,
-            "E": steel.E,
-            "lb": lb,
-            "cb": cb,
-            "mp": float(r.mp[0]),
-            "mn": float(r.mn[0]),
-            "design_strength": float(r.design_strength[0]),
-            "limit_state": str(r.limit_state[0]),
-            "limit_state_text": limit_state_words(str(r.limit_state[0])),
-            "lp": float(r.lp[0]),
-            "lr": float(r.lr[0]),
-            "mr": float(r.mr[0]),
-            "flange_class": cls.flange_class,
-            "web_class": cls.web_class,
-            "shear": {
-                "vn": v.vn,
-                "design_strength": v.design_strength,
-                "factor": v.factor,
-                "clause": v.clause,
-            },
-            "units": {"length": "m", "stress": "Pa", "moment": "N*m", "force": "N"},
-            "caution": CAUTION,
-        }
-        if sampled is not None:
-            out["curve"] = [
-                {"lb": float(x), "design_strength": float(y), "limit_state": str(s)}
-                for x, y, s in zip(
-                    sampled.lb, sampled.design_strength, sampled.limit_state, strict=True
-                )
-            ]
-        click.echo(json.dumps(out, indent=2))
-        return
 
-    u = _Units(system_for(lb_unit))
-    sym = "φMn" if meth == "LRFD" else "Mn/Ω"
-    fac = f"φb = {r.factor:.2f}" if meth == "LRFD" else f"Ωb = {r.factor:.2f}"
+def _json_doc(c: _Computed, given: str) -> dict[str, Any]:
+    """The JSON document: SI base units."""
+    r, v, section, steel = c.flex, c.shear, c.section, c.steel
+    out: dict[str, Any] = {
+        "shape": section.name,
+        "family": section.family.value,
+        "section_source": section.source,
+        "built_up": is_built_up(section),
+        "grade": steel.grade,
+        "grade_source": steel.source,
+        "grade_given": given,  # "--grade", "--fy" or "default" (by the shape's family)
+        "standard": AISC360.name,
+        "method": c.method,
+        "axis": c.axis,
+        "compression": c.compression,
+        "factor": r.factor,
+        "factor_symbol": "φb" if c.method == "LRFD" else "Ωb",
+        "fy": steel.fy,
+        "E": steel.E,
+        "lb": c.lb,
+        "cb": c.cb,
+        "mp": float(r.mp[0]),
+        "mn": float(r.mn[0]),
+        "design_strength": float(r.design_strength[0]),
+        "limit_state": str(r.limit_state[0]),
+        "limit_state_text": limit_state_words(str(r.limit_state[0])),
+        "lp": float(r.lp[0]),
+        "lr": float(r.lr[0]),
+        "mr": float(r.mr[0]),
+        "flange_class": c.classes.flange_class,
+        "web_class": c.classes.web_class,
+        "shear": {
+            "vn": v.vn,
+            "design_strength": v.design_strength,
+            "factor": v.factor,
+            "clause": v.clause,
+        },
+        "units": {"length": "m", "stress": "Pa", "moment": "N*m", "force": "N"},
+        "caution": CAUTION,
+    }
+    if c.curve is not None:
+        out["curve"] = [
+            {"lb": float(x), "design_strength": float(y), "limit_state": str(s)}
+            for x, y, s in zip(
+                c.curve.lb, c.curve.design_strength, c.curve.limit_state, strict=True
+            )
+        ]
+    return out
+
+
+def _text_lines(c: _Computed, given: str, fy_text: str, system: UnitSystem) -> list[str]:
+    """The text output, in ``system`` (the unit system of --lb)."""
+    r, v, section, steel, cls = c.flex, c.shear, c.section, c.steel, c.classes
+    u, du = _Units(system), DisplayUnits(system)
+    sym = "φMn" if c.method == "LRFD" else "Mn/Ω"
+    fac = f"φb = {r.factor:.2f}" if c.method == "LRFD" else f"Ωb = {r.factor:.2f}"
     side = (
         ""
         if section.family in (ShapeFamily.HOLLOW_RECT, ShapeFamily.HOLLOW_ROUND)
-        else (f", {compression} in compression")
+        else (f", {c.compression} in compression")
     )
-    du = DisplayUnits(u.system)
     if given == "--fy":
-        steel_words = f"yield strength given (--fy {' '.join(str(fy_text).split())[:NAME_SHOWN]})"
+        steel_words = f"yield strength given (--fy {fy_text})"
     elif given == "--grade":
         steel_words = f"{steel.grade} (--grade)"
     else:
@@ -456,10 +505,10 @@ def strength(
     lines = [
         f"{section.name} ({_family_text(section)}, {section.source}), {steel_words}: "
         f"Fy = {du.trade(steel.fy, 'stress')}, E = {u.fmt(steel.E, 'stress', 0)}",
-        f"{AISC360.name} Chapter F, {meth} ({fac}), Cb = {cb:.2f}, {axis} axis{side}",
+        f"{AISC360.name} Chapter F, {c.method} ({fac}), Cb = {c.cb:.2f}, {c.axis} axis{side}",
         f"  Mp  = {u.fmt(float(r.mp[0]), 'moment')}  (plastic limit)",
     ]
-    if has_ltb:
+    if c.has_ltb:
         lines += [
             f"  Mr  = {u.fmt(float(r.mr[0]), 'moment')}  (Mn at Lr, Cb = 1)",
             f"  Lp  = {u.fmt(float(r.lp[0]), 'length', 2)}",
@@ -468,7 +517,7 @@ def strength(
     else:
         lines.append("  no lateral-torsional buckling for this shape and axis")
     lines += [
-        f"  Lb  = {u.fmt(lb, 'length', 2)}",
+        f"  Lb  = {u.fmt(c.lb, 'length', 2)}",
         f"  Mn  = {u.fmt(float(r.mn[0]), 'moment')}",
         f"  {sym} = {u.fmt(float(r.design_strength[0]), 'moment')}  governed by "
         f"{limit_state_words(str(r.limit_state[0]))}",
@@ -478,18 +527,17 @@ def strength(
     ]
     if section.family is ShapeFamily.ANGLE and section.pair_gap is None:
         lines.append("  bending about a geometric axis; principal-axis bending is not covered")
-    if sampled is not None:
-        lunit = u.label("length")
-        munit = u.label("moment")
-        lines.append(f"  strength curve, Cb = {cb:.2f}:")
+    if c.curve is not None:
+        lunit, munit = u.label("length"), u.label("moment")
+        lines.append(f"  strength curve, Cb = {c.cb:.2f}:")
         lines.append(f"    {'Lb (' + lunit + ')':>10}  {sym + ' (' + munit + ')':>16}  limit state")
-        for x, y, s in zip(sampled.lb, sampled.design_strength, sampled.limit_state, strict=True):
+        for x, y, s in zip(c.curve.lb, c.curve.design_strength, c.curve.limit_state, strict=True):
             lines.append(
                 f"    {x * u.factor('length'):>10.2f}  {y * u.factor('moment'):>16.1f}  "
                 f"{limit_state_words(str(s))}"
             )
     lines.append(CAUTION)
-    click.echo("\n".join(lines))
+    return lines
 
 
 def _element(name: str, s: Slenderness) -> str:

@@ -81,6 +81,40 @@ def _build(
     for w in model.walls:
         graph.add_node(w.guid, role="wall", ifc_class=WALL_CLASS)
 
+    framings, warnings = _member_records(geom)
+    unanchored = {
+        r: _line_reason(geom, anchorage.line[r]) for r, ok in anchorage.anchored.items() if not ok
+    }
+    for r in sorted(unanchored):
+        warnings.append((geom.guids[r], f"{unanchored[r]}; its brace points do not count"))
+    edges, support_edges = _apply_links(model, geom, links, framings, unanchored)
+    graph.add_edges_from(edges)
+    _finish_members(model, geom, links, framings, coverage, slab_bracing)
+
+    order_nodes = [g for i, g in enumerate(geom.guids) if geom.in_graph[i]]
+    load_order, levels, cycles = load_path_order(order_nodes, support_edges)
+    for cyc in cycles:
+        warnings.append(
+            (
+                cyc[0],
+                f"support cycle {cycle_path(cyc)}: these members bear on each other "
+                "(a model problem); their demand is not computed",
+            )
+        )
+    return Framing(
+        graph=graph,
+        members={geom.guids[i]: mf for i, mf in framings.items()},
+        load_order=load_order,
+        load_levels=levels,
+        cycles=cycles,
+        warnings=warnings,
+        bracing_lines=_guid_lines(anchorage, geom, model),
+    )
+
+
+def _member_records(geom: MemberGeometry) -> tuple[dict[int, MemberFraming], list[tuple[str, str]]]:
+    """An empty framing record for every member that frames (by row), and the warnings
+    about members whose depth was a fallback or whose length is zero."""
     framings: dict[int, MemberFraming] = {}
     warnings: list[tuple[str, str]] = []
     for i in np.flatnonzero(geom.is_connector).tolist():
@@ -95,13 +129,19 @@ def _build(
     for i in np.flatnonzero(geom.in_graph & ~geom.is_connector & geom.fallback).tolist():
         m = geom.members[i]
         warnings.append((m.guid, _fallback_note(m.profile_name)))
+    return framings, warnings
 
-    reasons = {
-        r: _line_reason(geom, anchorage.line[r]) for r, ok in anchorage.anchored.items() if not ok
-    }
-    for r in sorted(reasons):
-        warnings.append((geom.guids[r], f"{reasons[r]}; its brace points do not count"))
 
+def _apply_links(
+    model: Model,
+    geom: MemberGeometry,
+    links: Links,
+    framings: dict[int, MemberFraming],
+    unanchored: dict[int, Reason],
+) -> tuple[list[tuple[str, str, dict[str, FramingEdge]]], list[tuple[str, str]]]:
+    """Each link becomes a graph edge, a support of the member that frames in and a brace
+    point of its host (one that does not count where its bracing line reaches no anchor,
+    ``unanchored``). Returns the edges and the (beam, host) pairs the load path follows."""
     # per-link values gathered with numpy, then one pass in Python
     nm = geom.n
     names = np.array(geom.guids + [w.guid for w in model.walls], dtype=object)
@@ -109,21 +149,14 @@ def _build(
         [m.ifc_class for m in geom.members] + [WALL_CLASS] * len(model.walls), dtype=object
     )
     key = np.where(links.host_wall, nm + links.host, links.host)
-    conn = links.conn.tolist()
-    conn_guid = names[links.conn].tolist()
-    host_guid = names[key].tolist()
-    host_class = classes[key].tolist()
-    ends = [END_NAMES[e] for e in links.end.tolist()]
-    beam_conn = geom.is_beam[links.conn].tolist()
-    host_row = np.where(links.host_wall, -1, links.host).tolist()
     rows = zip(
-        conn,
-        conn_guid,
-        host_row,
-        host_guid,
-        host_class,
-        ends,
-        beam_conn,
+        links.conn.tolist(),
+        names[links.conn].tolist(),
+        np.where(links.host_wall, -1, links.host).tolist(),  # -1: a wall
+        names[key].tolist(),
+        classes[key].tolist(),
+        [END_NAMES[e] for e in links.end.tolist()],
+        geom.is_beam[links.conn].tolist(),
         links.station.tolist(),
         links.at.tolist(),
         links.kind.tolist(),
@@ -134,8 +167,8 @@ def _build(
     support_edges: list[tuple[str, str]] = []
     for c, cg, h, hg, h_class, end, is_beam, station, at, kind, flange in rows:
         counts, reason = True, None
-        if kind == KIND_BRACE and c in reasons:
-            counts, reason = False, reasons[c]
+        if kind == KIND_BRACE and c in unanchored:
+            counts, reason = False, unanchored[c]
         edge = FramingEdge(cg, hg, station, at, kind, end, flange, counts)
         edges.append((cg, hg, {"edge": edge}))
         own = framings[c]
@@ -157,9 +190,20 @@ def _build(
             )
             if kind == KIND_FRAMING and is_beam and cg not in host.carries:
                 host.carries.append(cg)
-    graph.add_edges_from(edges)
+    return edges, support_edges
 
-    linked = np.zeros((nm, 2), dtype=bool)
+
+def _finish_members(
+    model: Model,
+    geom: MemberGeometry,
+    links: Links,
+    framings: dict[int, MemberFraming],
+    coverage: dict[int, list[Interval]],
+    slab_bracing: bool,
+) -> None:
+    """Each member's free ends and state, its supports and brace points in station order,
+    the members it carries, its slab bracing, and the notes on framing with no slab."""
+    linked = np.zeros((geom.n, 2), dtype=bool)
     at_end = links.end >= 0
     linked[links.conn[at_end], links.end[at_end]] = True
     # a diaphragm ties the framing: a modelled slab, or a declared deck that braces
@@ -187,26 +231,6 @@ def _build(
                 mf.notes.append(NOTE_NO_SLAB)
             elif not slab_bracing and not coverage.get(i):
                 mf.notes.append(NOTE_SLAB_OFF)
-
-    order_nodes = [g for i, g in enumerate(geom.guids) if geom.in_graph[i]]
-    load_order, levels, cycles = load_path_order(order_nodes, support_edges)
-    for cyc in cycles:
-        warnings.append(
-            (
-                cyc[0],
-                f"support cycle {cycle_path(cyc)}: these members bear on each other "
-                "(a model problem); their demand is not computed",
-            )
-        )
-    return Framing(
-        graph=graph,
-        members={geom.guids[i]: mf for i, mf in framings.items()},
-        load_order=load_order,
-        load_levels=levels,
-        cycles=cycles,
-        warnings=warnings,
-        bracing_lines=_guid_lines(anchorage, geom, model),
-    )
 
 
 def _guid_lines(anchorage: Anchorage, geom: MemberGeometry, model: Model) -> nx.Graph:
