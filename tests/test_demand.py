@@ -11,7 +11,7 @@ from __future__ import annotations
 from pathlib import Path
 
 import pytest
-from loads_builders import (
+from builders import (
     E_STEEL,
     FT,
     IN,

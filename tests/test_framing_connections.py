@@ -11,7 +11,7 @@ from __future__ import annotations
 import math
 
 import pytest
-from framing_builders import beam_top_flush, column, member, model, w_section
+from builders import beam, column, member, model, w_section
 
 from ifccheck.config import FramingSettings
 from ifccheck.framing import analyse_framing
@@ -28,8 +28,8 @@ def bay(infill: list, girder: str = "W24X84") -> list:
         column("C2", 9, 0, 0, 8),
         column("C3", 0, 9, 0, 8),
         column("C4", 9, 9, 0, 8),
-        beam_top_flush("G1", (0, 0), (9, 0), girder, TOP),
-        beam_top_flush("G2", (0, 9), (9, 9), girder, TOP),
+        beam("G1", (0, 0), (9, 0), girder, TOP),
+        beam("G2", (0, 9), (9, 9), girder, TOP),
         *infill,
     ]
 
@@ -43,8 +43,8 @@ def test_infill_at_third_points_brace_the_girder_at_exact_stations():
         model(
             bay(
                 [
-                    beam_top_flush("I1", (3, 0), (3, 9), "W18X35", TOP),
-                    beam_top_flush("I2", (6, 0), (6, 9), "W18X35", TOP),
+                    beam("I1", (3, 0), (3, 9), "W18X35", TOP),
+                    beam("I2", (6, 0), (6, 9), "W18X35", TOP),
                 ]
             )
         )
@@ -79,8 +79,8 @@ def test_setback_of_13_mm_connects_and_300_mm_does_not():
         model(
             bay(
                 [
-                    beam_top_flush("I1", (3, near), (3, 9 - near), "W18X35", TOP),
-                    beam_top_flush("I2", (6, far), (6, 9 - near), "W18X35", TOP),
+                    beam("I1", (3, near), (3, 9 - near), "W18X35", TOP),
+                    beam("I2", (6, far), (6, 9 - near), "W18X35", TOP),
                 ]
             )
         )
@@ -94,7 +94,7 @@ def test_setback_of_13_mm_connects_and_300_mm_does_not():
     assert f.members["I1"].state == "supported"
     # widening the gap tolerance past the setback connects it (the rule is the gap)
     wide = analyse_framing(
-        model(bay([beam_top_flush("I2", (6, far), (6, 9 - near), "W18X35", TOP)])),
+        model(bay([beam("I2", (6, far), (6, 9 - near), "W18X35", TOP)])),
         FramingSettings(gap=0.25),
     )
     assert wide.members["I2"].state == "supported"
@@ -106,8 +106,8 @@ def test_top_flush_framing_of_different_depths():
         model(
             bay(
                 [
-                    beam_top_flush("I1", (3, 0), (3, 9), "W12X26", TOP),
-                    beam_top_flush("I2", (6, 0), (6, 9), "W27X94", TOP),
+                    beam("I1", (3, 0), (3, 9), "W12X26", TOP),
+                    beam("I2", (6, 0), (6, 9), "W27X94", TOP),
                 ],
                 girder="W8X31",
             )
@@ -136,7 +136,7 @@ def test_skewed_infill_at_60_degrees():
     back = (tw / 2 + 0.013) / math.sin(ang)  # stops 13 mm short of each web
     start = (x0 + back * ux, back * uy)
     end = (x1 - back * ux, 9.0 - back * uy)
-    f = analyse_framing(model(bay([beam_top_flush("SK", start, end, "W18X35", TOP)])))
+    f = analyse_framing(model(bay([beam("SK", start, end, "W18X35", TOP)])))
     # stations where the skewed axis meets the girder axes (by construction)
     assert framing_points(f, "G1")["SK"] == pytest.approx(x0, abs=MM)
     assert framing_points(f, "G2")["SK"] == pytest.approx(x1, abs=MM)
@@ -172,7 +172,7 @@ def test_girder_modelled_to_column_centrelines_and_to_column_faces():
 def test_column_ends_are_not_supported_by_beams():
     # a column standing on a girder at midspan (transfer): the girder is not
     # supported by it and the column gets no framing record
-    g = beam_top_flush("G1", (0, 0), (9, 0), "W24X84", TOP)
+    g = beam("G1", (0, 0), (9, 0), "W24X84", TOP)
     f = analyse_framing(
         model([column("C1", 0, 0, 0, 8), column("C2", 9, 0, 0, 8), g, column("CT", 4.5, 0, TOP, 8)])
     )
@@ -187,8 +187,8 @@ def test_collinear_beams_meeting_end_to_end_do_not_frame_into_each_other():
             [
                 column("C1", 0, 0, 0, 8),
                 column("C2", 12, 0, 0, 8),
-                beam_top_flush("B1", (0, 0), (6, 0), "W18X35", TOP),
-                beam_top_flush("B2", (6, 0), (12, 0), "W18X35", TOP),
+                beam("B1", (0, 0), (6, 0), "W18X35", TOP),
+                beam("B2", (6, 0), (12, 0), "W18X35", TOP),
             ]
         )
     )
@@ -203,8 +203,8 @@ def test_corner_without_column_the_deeper_beam_carries():
             [
                 column("C1", 0, 0, 0, 8),
                 column("C2", 9, 6, 0, 8),
-                beam_top_flush("A", (0, 0), (9, 0), "W24X84", TOP),
-                beam_top_flush("B", (9, 6), (9, 0), "W18X35", TOP),
+                beam("A", (0, 0), (9, 0), "W24X84", TOP),
+                beam("B", (9, 6), (9, 0), "W18X35", TOP),
             ]
         )
     )
@@ -216,7 +216,7 @@ def test_corner_without_column_the_deeper_beam_carries():
 
 def test_a_beam_of_unknown_section_braces_and_supports_nothing():
     # issue rule: only members with a known section (or columns and walls) brace or support
-    i1 = beam_top_flush("I1", (3, 0), (3, 9), "W18X35", TOP)
+    i1 = beam("I1", (3, 0), (3, 9), "W18X35", TOP)
     i1.section = None
     i1.profile_name = "XYZ-18"
     f = analyse_framing(model(bay([i1])))

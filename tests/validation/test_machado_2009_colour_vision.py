@@ -1,4 +1,8 @@
-"""The utilisation colour scale: stepped, ordered by lightness, readable by colour-blind readers.
+"""Source: G. M. Machado, M. M. Oliveira and L. A. F. Fernandes, "A Physiologically-based
+Model for Simulation of Color Vision Deficiency", *IEEE Transactions on Visualization and
+Computer Graphics* 15(6), 1291–1298, 2009.
+
+The utilisation colour scale: stepped, ordered by lightness, readable by colour-blind readers.
 
 Colour-vision deficiency is simulated with the matrices of Machado, Oliveira &
 Fernandes, "A Physiologically-based Model for Simulation of Color Vision

