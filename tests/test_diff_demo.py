@@ -116,6 +116,34 @@ def test_diff_names_the_weakened_beams(revisions):
     assert not pulled.lost_brace_points and pulled.lost_continuous_bracing == 0.0
 
 
+def test_diff_words_name_the_stage_of_each_cause(revisions):
+    """A construction-stage change is said as such, and each stage's causes fold with
+    their own stage's: L2-B1-40 (tributary 10 ft → 15 ft beside the pulled-short beam)
+    rises in both stages, and the two rises are two distinct reasons."""
+    from ifccheck.report.display import DisplayUnits
+    from ifccheck.report.wording import change_reasons, diff_names
+
+    a, b = revisions
+    d = diff_results(a, b)
+    du = DisplayUnits("imperial")
+    names = diff_names(d)
+    beams = {x.guid: x for x in b.beams}
+    by_name = {c.name: c for c in d.changes}
+    words = change_reasons(by_name["L2-B1-40"], du, names, beams[by_name["L2-B1-40"].guid])
+    rises = [w for w in words if "utilisation rose" in w]
+    assert len(rises) == 2
+    assert not rises[0].startswith("during construction")
+    assert rises[1].startswith("during construction, its utilisation rose")
+    # the girder's lower demand is never put as an improvement, nor as load gone missing
+    girder = change_reasons(by_name["L2-G0-30"], du, names, beams[by_name["L2-G0-30"].guid])
+    fell = next(w for w in girder if "no longer reaches it" in w)
+    assert "not an improvement" in fell and "nowhere" not in fell
+    # the roof girder's lost brace, longer Lb and outcome are each said once
+    roof = change_reasons(by_name["R-G90-0"], du, names, beams[by_name["R-G90-0"].guid])
+    assert sum("went from pass to fail" in w for w in roof) == 1
+    assert sum("lost the brace point" in w for w in roof) == 1
+
+
 def test_geometry_matching_when_guids_are_regenerated(revisions):
     a, b = revisions
     for beam in b.beams:

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import re
-from collections.abc import Mapping
+from collections.abc import Callable, Mapping
 
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.report.display import DisplayUnits, utilisation_text
@@ -396,6 +396,20 @@ def cause_words(
     at = " and ".join(where(s) for s in cause.stations)
     n = len(cause.stations)
     k = cause.kind
+    words = _cause_words(cause, k, who, at, n, length, ratio, status)
+    return f"during construction, {words}" if cause.stage == "construction" else words
+
+
+def _cause_words(
+    cause: ChangeCause,
+    k: CauseKind,
+    who: str,
+    at: str,
+    n: int,
+    length: Callable[[float | str | None], str],
+    ratio: Callable[[float | str | None], str],
+    status: Callable[[float | str | None], str],
+) -> str:
     if k is CauseKind.LOST_BRACES:
         return f"lost the brace point{'s' if n != 1 else ''} at {at}"
     if k is CauseKind.ADDED_BRACES:
@@ -421,8 +435,8 @@ def cause_words(
         return f"its utilisation fell from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.DEMAND_FELL_LOST_LOAD:
         return (
-            f"its demand fell because {who} no longer reaches it: the load it carried has "
-            "gone nowhere, so this is not an improvement"
+            f"its demand fell only because {who} no longer reaches it (that beam has lost "
+            "a support and is not checked), so this is not an improvement"
         )
     if k is CauseKind.TRIBUTARY_GREW:
         because = f" because {who} was removed" if who else ""
@@ -452,19 +466,34 @@ def change_reasons(
     A longer Lb is said with the lost brace or slab bracing that made it, and
     an outcome change with the utilisation change behind it.
     """
-    kinds = {x.kind for x in c.causes}
-    by_kind = {x.kind: x for x in c.causes}
+    causes = list(c.causes)
+    folded_into: dict[int, int] = {}  # index of the cause said → index of the one said with it
+    for i, x in enumerate(causes):
+        for folded, into in _FOLDED.items():
+            if x.kind not in into:
+                continue
+            j = next(
+                (
+                    j
+                    for j, y in enumerate(causes)
+                    if y.kind is folded
+                    and j not in folded_into.values()
+                    and (y.stage == x.stage or not y.stage or not x.stage)
+                ),
+                None,
+            )
+            if j is not None:
+                folded_into[i] = j
+                break
     out = []
-    for x in c.causes:
-        if any(k in kinds for k in _FOLDED.get(x.kind, ())):
+    for i, x in enumerate(causes):
+        if i in folded_into.values():
             continue
         text = cause_words(x, du, names, beam)
-        for folded, into in _FOLDED.items():
-            if x.kind in into and folded in by_kind:
-                extra = cause_words(by_kind[folded], du, names, beam)
-                joint = ", so " if folded is CauseKind.LB_GREW else " and it "
-                text += joint + extra
-                break
+        if i in folded_into:
+            other = causes[folded_into[i]]
+            joint = ", so " if other.kind is CauseKind.LB_GREW else " and it "
+            text += joint + cause_words(other, du, names, beam)
         out.append(text)
     return out
 
