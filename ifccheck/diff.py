@@ -350,8 +350,8 @@ def _name_lost_neighbours(changes: list[BeamChange], pairs, removed: list[BeamRe
 def _lost_loads(changes: list[BeamChange], pairs, new: CheckResult) -> None:
     """A beam whose demand fell because a member that loaded it lost its support.
 
-    Its change is "changed", never "strengthened": the load it carried has gone
-    nowhere (the member that delivered it is now unsupported or not checked).
+    Its change is "changed", never "strengthened": the member that delivered the load
+    is now unsupported and not checked, so the lower demand is no evidence of safety.
     """
     new_by = {b.guid: b for b in new.beams}
     unsettled = {b.guid for b in new.beams if b.outcome == "not_checked"}
