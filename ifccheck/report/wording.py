@@ -203,11 +203,13 @@ def cause_sentence(
         )
     if k is ExplainKind.BRACE_NOT_COUNTING:
         at = station_text(b, cause.stations[0], du) if cause.stations else "mid-length"
-        why = next(
-            (p.reason.text for p in b.brace_points
-             if p.by in cause.members and p.reason is not None), ""
-        )  # fmt: skip
+        point = next(
+            (p for p in b.brace_points if p.by in cause.members and p.reason is not None), None
+        )
+        why = point.reason.text if point is not None and point.reason is not None else ""
         why = f": {name_guids(why, names, with_guid=False)}" if why else ""
+        if point is not None and point.adequacy is not None and not point.adequacy.adequate:
+            why += f" ({adequacy_words(point.adequacy, du)})"  # the figures behind it
         return f"The brace point at {at} ({who}) does not count{why}."
     if k is ExplainKind.ASSUMED_GRADE:
         return (

@@ -126,6 +126,15 @@ def test_a_30_ft_w8x10_strut_is_too_weak_for_a_w24x84_girder_and_lb_doubles(tmp_
     assert not p.counts and p.reason.code is NotChecked.BRACE_INADEQUATE
     assert p.reason.text.endswith("strength below what AISC 360-16 Appendix 6 requires")
     assert g.governing.lb == pytest.approx(30 * FT, abs=1e-6)  # the brace no longer cuts it
+    # the explanation gives the figures in the model's units
+    from ifccheck.report.display import DisplayUnits
+    from ifccheck.report.wording import cause_sentence
+    from ifccheck.results import ExplainKind
+
+    assert g.explanation is not None
+    cause = next(c for c in g.explanation.causes if c.kind is ExplainKind.BRACE_NOT_COUNTING)
+    words = cause_sentence(g, cause, DisplayUnits("imperial"), {})
+    assert "strength 3.94 kip needed, 3.65 kip provided" in words and "not adequate" in words
     # "report" keeps the brace, and still says it falls short
     (tmp_path / "r").mkdir()
     q = mid_brace(check(frame(tmp_path / "r", "W8X10"), adequacy="report")["G1"])
