@@ -54,6 +54,7 @@ from ifccheck.sections import (
 )
 from ifccheck.sections.classify import Slenderness, is_built_up
 from ifccheck.sections.grades import fy_problem
+from ifccheck.sections.names import find_shape
 from ifccheck.sections.shapes import (
     angle_from_dimensions,
     double_angle_from_dimensions,
@@ -195,6 +196,11 @@ def _section(shape: str, fabrication: str | None) -> Section:
     section = lookup(shape)
     if section is None:
         section = _dimension_section(shape)
+    if section is None:  # the spellings models write in names: "RHS 200x100x8", "HE 300 A"
+        named = find_shape(shape)
+        if named is not None and named.section is None and named.reason is not None:
+            raise UsageError(f"shape {shown(shape)}: {named.reason.text}")
+        section = named.section if named is not None else None
     if section is None:
         raise UsageError(
             f"unknown shape {shown(shape)}: not a known designation and not a dimension spec "
