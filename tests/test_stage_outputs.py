@@ -1,0 +1,151 @@
+"""Both stages in the outputs: JSON, CSV, the property sets and the BCF topics.
+
+Models: the pour bay of tests/stage_builders.py (our own; B10 fails only during
+construction, at 2.03, B20 fails in both stages) and the demo's revision A with
+sample_models/quillfeather.toml (72 beams, 21 failing, every failure construction-only).
+Expected values come from the result objects of the same run, and the construction
+utilisation of the W21X44 at 10 ft centres over 30 ft from the hand calculation of
+tests/test_construction_stage.py (ASCE 37-14 §2.2 (from memory) with ASCE 7-16 §2.3.1
+(2), 1.2D + 1.6C; AISC 360-16 Eqs. F1-1, F2-3 and F2-4): 2.03.
+"""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+
+import jsonschema
+import pytest
+from stage_builders import pour_bay_result
+
+from ifccheck.check import run_check
+from ifccheck.config import load_settings
+from ifccheck.report.json_out import RESULTS_SCHEMA, results_document, write_results_json
+
+SAMPLES = Path(__file__).parents[1] / "sample_models"
+PSF = 47.88025898  # Pa (NIST SP 811)
+HAND_RATIO = 2.03  # tests/test_construction_stage.py, worked by hand
+
+
+@pytest.fixture(scope="module")
+def bay(tmp_path_factory):
+    model, result = pour_bay_result(tmp_path_factory.mktemp("bay") / "bay.ifc")
+    return model, result, {b.name: b for b in result.beams}
+
+
+@pytest.fixture(scope="module")
+def demo():
+    result, _, _ = run_check(
+        SAMPLES / "quillfeather-rev-a.ifc", load_settings(SAMPLES / "quillfeather.toml")
+    )
+    return result, {b.name: b for b in result.beams}
+
+
+def _validator() -> jsonschema.Draft202012Validator:
+    return jsonschema.Draft202012Validator(json.loads(RESULTS_SCHEMA.read_text()))
+
+
+# --- JSON ------------------------------------------------------------------------------
+def test_json_beam_stages_match_the_result(bay):
+    _, result, beams = bay
+    doc = results_document(result)
+    assert list(_validator().iter_errors(doc)) == []
+    by_name = {b["name"]: b for b in doc["beams"]}
+    b10, obj = by_name["B10"], beams["B10"]
+    assert (b10["stage"], b10["outcome"]) == ("construction", "fail")
+    service, construction = b10["stages"]
+    assert service["stage"] == "in_service" and service["outcome"] == "pass"
+    assert construction["stage"] == "construction" and construction["outcome"] == "fail"
+    assert construction["utilisation"] == pytest.approx(HAND_RATIO, abs=0.01)
+    st = obj.stage_result("construction")
+    assert st is not None and st.governing_segment is not None
+    assert construction["governing_segment"] == st.governing_segment
+    seg = b10["segments"][construction["governing_segment"]]
+    assert seg["stage"] == "construction" and not seg["continuous"]
+    assert seg["lb"] == pytest.approx(30 * 0.3048, abs=0.01)
+    assert construction["load_combination"] == seg["load_combination"] == "1.2D+1.6C"
+    assert construction["controlling_limit"] == "flexure"
+    assert construction["deflection_utilisation"] is None  # strength only during the pour
+    # the top-level figures are the governing (construction) stage's
+    assert b10["utilisation"] == construction["utilisation"]
+    assert b10["governing_segment"] == construction["governing_segment"]
+    # in service the slab braces the top flange; its own governing segment says so
+    sseg = b10["segments"][service["governing_segment"]]
+    assert sseg["stage"] == "in_service"
+    assert service["utilisation"] == pytest.approx(obj.stages[0].utilisation)
+    assert service["utilisation"] < 1.0
+    # the construction demand: wet concrete and construction live load on the beam
+    cases = {x["case"] for x in construction["demand"]["line_loads"]}
+    assert cases == {"D", "C"}
+    # B20 fails in both stages
+    assert [s["outcome"] for s in by_name["B20"]["stages"]] == ["fail", "fail"]
+
+
+def test_json_design_basis_per_stage(bay):
+    _, result, _ = bay
+    stages = results_document(result)["basis"]["stages"]
+    assert [s["stage"] for s in stages] == ["in_service", "construction"]
+    service, construction = stages
+    assert construction["slab_bracing"] is False and construction["levels"] == ["Level 2"]
+    combos = {c["name"]: c for c in construction["combinations"]}
+    assert set(combos) == {"1.4D", "1.2D+1.6C"}
+    assert combos["1.2D+1.6C"]["number"] == "2"
+    assert combos["1.2D+1.6C"]["factors"] == {"D": 1.2, "C": 1.6}
+    assert "ASCE 37-14" in combos["1.2D+1.6C"]["source"]
+    assert "ASCE 7-16 §2.3.1 (2)" in combos["1.2D+1.6C"]["source"]
+    assert all(c["purpose"] == "strength" for c in construction["combinations"])
+    # in service: ASCE 7-16 §2.3.1 by number, then the deflection combinations
+    numbers = {c["name"]: c["number"] for c in service["combinations"]}
+    assert numbers["1.4D"] == "1" and numbers["1.2D+1.6L"] == "2"
+    assert {"L", "D+L"} <= set(numbers)
+    loads = {(x["case"], x["load"]): x for x in construction["loads"]}
+    # the wet concrete from the 5.5 in slab at 2400 kg/m³: one row for the one slab
+    wet = loads[("D", "wet concrete")]
+    assert wet["pressure"] == pytest.approx(5.5 * 0.0254 * 2400 * 9.80665, rel=1e-6)
+    assert wet["source"] == "slab:0.1397"
+    assert loads[("C", "construction live")]["pressure"] == pytest.approx(20 * PSF, rel=1e-6)
+    assert loads[("C", "construction live")]["source"] == "construction.live"
+    assert not loads[("C", "construction live")]["default"]  # the settings give it
+    rows = {(r["level"], r["case"]): r for r in construction["load_balance"]}
+    assert rows[("Level 2", "C")]["applied"] == pytest.approx(900 * 0.3048**2 * 20 * PSF)
+    assert construction["summary"] == {
+        "pass": 2, "fail": 4, "not_checked": 0, "total": 6, "governing": 4
+    }  # fmt: skip
+    # the in-service basis is the one the document gave before, now with slab and number
+    doc = results_document(result)["basis"]
+    assert doc["loads"] == service["loads"] and doc["combinations"] == service["combinations"]
+
+
+def test_json_demo_validates_and_shows_the_pour_failures(demo, tmp_path):
+    result, beams = demo
+    path = write_results_json(result, tmp_path / "a.results.json", detail=True)
+    doc = json.loads(path.read_text(encoding="utf-8"))
+    assert list(_validator().iter_errors(doc)) == []
+    failing = [b for b in doc["beams"] if b["outcome"] == "fail"]
+    assert len(failing) == 21
+    for b in failing:  # every failure of revision A is construction-only
+        assert b["stage"] == "construction"
+        assert [s["outcome"] for s in b["stages"]] == ["pass", "fail"]
+    b = next(x for x in doc["beams"] if x["name"] == "L2-B1-10")
+    construction = b["stages"][1]
+    assert construction["utilisation"] == pytest.approx(HAND_RATIO, abs=0.01)
+    assert construction["utilisation"] == beams["L2-B1-10"].stage_result("construction").utilisation
+    assert construction["diagram"] is not None and construction["curve"]
+    # a roof beam is checked in service only (no concrete poured on the roof)
+    roof = next(x for x in doc["beams"] if x["name"] == "R-B1-7.5")
+    assert [s["stage"] for s in roof["stages"]] == ["in_service"]
+    basis = doc["basis"]["stages"]
+    assert basis[1]["summary"]["fail"] == 21 and basis[1]["levels"] == ["Level 2"]
+
+
+def test_json_without_a_stage_breakdown_is_its_in_service_stage():
+    import result_fixtures as rf
+
+    result = rf.check_result()
+    doc = results_document(result)
+    assert list(_validator().iter_errors(doc)) == []
+    for b, out in zip(result.beams, doc["beams"], strict=True):
+        assert [s["stage"] for s in out["stages"]] == ["in_service"]
+        assert out["stages"][0]["outcome"] == b.outcome
+        assert out["stages"][0]["utilisation"] == b.utilisation
+    assert doc["basis"]["stages"] == []
