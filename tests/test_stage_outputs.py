@@ -149,3 +149,55 @@ def test_json_without_a_stage_breakdown_is_its_in_service_stage():
         assert out["stages"][0]["outcome"] == b.outcome
         assert out["stages"][0]["utilisation"] == b.utilisation
     assert doc["basis"]["stages"] == []
+
+
+# --- CSV -------------------------------------------------------------------------------
+def _csv(result, units: str) -> dict[str, dict[str, str]]:
+    import csv
+    import io
+
+    from ifccheck.report.csv_out import beams_csv
+
+    return {r["name"]: r for r in csv.DictReader(io.StringIO(beams_csv(result, units)))}
+
+
+def test_csv_stage_columns_match_the_result(bay):
+    _, result, beams = bay
+    rows = _csv(result, "imperial")
+    b10, obj = rows["B10"], beams["B10"]
+    assert b10["governing_stage"] == "construction" and b10["outcome"] == "fail"
+    assert (b10["in_service_outcome"], b10["construction_outcome"]) == ("pass", "fail")
+    assert float(b10["construction_utilisation"]) == pytest.approx(HAND_RATIO, abs=0.01)
+    for stage in ("in_service", "construction"):
+        st = obj.stage_result(stage)
+        assert st is not None and st.governing_segment is not None
+        seg = obj.segments[st.governing_segment]
+        assert float(b10[f"{stage}_utilisation"]) == pytest.approx(st.utilisation, rel=1e-5)
+        assert float(b10[f"{stage}_lb_ft"]) == pytest.approx(seg.lb / 0.3048, rel=1e-5)
+        assert b10[f"{stage}_load_combination"] == seg.load_combination
+    assert float(b10["construction_lb_ft"]) == pytest.approx(30.0, abs=0.01)
+    assert float(b10["in_service_lb_ft"]) == 0.0  # the slab braces the top flange
+    assert b10["construction_load_combination"] == "1.2D+1.6C"
+    assert (rows["B20"]["in_service_outcome"], rows["B20"]["construction_outcome"]) == (
+        "fail", "fail"
+    )  # fmt: skip
+    si = _csv(result, "si")["B10"]
+    assert float(si["construction_lb_m"]) == pytest.approx(30 * 0.3048, abs=0.003)
+
+
+def test_csv_demo_pour_failures_and_empty_cells(demo):
+    result, beams = demo
+    rows = _csv(result, "imperial")
+    failing = [r for r in rows.values() if r["outcome"] == "fail"]
+    assert len(failing) == 21
+    assert all(r["governing_stage"] == "construction" for r in failing)
+    assert all((r["in_service_outcome"], r["construction_outcome"]) == ("pass", "fail")
+               for r in failing)  # fmt: skip
+    roof = rows["R-B1-7.5"]  # checked in service only: the construction cells are empty
+    assert roof["in_service_outcome"] == "pass" and roof["governing_stage"] == "in_service"
+    for col in ("construction_outcome", "construction_utilisation", "construction_lb_ft",
+                "construction_load_combination"):  # fmt: skip
+        assert roof[col] == ""
+    assert float(rows["L2-B1-10"]["construction_utilisation"]) == pytest.approx(
+        beams["L2-B1-10"].stage_result("construction").utilisation, rel=1e-5
+    )
