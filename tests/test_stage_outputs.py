@@ -201,3 +201,56 @@ def test_csv_demo_pour_failures_and_empty_cells(demo):
     assert float(rows["L2-B1-10"]["construction_utilisation"]) == pytest.approx(
         beams["L2-B1-10"].stage_result("construction").utilisation, rel=1e-5
     )
+
+
+# --- property sets -----------------------------------------------------------------------
+@pytest.mark.parametrize("schema", ["IFC2X3", "IFC4"])
+def test_psets_carry_the_governing_stage_and_the_construction_figures(tmp_path, schema):
+    from test_writeback import _check_copy, _props
+
+    model, result = pour_bay_result(tmp_path / "bay.ifc", schema)
+    copy = _check_copy(model, tmp_path / "bay.checked.ifc", result)  # valid IFC
+    beams = {b.name: b for b in result.beams}
+    b10 = beams["B10"]
+    props = _props(copy, b10.guid)
+    value = {k: p.NominalValue.wrappedValue for k, p in props.items()}
+    kind = {k: p.NominalValue.is_a() for k, p in props.items()}
+    assert value["GoverningStage"] == "construction" and kind["GoverningStage"] == "IfcLabel"
+    assert value["Outcome"] == "fail"
+    assert (value["InServiceOutcome"], value["ConstructionOutcome"]) == ("pass", "fail")
+    assert kind["ConstructionOutcome"] == "IfcLabel"
+    assert kind["ConstructionUtilisation"] == kind["InServiceUtilisation"] == "IfcRatioMeasure"
+    assert value["ConstructionUtilisation"] == pytest.approx(HAND_RATIO, abs=0.01)
+    assert value["ConstructionUtilisation"] == pytest.approx(
+        b10.stage_result("construction").utilisation
+    )
+    assert value["InServiceUtilisation"] == pytest.approx(
+        b10.stage_result("in_service").utilisation
+    )
+    # the model is in feet: Lb = 30 ft in the file's unit
+    assert kind["ConstructionUnbracedLength"] == "IfcLengthMeasure"
+    assert value["ConstructionUnbracedLength"] == pytest.approx(30.0, abs=0.01)
+    assert value["ConstructionLoadCombination"] == "1.2D+1.6C"
+    b20 = {k: p.NominalValue.wrappedValue for k, p in _props(copy, beams["B20"].guid).items()}
+    assert (b20["InServiceOutcome"], b20["ConstructionOutcome"]) == ("fail", "fail")
+    assert not any(n.startswith("Pset_") for n in {p.Name for p in copy.by_type("IfcPropertySet")})
+
+
+def test_psets_demo_construction_only_failures(tmp_path, demo):
+    import ifcopenshell
+    import ifcopenshell.util.element
+
+    from ifccheck.ifc.writeback import PSET_NAME, write_checked_ifc
+
+    result, beams = demo
+    out = write_checked_ifc(SAMPLES / "quillfeather-rev-a.ifc", result, tmp_path / "a.ifc")
+    copy = ifcopenshell.open(str(out))
+    for b in result.beams:
+        p = ifcopenshell.util.element.get_psets(copy.by_guid(b.guid))[PSET_NAME]
+        assert p["GoverningStage"] == b.stage
+        if b.outcome == "fail":  # every failure of revision A is construction-only
+            assert (p["InServiceOutcome"], p["ConstructionOutcome"]) == ("pass", "fail")
+        if b.stage_result("construction") is None:  # the roof, the canopy
+            assert not any(k.startswith("Construction") for k in p)
+    p = ifcopenshell.util.element.get_psets(copy.by_guid(beams["L2-B1-10"].guid))[PSET_NAME]
+    assert p["ConstructionUtilisation"] == pytest.approx(HAND_RATIO, abs=0.01)
