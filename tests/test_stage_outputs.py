@@ -254,3 +254,58 @@ def test_psets_demo_construction_only_failures(tmp_path, demo):
             assert not any(k.startswith("Construction") for k in p)
     p = ifcopenshell.util.element.get_psets(copy.by_guid(beams["L2-B1-10"].guid))[PSET_NAME]
     assert p["ConstructionUtilisation"] == pytest.approx(HAND_RATIO, abs=0.01)
+
+
+# --- BCF -------------------------------------------------------------------------------
+def _bcf_topics(result, path: Path) -> dict[str, object]:
+    from test_report_bcf import _topics
+
+    from ifccheck.report.bcf_out import write_issues_bcf
+
+    topics = _topics(write_issues_bcf(result, path, "imperial"))
+    return {guids[0]: t.topic for t, guids in topics if len(guids) == 1}
+
+
+def test_bcf_construction_only_and_both_stages(bay, tmp_path):
+    _, result, beams = bay
+    topics = _bcf_topics(result, tmp_path / "bay.bcf")
+    b10 = topics[beams["B10"].guid]
+    assert b10.title.startswith("B10 (W21X44, Level 2) fails during construction")
+    assert "elastic lateral-torsional buckling" in b10.title
+    assert b10.title.endswith("passes in service")
+    text = b10.description
+    assert text.startswith("This beam fails during construction")
+    assert "passes in service (utilisation" in text
+    assert "Lb = 30.00 ft" in text and "under 1.2D+1.6C" in text  # the construction segment
+    assert "segment 1 of 1" in text  # counted among the construction stage's segments
+    assert "deck is not attached" in text
+    # the remedies as the engineer's options, not as instructions
+    assert "for the engineer to choose from: shoring the beam" in text
+    assert "deck fastened to the beam before the pour" in text
+    assert "In service:" not in text  # nothing fails in service
+    b20 = topics[beams["B20"].guid]
+    assert "fails in service in deflection" in b20.title
+    assert "and during construction in elastic lateral-torsional buckling" in b20.title
+    assert "In service: live-load deflection" in b20.description
+    assert "During construction: the governing length" in b20.description
+    assert "for the engineer to choose from: shoring" in b20.description
+    # the girders pass in both stages: no topic
+    assert beams["G0"].guid not in topics
+
+
+def test_bcf_demo_pour_failures_say_so(demo, tmp_path):
+    result, beams = demo
+    topics = _bcf_topics(result, tmp_path / "a.bcf")
+    failing = [b for b in result.beams if b.outcome == "fail"]
+    assert len(failing) == 21
+    for b in failing:
+        t = topics[b.guid]
+        assert "fails during construction (wet concrete)" in t.title
+        assert t.title.endswith("; passes in service")
+        assert "shoring the beam" in t.description
+    t = topics[beams["L2-B1-10"].guid]
+    assert t.title == (
+        "L2-B1-10 (W21X44, Level 2) fails during construction (wet concrete) in elastic "
+        "lateral-torsional buckling, utilisation 2.04; passes in service"
+    )  # 2.034 (the hand value 2.03) shown rounded up
+    assert "Lb = 30.00 ft" in t.description and "under 1.2D+1.6C" in t.description
