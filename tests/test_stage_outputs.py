@@ -309,3 +309,41 @@ def test_bcf_demo_pour_failures_say_so(demo, tmp_path):
         "lateral-torsional buckling, utilisation 2.04; passes in service"
     )  # 2.034 (the hand value 2.03) shown rounded up
     assert "Lb = 30.00 ft" in t.description and "under 1.2D+1.6C" in t.description
+
+
+# --- the revision comparison -------------------------------------------------------------
+def test_diff_outputs_name_the_stage_of_each_change(demo, tmp_path):
+    import csv
+
+    from ifccheck.diff import diff_results
+    from ifccheck.report.csv_out import write_diff_csv
+    from ifccheck.report.json_out import DIFF_SCHEMA, diff_document
+
+    old, _ = demo
+    new, _, _ = run_check(
+        SAMPLES / "quillfeather-rev-b.ifc", load_settings(SAMPLES / "quillfeather.toml")
+    )
+    diff = diff_results(old, new)
+    doc = diff_document(diff, "imperial")
+    jsonschema.validate(doc, json.loads(DIFF_SCHEMA.read_text()))
+    change = next(c for c in diff.changes if c.name == "L2-B1-40")
+    out = doc["beams"][change.guid]
+    assert out["stage"] == change.stage
+    rose = {x["stage"]: x for x in out["causes"] if x["kind"] == "utilisation_rose"}
+    assert set(rose) == {"in_service", "construction"}  # its wider strip, in both stages
+    for stage, x in rose.items():
+        before = old.beams[[b.guid for b in old.beams].index(change.old_guid)]
+        after = new.beams[[b.guid for b in new.beams].index(change.guid)]
+        assert x["before"] == pytest.approx(before.stage_result(stage).utilisation)
+        assert x["after"] == pytest.approx(after.stage_result(stage).utilisation)
+    words = out["reasons"]
+    assert any(w.startswith("its utilisation in service rose from") for w in words)
+    assert any(w.startswith("its utilisation during construction rose from 2.04") for w in words)
+    # a roof beam, checked in service only in both revisions, says no stage
+    roof = next(c for c in doc["beams"].values() if c["name"] == "R-G90-0")
+    assert all("in service" not in w and "construction" not in w for w in roof["reasons"])
+    path = write_diff_csv(diff, tmp_path / "diff.csv", "imperial")
+    with path.open(newline="") as fh:
+        rows = {r["name"]: r for r in csv.DictReader(fh)}
+    assert rows["L2-B1-40"]["stage"] == change.stage
+    assert "during construction rose" in rows["L2-B1-40"]["reasons"]

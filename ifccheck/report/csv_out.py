@@ -119,6 +119,7 @@ DIFF_COLUMNS: tuple[Column, ...] = (
     ("storey", None, lambda c: c.storey),
     ("matched_by", None, lambda c: c.matched_by),
     ("change", None, lambda c: c.change),
+    ("stage", None, lambda c: c.stage),
     ("outcome_before", None, lambda c: c.outcome_before),
     ("outcome_after", None, lambda c: c.outcome_after),
     ("utilisation_before", None, lambda c: c.utilisation_before),

@@ -425,6 +425,7 @@ def change_dict(
         "storey": c.storey,
         "matched_by": c.matched_by,
         "change": c.change,
+        "stage": c.stage,
         "outcome_before": c.outcome_before,
         "outcome_after": c.outcome_after,
         "utilisation_before": num(c.utilisation_before),
@@ -454,6 +455,7 @@ def cause_dict(x: ChangeCause) -> dict[str, Any]:
         "members": list(x.members),
         "before": value(x.before),
         "after": value(x.after),
+        "stage": x.stage,
     }
 
 

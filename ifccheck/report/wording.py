@@ -508,10 +508,13 @@ def cause_words(
     du: DisplayUnits,
     names: Mapping[str, str],
     beam: BeamResult | None = None,
+    staged: bool = False,
 ) -> str:
     """One cause of a change in words, quantities in the display units.
 
-    With the new revision's ``beam``, stations are given from its named ends.
+    With the new revision's ``beam``, stations are given from its named ends; with
+    ``staged`` (the change has causes of the construction stage), a Lb or utilisation
+    cause names its stage ("its utilisation during construction rose ...").
     """
 
     def length(v: float | str | None) -> str:
@@ -540,19 +543,21 @@ def cause_words(
         return f"now also bears on {who}"
     if k is CauseKind.LOST_SLAB_BRACING:
         return f"lost {length(cause.after)} of slab bracing"
+    # the stage a Lb or utilisation cause is of, where the change has causes of both
+    when = f" {STAGE_WORDS[cause.stage]}" if staged and cause.stage in STAGE_WORDS else ""
     if k is CauseKind.LB_GREW:
         if cause.before == 0.0:  # the governing length was braced throughout by the slab
             return (
-                "its governing length, braced continuously by the slab before, now has "
-                f"Lb = {length(cause.after)}"
+                f"its governing length{when}, braced continuously by the slab before, now "
+                f"has Lb = {length(cause.after)}"
             )
-        return f"its governing Lb grew from {length(cause.before)} to {length(cause.after)}"
+        return f"its governing Lb{when} grew from {length(cause.before)} to {length(cause.after)}"
     if k in (CauseKind.OUTCOME_WORSE, CauseKind.OUTCOME_BETTER):
         return f"went from {status(cause.before)} to {status(cause.after)}"
     if k is CauseKind.UTILISATION_ROSE:
-        return f"its utilisation rose from {ratio(cause.before)} to {ratio(cause.after)}"
+        return f"its utilisation{when} rose from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.UTILISATION_FELL:
-        return f"its utilisation fell from {ratio(cause.before)} to {ratio(cause.after)}"
+        return f"its utilisation{when} fell from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.DEMAND_FELL_LOST_LOAD:
         return (
             f"its demand fell because {who} no longer reaches it: the load it carried has "
@@ -587,20 +592,43 @@ def change_reasons(
     an outcome change with the utilisation change behind it.
     """
     kinds = {x.kind for x in c.causes}
-    by_kind = {x.kind: x for x in c.causes}
+    # name the stage of Lb and utilisation causes where the beam has more than one
+    staged = any(x.stage == "construction" for x in c.causes) or (
+        beam is not None and len(beam.stages) > 1
+    )
+    hosts = _fold_hosts(c.causes, kinds)
     out = []
-    for x in c.causes:
+    for i, x in enumerate(c.causes):
         if any(k in kinds for k in _FOLDED.get(x.kind, ())):
             continue
-        text = cause_words(x, du, names, beam)
-        for folded, into in _FOLDED.items():
-            if x.kind in into and folded in by_kind:
-                extra = cause_words(by_kind[folded], du, names, beam)
-                joint = ", so " if folded is CauseKind.LB_GREW else " and it "
-                text += joint + extra
-                break
+        text = cause_words(x, du, names, beam, staged)
+        extras = [y for j, y in enumerate(c.causes) if hosts.get(j) == i]
+        if extras:
+            joint = ", so " if extras[0].kind is CauseKind.LB_GREW else " and it "
+            text += joint + " and ".join(cause_words(y, du, names, beam, staged) for y in extras)
         out.append(text)
     return out
+
+
+def _fold_hosts(causes: list[ChangeCause], kinds: set[CauseKind]) -> dict[int, int]:
+    """Index of each folded cause → index of the cause it is said with: every longer Lb
+    with the first lost bracing; an outcome change with the utilisation change that
+    crossed 1.0 (else the first of them)."""
+    hosts: dict[int, int] = {}
+    for j, y in enumerate(causes):
+        into = _FOLDED.get(y.kind, ())
+        candidates = [i for i, x in enumerate(causes) if x.kind in into]
+        if not candidates or not any(k in kinds for k in into):
+            continue
+
+        def crosses(i: int) -> bool:
+            a, b = causes[i].before, causes[i].after
+            if not isinstance(a, int | float) or not isinstance(b, int | float):
+                return False
+            return min(a, b) <= 1.0 < max(a, b)
+
+        hosts[j] = next((i for i in candidates if crosses(i)), candidates[0])
+    return hosts
 
 
 def diff_names(diff: DiffResult) -> dict[str, str]:
