@@ -347,3 +347,27 @@ def test_diff_outputs_name_the_stage_of_each_change(demo, tmp_path):
         rows = {r["name"]: r for r in csv.DictReader(fh)}
     assert rows["L2-B1-40"]["stage"] == change.stage
     assert "during construction rose" in rows["L2-B1-40"]["reasons"]
+
+
+# --- the design basis per stage ------------------------------------------------------------
+def test_basis_functions_take_a_stage_by_index_or_name(demo):
+    from ifccheck.report.basis import combinations, level_loads, load_source_text
+    from ifccheck.report.display import DisplayUnits
+
+    result, _ = demo
+    assert level_loads(result, "construction") == level_loads(result, 1)
+    assert level_loads(result, "in_service") == level_loads(result) == level_loads(result, 0)
+    loads = level_loads(result, "construction")
+    # Level 2's two slabs (the floor and the balcony) are both 5.5 in: one wet-concrete row
+    wet = [x for x in loads if x.what == "wet concrete"]
+    assert [(x.level, x.case, x.source) for x in wet] == [("Level 2", "D", "slab:0.1397")]
+    assert wet[0].pressure == pytest.approx(0.1397 * 2400 * 9.80665, rel=1e-6)
+    words = load_source_text(DisplayUnits("imperial"), wet[0], result)
+    assert words.startswith("modelled slab 5.5") and "(default density)" in words
+    live = next(x for x in loads if x.case == "C")
+    assert live.pressure == pytest.approx(20 * PSF, rel=1e-6)  # the demo settings' 20 psf
+    assert not any(x.what == "slab self-weight" for x in loads)  # in service only
+    names = [(c.name, c.number, c.purpose) for c in combinations(result, "construction")]
+    assert names == [("1.4D", "1", "strength"), ("1.2D+1.6C", "2", "strength")]
+    assert combinations(result, "in_service") == combinations(result)
+    assert {"L", "D+L"} <= {c.name for c in combinations(result)}
