@@ -130,10 +130,10 @@ def test_diff_words_name_the_stage_of_each_cause(revisions):
     beams = {x.guid: x for x in b.beams}
     by_name = {c.name: c for c in d.changes}
     words = change_reasons(by_name["L2-B1-40"], du, names, beams[by_name["L2-B1-40"].guid])
-    rises = [w for w in words if "utilisation rose" in w]
+    rises = [w for w in words if "rose from" in w and "utilisation" in w]
     assert len(rises) == 2
-    assert not rises[0].startswith("during construction")
-    assert rises[1].startswith("during construction, its utilisation rose")
+    assert "its utilisation in service rose" in rises[0]
+    assert "its utilisation during construction rose" in rises[1]
     # the girder's lower demand is never put as an improvement, nor as load gone missing
     girder = change_reasons(by_name["L2-G0-30"], du, names, beams[by_name["L2-G0-30"].guid])
     fell = next(w for w in girder if "no longer reaches it" in w)

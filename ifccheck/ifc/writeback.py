@@ -53,6 +53,9 @@ _KINDS = {
     "moment": ("TORQUEUNIT", "IfcTorqueMeasure", None),
 }
 
+# stage → the prefix of its properties (the governing stage's figures are unprefixed)
+_STAGE_PREFIX = {"in_service": "InService", "construction": "Construction"}
+
 _GUID_NAMESPACE = uuid.UUID("6f1d3c52-2b0e-4d7a-9a51-3f0c8e7d2a10")
 
 
@@ -352,6 +355,7 @@ class _PsetWriter:
             props.append(self._prop("ControllingLimit", label, b.controlling_limit))
         if b.fails_on:
             props.append(self._prop("FailsOn", label, " ".join(b.fails_on)))
+        props += self.stage_properties(b)
         seg = b.governing
         if seg is not None:
             props.append(self._prop("LimitState", label, seg.limit_state))
@@ -394,6 +398,39 @@ class _PsetWriter:
         props.append(self._prop("ToolVersion", label, f"{r.tool} {r.version}"))
         props.append(self._prop("CheckedAt", self.date_type, r.checked_at))
         return [p for p in props if p is not None]
+
+    def stage_properties(self, b: BeamResult) -> list[Any]:
+        """The governing stage, and each stage's outcome and utilisation (with, during
+        construction, the governing Lb and combination); only for the stages the beam
+        was checked in."""
+        label, ratio = "IfcLabel", "IfcRatioMeasure"
+        props: list[Any] = []
+        if not b.stages:
+            return props
+        if b.outcome != "not_checked":
+            props.append(self._prop("GoverningStage", label, b.stage))
+        for st in b.stages:
+            prefix = _STAGE_PREFIX.get(st.stage)
+            if prefix is None:
+                continue
+            props.append(self._prop(f"{prefix}Outcome", label, st.outcome))
+            if st.utilisation is not None and math.isfinite(st.utilisation):
+                props.append(self._prop(f"{prefix}Utilisation", ratio, float(st.utilisation)))
+            i = st.governing_segment
+            if st.stage == "construction" and i is not None and 0 <= i < len(b.segments):
+                seg = b.segments[i]
+                props.append(
+                    self._quantity(
+                        "ConstructionUnbracedLength", "length", seg.lb,
+                        "Lb of the governing segment during construction; 0 where the "
+                        "attached deck braces the flange continuously",
+                    )
+                )  # fmt: skip
+                if seg.load_combination:
+                    props.append(
+                        self._prop("ConstructionLoadCombination", label, seg.load_combination)
+                    )
+        return props
 
     def write(self, element: ifcopenshell.entity_instance, b: BeamResult) -> None:
         props = self.properties(b)

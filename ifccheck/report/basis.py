@@ -11,13 +11,21 @@ Quantities stay SI here; :func:`setting_text` and :func:`load_text` word them.
 
 from __future__ import annotations
 
+import re
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass
 from typing import Any
 
 from ifccheck.loads.combinations import SERVICE, Combination, strength_combinations
 from ifccheck.report.display import DisplayUnits
-from ifccheck.results import CheckResult
+from ifccheck.results import (
+    STAGES,
+    BeamResult,
+    BeamStageResult,
+    CheckResult,
+    StageName,
+    StageResult,
+)
 from ifccheck.units import G, to_si
 
 # load setting → (load case, words); keys the settings may carry per level
@@ -72,8 +80,9 @@ class LevelLoad:
     case: str
     what: str
     pressure: float  # Pa
-    source: str  # the setting's key, or how the value was found
+    source: str  # the setting's key, "slab:<thickness m>" for a slab's weight
     default: bool
+    slab: str = ""  # the slab's GUID where that slab's own settings entry gives the load
 
 
 def _is_default(explicit: Iterable[str], key: str) -> bool:
@@ -122,26 +131,74 @@ def level_names(result: CheckResult) -> list[str]:
     return list(dict.fromkeys(names))
 
 
-def level_loads(result: CheckResult, stage: int = 0) -> list[LevelLoad]:
-    """The area loads on every level of one stage (in service by default), by case: the
-    stage's loads as the load path applied them, then the slabs' self-weight in service."""
+def stage_index(result: CheckResult, stage: int | str = 0) -> int:
+    """The index in ``result.stages`` of a stage given by index or by name
+    ("in_service", "construction"); a name the result does not carry gives its
+    index past the end (no loads, the standard's combinations)."""
+    if isinstance(stage, int):
+        return stage
+    for i, st in enumerate(result.stages):
+        if st.stage == stage:
+            return i
+    return len(result.stages) if stage != "in_service" else 0
+
+
+def stage_record(result: CheckResult, stage: int | str = 0) -> StageResult | None:
+    """The design basis and findings of one stage, None where the check did not run it."""
+    i = stage_index(result, stage)
+    return result.stages[i] if 0 <= i < len(result.stages) else None
+
+
+def _stage_name(result: CheckResult, stage: int | str) -> str:
+    st = stage_record(result, stage)
+    if st is not None:
+        return st.stage
+    return stage if isinstance(stage, str) else ("in_service" if stage == 0 else "")
+
+
+def level_loads(result: CheckResult, stage: int | str = 0) -> list[LevelLoad]:
+    """The area loads on every level of one stage (in service by default; by index into
+    ``result.stages`` or by name), by case: the stage's loads as the load path applied
+    them, then, in service, the slabs' self-weight from their modelled thickness.
+
+    During construction the wet concrete of slabs of one thickness is given once per
+    level, from that thickness (``slab:<thickness m>``) unless construction.wet_concrete
+    gives the pressure."""
     s = result.settings
     loads: Mapping[str, Any] = s.get("loads", {})
     explicit = list(s.get("explicit", []))
+    density = float(loads.get("concrete_density", 2400.0))
+    thickness = {sl.guid: sl.thickness for sl in result.slabs}
+    name = _stage_name(result, stage)
+    record = stage_record(result, stage)
     out: list[LevelLoad] = []
-    if stage < len(result.stages):
-        for x in result.stages[stage].loads:
-            if x.pressure == 0.0 and x.origin.startswith("roof"):
-                continue  # a roof's floor live load: none
+    seen: set[tuple[str, str, str, float, str]] = set()
+    for x in record.loads if record is not None else []:
+        if x.pressure == 0.0 and x.origin.startswith("roof"):
+            continue  # a roof's floor live load: none
+        slab = x.slab
+        if x.what == "wet concrete" and x.origin.startswith("slab thickness"):
+            # from the slab's modelled thickness and the concrete density, as in service
+            t = thickness.get(x.slab, 0.0) or x.pressure / (density * G)
+            source, default, slab = (
+                f"slab:{round(t, 4)}",
+                _is_default(explicit, "loads.concrete_density"),
+                "",
+            )
+        else:
             # "default loads.live": the level takes the [loads] value, given or not
             source = x.origin.removeprefix("default ").replace("'", '"')
+            source = re.sub(r" \(.*\)$", "", source)  # "construction.live (20 psf)"
             default = source.startswith(("loads.", "construction.")) and _is_default(
                 explicit, source.replace('"', "")
             )
-            out.append(LevelLoad(x.level, x.case, x.what, x.pressure, source, default))
-    if stage > 0:
+        key = (x.level, x.case, x.what, round(x.pressure, 6), source + slab)
+        if key in seen:
+            continue  # two slabs of one thickness on a level: one row
+        seen.add(key)
+        out.append(LevelLoad(x.level, x.case, x.what, x.pressure, source, default, slab))
+    if name != "in_service":
         return out
-    density = float(loads.get("concrete_density", 2400.0))
     for level in level_names(result):
         thicknesses = sorted({round(sl.thickness, 4) for sl in result.slabs
                               if sl.storey == level and sl.thickness > 0})  # fmt: skip
@@ -153,17 +210,63 @@ def level_loads(result: CheckResult, stage: int = 0) -> list[LevelLoad]:
     return out
 
 
-def combinations(result: CheckResult, stage: int = 0) -> list[Combination]:
-    """The strength combinations of one stage (those of the cases that load its beams),
-    then, in service, the serviceability ones."""
-    if stage < len(result.stages):
+def combinations(result: CheckResult, stage: int | str = 0) -> list[Combination]:
+    """The strength combinations of one stage (those of the cases that load its beams;
+    by index into ``result.stages`` or by name), then, in service, the serviceability
+    ones."""
+    name = _stage_name(result, stage)
+    record = stage_record(result, stage)
+    if record is not None:
         strength = [
             Combination(c.name, c.factors, "strength", c.source, c.number)
-            for c in result.stages[stage].combinations
+            for c in record.combinations
         ]
     else:
-        strength = list(strength_combinations(result.method))
-    return [*strength, *SERVICE] if stage == 0 else strength
+        strength = list(
+            strength_combinations(result.method, name if name in STAGES else "in_service")
+        )
+    return [*strength, *SERVICE] if name == "in_service" else strength
+
+
+def beam_stages(b: BeamResult) -> list[BeamStageResult]:
+    """A beam's result per stage, in service first. A result that carries no stage
+    breakdown (one stage only, from another writer) is its in-service stage."""
+    if b.stages:
+        return list(b.stages)
+    return [
+        BeamStageResult(
+            stage="in_service", outcome=b.outcome, utilisation=b.utilisation,
+            controlling_limit=b.controlling_limit,
+            strength_utilisation=b.strength_utilisation,
+            flexure_utilisation=b.flexure_utilisation, shear_demand=b.shear_demand,
+            shear_capacity=b.shear_capacity, shear_utilisation=b.shear_utilisation,
+            deflection_utilisation=b.deflection_utilisation,
+            governing_segment=b.governing_segment, reason=b.reason, demand=b.demand,
+            diagram=b.diagram, curve=b.curve,
+        )
+    ]  # fmt: skip
+
+
+def beam_stage(b: BeamResult, stage: StageName) -> BeamStageResult | None:
+    """A beam's result in one stage, None where it was not checked in that stage."""
+    return next((s for s in beam_stages(b) if s.stage == stage), None)
+
+
+def stage_combination(b: BeamResult, st: BeamStageResult) -> str:
+    """The load combination of a stage's governing segment ('' where it has none)."""
+    i = st.governing_segment
+    if i is None or not 0 <= i < len(b.segments):
+        return ""
+    return b.segments[i].load_combination
+
+
+def stage_only_failure(b: BeamResult) -> StageName | None:
+    """The one stage a failing beam fails in when it passes the others ("construction"
+    for a beam that fails only while the concrete is wet); None otherwise."""
+    failing = [s.stage for s in beam_stages(b) if s.outcome == "fail"]
+    if b.outcome != "fail" or len(failing) != 1 or len(beam_stages(b)) < 2:
+        return None
+    return failing[0]
 
 
 def levels_without_slab(result: CheckResult) -> list[str]:
@@ -223,27 +326,10 @@ def basis_document(result: CheckResult) -> dict[str, Any]:
             }
             for x in settings_list(s)
         ],
-        "loads": [
-            {
-                "level": x.level,
-                "case": x.case,
-                "load": x.what,
-                "pressure": num(x.pressure),
-                "source": x.source,
-                "default": x.default,
-            }
-            for x in level_loads(result)
-        ],
+        "loads": loads_document(result, 0),
         "steel_self_weight": "from each section's area at loads.steel_density",
-        "combinations": [
-            {
-                "name": c.name,
-                "purpose": c.purpose,
-                "source": c.source,
-                "factors": {k: num(v) for k, v in c.factors.items()},
-            }
-            for c in combinations(result)
-        ],
+        "combinations": combinations_document(result, 0),
+        "stages": stages_document(result),
         "deflection_limits": {
             "live": num(s.get("deflection", {}).get("live")),
             "total": num(s.get("deflection", {}).get("total")),
@@ -264,6 +350,74 @@ def basis_document(result: CheckResult) -> dict[str, Any]:
         "assumptions": [{"code": c, "text": t} for c, t in assumptions(result)],
         "assumed": dict(result.assumptions),
     }
+
+
+def loads_document(result: CheckResult, stage: int | str = 0) -> list[dict[str, Any]]:
+    """One stage's area loads per level and case as JSON data (Pa)."""
+    from ifccheck.report.json_out import num
+
+    return [
+        {
+            "level": x.level,
+            "slab": x.slab,
+            "case": x.case,
+            "load": x.what,
+            "pressure": num(x.pressure),
+            "source": x.source,
+            "default": x.default,
+        }
+        for x in level_loads(result, stage)
+    ]
+
+
+def combinations_document(result: CheckResult, stage: int | str = 0) -> list[dict[str, Any]]:
+    """One stage's combinations as JSON data, each with its standard and number."""
+    from ifccheck.report.json_out import num
+
+    return [
+        {
+            "name": c.name,
+            "purpose": c.purpose,
+            "source": c.source,
+            "number": c.number,
+            "factors": {k: num(v) for k, v in c.factors.items()},
+        }
+        for c in combinations(result, stage)
+    ]
+
+
+def stages_document(result: CheckResult) -> list[dict[str, Any]]:
+    """Per stage (in service first, then construction when the settings give it): what
+    it covers and assumes, its loads and combinations, its load balance and its beams
+    counted by outcome."""
+    from ifccheck.report.json_out import num
+
+    out = []
+    for i, st in enumerate(result.stages):
+        counts = {k: int(st.summary.get(k, 0)) for k in
+                  ("pass", "fail", "not_checked", "total", "governing")}  # fmt: skip
+        out.append(
+            {
+                "stage": st.stage,
+                "title": st.title,
+                "levels": list(st.levels),
+                "slab_bracing": st.slab_bracing,
+                "notes": list(st.notes),
+                "loads": loads_document(result, i),
+                "combinations": combinations_document(result, i),
+                "load_balance": [
+                    {
+                        "level": x.level,
+                        "case": x.case,
+                        "applied": num(x.applied),
+                        "delivered": num(x.delivered),
+                    }
+                    for x in st.load_balance
+                ],
+                "summary": counts,
+            }
+        )
+    return out
 
 
 _SI_UNIT = {"pressure": "Pa", "density": "kg/m³", "tolerance": "m", "span ratio": "L/N"}

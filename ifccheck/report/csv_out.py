@@ -4,7 +4,8 @@ Dimensional columns carry their unit in the name (``lb_ft`` / ``lb_m``,
 ``moment_demand_kip_ft`` / ``moment_demand_kN_m``), values in the chosen
 unit system (six significant digits; stresses with the trade's digits: 345 MPa,
 50 ksi); utilisations and Cb are plain numbers. Empty cells are values that
-do not exist (a not-checked beam has no utilisation).
+do not exist (a not-checked beam has no utilisation, a beam not checked during
+construction no construction columns).
 """
 
 from __future__ import annotations
@@ -18,9 +19,10 @@ from typing import Any
 
 from ifccheck.atomic import write_text
 from ifccheck.reasons import reason_code, reason_text
+from ifccheck.report.basis import beam_stage
 from ifccheck.report.display import DisplayUnits
 from ifccheck.report.wording import change_reasons, diff_names
-from ifccheck.results import BeamChange, BeamResult, CheckResult, DiffResult
+from ifccheck.results import BeamChange, BeamResult, CheckResult, DiffResult, StageName
 from ifccheck.units import check_system
 
 # (column stem, kind or None for a plain value, getter)
@@ -33,6 +35,37 @@ def _gov(attr: str) -> Callable[[BeamResult], Any]:
         return None if seg is None else getattr(seg, attr)
 
     return get
+
+
+def _stage(stage: StageName, attr: str) -> Callable[[BeamResult], Any]:
+    """A getter of one stage's value: ``attr`` of its result, or of its governing segment
+    (``segment.<attr>``); None where the beam was not checked in that stage."""
+
+    def get(b: BeamResult) -> Any:
+        st = beam_stage(b, stage)
+        if st is None:
+            return None
+        if not attr.startswith("segment."):
+            return getattr(st, attr)
+        i = st.governing_segment
+        if i is None or not 0 <= i < len(b.segments):
+            return None
+        return getattr(b.segments[i], attr.removeprefix("segment."))
+
+    return get
+
+
+def _stage_columns(stage: StageName) -> tuple[Column, ...]:
+    return (
+        (f"{stage}_outcome", None, _stage(stage, "outcome")),
+        (f"{stage}_utilisation", None, _stage(stage, "utilisation")),
+        (f"{stage}_lb", "length", _stage(stage, "segment.lb")),
+        (f"{stage}_load_combination", None, _stage(stage, "segment.load_combination")),
+    )
+
+
+def _governing_stage(b: BeamResult) -> str:
+    return "" if b.outcome == "not_checked" else b.stage
 
 
 def _brace_stations(b: BeamResult) -> list[float]:
@@ -51,6 +84,9 @@ BEAM_COLUMNS: tuple[Column, ...] = (
     ("flexure_utilisation", None, lambda b: b.flexure_utilisation),
     ("shear_utilisation", None, lambda b: b.shear_utilisation),
     ("deflection_utilisation", None, lambda b: b.deflection_utilisation),
+    ("governing_stage", None, _governing_stage),
+    *_stage_columns("in_service"),
+    *_stage_columns("construction"),
     ("ifc_class", None, lambda b: b.ifc_class),
     ("profile", None, lambda b: b.profile),
     ("grade", None, lambda b: b.grade),
@@ -83,6 +119,7 @@ DIFF_COLUMNS: tuple[Column, ...] = (
     ("storey", None, lambda c: c.storey),
     ("matched_by", None, lambda c: c.matched_by),
     ("change", None, lambda c: c.change),
+    ("stage", None, lambda c: c.stage),
     ("outcome_before", None, lambda c: c.outcome_before),
     ("outcome_after", None, lambda c: c.outcome_after),
     ("utilisation_before", None, lambda c: c.utilisation_before),

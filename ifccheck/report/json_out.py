@@ -20,7 +20,12 @@ from typing import Any
 from ifccheck.atomic import write_text
 from ifccheck.perf import gc_paused
 from ifccheck.reasons import reason_code, reason_text
-from ifccheck.report.basis import assumed_grade, basis_document
+from ifccheck.report.basis import (
+    assumed_grade,
+    basis_document,
+    beam_stages,
+    stage_combination,
+)
 from ifccheck.report.display import DisplayUnits
 from ifccheck.report.requirements import requirement_dict
 from ifccheck.report.wording import (
@@ -32,11 +37,13 @@ from ifccheck.report.wording import (
 from ifccheck.results import (
     BeamChange,
     BeamResult,
+    BeamStageResult,
     BraceCheckOut,
     ChangeCause,
     CheckResult,
     DemandOut,
     DiffResult,
+    SampledDiagram,
     SegmentResult,
 )
 
@@ -108,6 +115,7 @@ def segment_dict(s: SegmentResult) -> dict[str, Any]:
         "limit_state": s.limit_state,
         "load_combination": s.load_combination,
         "braced_by": list(s.braced_by),
+        "stage": s.stage,
     }
 
 
@@ -269,21 +277,54 @@ def beam_dict(
         "demand": demand_dict(b.demand),
         "explanation": explanation_dict(b, du, names),
         "trail": trail_dict(b),
+        "stage": b.stage,
+        "stages": [stage_dict(b, st, detail) for st in beam_stages(b)],
     }
     if detail:
-        d = b.diagram
-        out["diagram"] = (
-            None
-            if d is None
-            else {
-                "stations": [num(v) for v in d.stations],
-                "moment": [num(v) for v in d.moment],
-                "shear": [num(v) for v in d.shear],
-            }
-        )
-        out["curve"] = (
-            None if b.curve is None else [{"lb": num(x), "strength": num(y)} for x, y in b.curve]
-        )
+        out["diagram"] = diagram_dict(b.diagram)
+        out["curve"] = curve_list(b.curve)
+    return out
+
+
+def diagram_dict(d: SampledDiagram | None) -> dict[str, Any] | None:
+    if d is None:
+        return None
+    return {
+        "stations": [num(v) for v in d.stations],
+        "moment": [num(v) for v in d.moment],
+        "shear": [num(v) for v in d.shear],
+    }
+
+
+def curve_list(curve: list[tuple[float, float]] | None) -> list[dict[str, Any]] | None:
+    return None if curve is None else [{"lb": num(x), "strength": num(y)} for x, y in curve]
+
+
+def stage_dict(b: BeamResult, st: BeamStageResult, detail: bool = False) -> dict[str, Any]:
+    """A beam in one stage: its outcome and utilisations there, the index of its
+    governing segment in the beam's ``segments`` and that segment's combination."""
+    out: dict[str, Any] = {
+        "stage": st.stage,
+        "outcome": st.outcome,
+        "utilisation": num(st.utilisation),
+        "controlling_limit": st.controlling_limit,
+        "strength_utilisation": num(st.strength_utilisation),
+        "flexure_utilisation": num(st.flexure_utilisation),
+        "shear_demand": num(st.shear_demand),
+        "shear_capacity": num(st.shear_capacity),
+        "shear_utilisation": num(st.shear_utilisation),
+        "deflection_utilisation": num(st.deflection_utilisation),
+        "governing_segment": st.governing_segment,
+        "load_combination": stage_combination(b, st),
+        "shear_combination": st.demand.shear_combination if st.demand is not None else "",
+        "reason": reason_text(st.reason),
+        "reason_code": reason_code(st.reason),
+        "notes": list(st.notes),
+        "demand": demand_dict(st.demand),
+    }
+    if detail:
+        out["diagram"] = diagram_dict(st.diagram)
+        out["curve"] = curve_list(st.curve)
     return out
 
 
@@ -384,6 +425,7 @@ def change_dict(
         "storey": c.storey,
         "matched_by": c.matched_by,
         "change": c.change,
+        "stage": c.stage,
         "outcome_before": c.outcome_before,
         "outcome_after": c.outcome_after,
         "utilisation_before": num(c.utilisation_before),
@@ -413,6 +455,7 @@ def cause_dict(x: ChangeCause) -> dict[str, Any]:
         "members": list(x.members),
         "before": value(x.before),
         "after": value(x.after),
+        "stage": x.stage,
     }
 
 

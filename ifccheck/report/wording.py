@@ -3,13 +3,14 @@
 from __future__ import annotations
 
 import re
-from collections.abc import Callable, Mapping
+from collections.abc import Mapping
 
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.report.display import DisplayUnits, utilisation_text
 from ifccheck.results import (
     BeamChange,
     BeamResult,
+    BeamStageResult,
     BraceCheckOut,
     CauseKind,
     ChangeCause,
@@ -149,9 +150,11 @@ def lb_text(seg: SegmentResult, du: DisplayUnits) -> str:
 
 
 def segment_words(b: BeamResult, seg: SegmentResult, du: DisplayUnits) -> str:
-    """Where the governing segment is and what governs it, in a sentence."""
-    index = b.segments.index(seg) + 1 if seg in b.segments else 0
-    where = f"segment {index} of {len(b.segments)}, {span_text(b, seg.start, seg.end, du)}"
+    """Where the governing segment is and what governs it, in a sentence; segments are
+    counted among those of the segment's stage."""
+    own = b.stage_segments(seg.stage) or b.segments
+    index = next((i for i, s in enumerate(own) if s is seg), -1) + 1
+    where = f"segment {index} of {len(own)}, {span_text(b, seg.start, seg.end, du)}"
     if seg.continuous:
         bracing = f"its {seg.flange} flange is braced continuously by the slab"
     else:
@@ -232,17 +235,49 @@ def cause_sentence(
             "bracing alone makes it pass."
         )
     if k is ExplainKind.DECK_NOT_ATTACHED:
+        if deck_braces_during_construction(b):
+            return (
+                "During construction the steel alone carries the wet concrete and the "
+                "construction live load, before the slab has hardened."
+            )
         return (
             "During construction the deck is not attached to the beam "
-            "(construction.deck_braces = false), so nothing braces the top flange while "
-            "the concrete is wet: shore the beam, fasten the deck before the pour, or "
-            "brace the beam."
+            "(construction.deck_braces = false), so nothing braces its top flange while "
+            "the concrete is wet."
         )
     raise ValueError(f"no words for cause {k!r}")
 
 
+def deck_braces_during_construction(b: BeamResult) -> bool:
+    """Whether an attached deck braces the beam during construction (a continuously
+    braced length among its construction-stage segments)."""
+    return any(s.continuous for s in b.stage_segments("construction"))
+
+
+def construction_options(b: BeamResult) -> str:
+    """The usual remedies for a beam that fails while the concrete is wet, as the
+    engineer's options ('' where the beam does not fail during construction)."""
+    st = b.stage_result("construction")
+    if st is None or st.outcome != "fail":
+        return ""
+    options = ["shoring the beam until the concrete has gained its strength"]
+    if not deck_braces_during_construction(b):
+        options.append(
+            "having the deck fastened to the beam before the pour so that it braces the top "
+            "flange (checked with construction.deck_braces = true)"
+        )
+    options.append("temporary bracing of the compression flange during the pour")
+    options.append("a heavier section")
+    return (
+        "The usual remedies during construction, for the engineer to choose from: "
+        + ", ".join(options[:-1])
+        + f", or {options[-1]}."
+    )
+
+
 def fix_sentences(b: BeamResult, du: DisplayUnits) -> list[str]:
-    """What would make a failing beam pass: largest Lb, new brace points, a heavier shape."""
+    """What would make a failing beam pass: largest Lb, new brace points, a heavier shape
+    (and, for a failure explained in the construction stage, the usual remedies then)."""
     e = b.explanation
     if e is None or b.outcome != "fail":
         return []
@@ -262,7 +297,11 @@ def fix_sentences(b: BeamResult, du: DisplayUnits) -> list[str]:
             f"{'A brace' if n == 1 else f'{n} braces'} to the {flange} flange at {at} "
             f"would make it pass in bending (each new length checked at its own Cb)."
         )
-    elif seg is not None and not e.bracing_helps:
+    elif (
+        seg is not None
+        and not e.bracing_helps
+        and not any(c.kind is ExplainKind.BEYOND_PLASTIC for c in e.causes)  # said there
+    ):
         out.append("No bracing alone makes it pass.")
     if e.lighter_shape is not None:
         x = e.lighter_shape
@@ -273,6 +312,8 @@ def fix_sentences(b: BeamResult, du: DisplayUnits) -> list[str]:
         )
     elif e.shape_checked:
         out.append(f"No {_family_and_depth(b.profile)} in the shape table passes as braced today.")
+    if e.stage == "construction" and (options := construction_options(b)):
+        out.append(options)
     return out
 
 
@@ -292,9 +333,12 @@ def fix_words(b: BeamResult, du: DisplayUnits) -> str:
     fixes = fix_sentences(b, du)
     if fixes:
         return " ".join(fixes)
-    if b.controlling_limit == "shear":
+    e = b.explanation
+    st = b.stage_result(e.stage) if e is not None else None
+    limit = st.controlling_limit if st is not None else b.controlling_limit
+    if limit == "shear":
         return "Shear governs: use a section with a deeper or thicker web."
-    if b.controlling_limit == "deflection":
+    if limit == "deflection":
         return "Deflection governs: use a stiffer (deeper) section or shorten the span."
     return "Use a heavier section or reduce the load."
 
@@ -307,9 +351,38 @@ def advice(reason: Reason | None) -> str:
     return text[0].upper() + text[1:] + "."
 
 
+STAGE_WORDS = {"in_service": "in service", "construction": "during construction"}
+
+
+def _stage_failure(b: BeamResult, st: BeamStageResult) -> str:
+    """'elastic lateral-torsional buckling, utilisation 2.03': what fails in one stage."""
+    what = CHECK_WORDS.get(st.controlling_limit, st.controlling_limit or "check")
+    i = st.governing_segment
+    if st.controlling_limit == "flexure" and i is not None and 0 <= i < len(b.segments):
+        what = limit_state_words(b.segments[i].limit_state)
+    u = f", utilisation {utilisation_text(st.utilisation)}" if st.utilisation is not None else ""
+    return f"{what}{u}"
+
+
+def failing_stages(b: BeamResult) -> list[BeamStageResult]:
+    """The stages a beam fails in, in service first."""
+    return [s for s in b.stages if s.outcome == "fail"]
+
+
 def beam_issue_title(b: BeamResult) -> str:
     if b.outcome == "not_checked":
         return f"{beam_label(b)}: not checked"
+    fails = failing_stages(b)
+    if b.outcome == "fail" and len(b.stages) > 1 and fails:
+        if len(fails) == 1 and fails[0].stage == "construction":
+            return (
+                f"{beam_label(b)} fails during construction (wet concrete) in "
+                f"{_stage_failure(b, fails[0])}; passes in service"
+            )
+        if len(fails) > 1:
+            return f"{beam_label(b)} fails " + ", and ".join(
+                f"{STAGE_WORDS[s.stage]} in {_stage_failure(b, s)}" for s in fails
+            )
     u = f" utilisation {utilisation_text(b.utilisation)}" if b.utilisation is not None else ""
     what = CHECK_WORDS.get(b.controlling_limit, b.controlling_limit or "check")
     seg = b.governing
@@ -326,6 +399,8 @@ def beam_issue_description(
     if b.outcome == "not_checked":
         reason = name_guids(b.reason.text, names) if b.reason else "no reason was recorded"
         return f"This beam was not checked: {reason}. {advice(b.reason)}".rstrip()
+    if b.outcome == "fail" and len(b.stages) > 1 and failing_stages(b):
+        return _staged_description(b, du, names)
     lines: list[str] = []
     u = f" (utilisation {utilisation_text(b.utilisation)})" if b.utilisation is not None else ""
     what = CHECK_WORDS.get(b.controlling_limit, b.controlling_limit or "the check")
@@ -349,6 +424,65 @@ def beam_issue_description(
     if e is not None:
         lines += [cause_sentence(b, c, du, names) for c in e.causes]
     lines.append(fix_words(b, du))
+    return " ".join(lines)
+
+
+def _stage_detail(b: BeamResult, st: BeamStageResult, du: DisplayUnits) -> str:
+    """What fails in one stage, with the figures: the segment, the shear or the deflection."""
+    i = st.governing_segment
+    seg = b.segments[i] if i is not None and 0 <= i < len(b.segments) else None
+    if st.controlling_limit == "flexure" and seg is not None:
+        return segment_words(b, seg, du)
+    if st.controlling_limit == "shear" and st.shear_demand is not None:
+        return (
+            f"Shear {du.text(st.shear_demand, 'force', 1)} against a strength of "
+            f"{du.text(st.shear_capacity, 'force', 1)}."
+        )
+    if st.controlling_limit == "deflection":
+        return (
+            f"Live-load deflection {du.text(b.deflection_live, 'deflection', 1)} "
+            f"(limit {du.text(b.deflection_live_limit, 'deflection', 1)}), total "
+            f"{du.text(b.deflection_total, 'deflection', 1)} "
+            f"(limit {du.text(b.deflection_total_limit, 'deflection', 1)})."
+        )
+    return ""
+
+
+def _staged_description(b: BeamResult, du: DisplayUnits, names: Mapping[str, str]) -> str:
+    """A failing beam checked in service and during construction: each failing stage
+    with its figures, the causes and fixes of the stage explained, the remedies of the
+    construction stage."""
+    fails = failing_stages(b)
+    service = b.stage_result("in_service")
+    lines: list[str] = []
+    if [s.stage for s in fails] == ["construction"]:
+        passes = (
+            f" and it passes in service (utilisation {utilisation_text(service.utilisation)})"
+            if service is not None
+            else ""
+        )
+        lines.append(
+            "This beam fails during construction, while the steel and the deck alone carry "
+            f"the wet concrete and the construction live load,{passes}."
+        )
+    else:
+        said = " and ".join(
+            f"{STAGE_WORDS[s.stage]} in "
+            f"{CHECK_WORDS.get(s.controlling_limit, s.controlling_limit or 'the check')} "
+            f"(utilisation {utilisation_text(s.utilisation)})"
+            for s in fails
+        )
+        lines.append(f"This beam fails {said}.")
+    for st in fails:
+        detail = _stage_detail(b, st, du)
+        if detail:
+            lines.append(f"{STAGE_WORDS[st.stage].capitalize()}: {detail[0].lower()}{detail[1:]}")
+    e = b.explanation
+    if e is not None:
+        lines += [cause_sentence(b, c, du, names) for c in e.causes]
+    lines.append(fix_words(b, du))
+    if (e is None or e.stage != "construction") and (options := construction_options(b)):
+        lines.append(options)
     return " ".join(lines)
 
 
@@ -376,10 +510,13 @@ def cause_words(
     du: DisplayUnits,
     names: Mapping[str, str],
     beam: BeamResult | None = None,
+    staged: bool = False,
 ) -> str:
     """One cause of a change in words, quantities in the display units.
 
-    With the new revision's ``beam``, stations are given from its named ends.
+    With the new revision's ``beam``, stations are given from its named ends; with
+    ``staged`` (the change has causes of the construction stage), a Lb or utilisation
+    cause names its stage ("its utilisation during construction rose ...").
     """
 
     def length(v: float | str | None) -> str:
@@ -398,20 +535,6 @@ def cause_words(
     at = " and ".join(where(s) for s in cause.stations)
     n = len(cause.stations)
     k = cause.kind
-    words = _cause_words(cause, k, who, at, n, length, ratio, status)
-    return f"during construction, {words}" if cause.stage == "construction" else words
-
-
-def _cause_words(
-    cause: ChangeCause,
-    k: CauseKind,
-    who: str,
-    at: str,
-    n: int,
-    length: Callable[[float | str | None], str],
-    ratio: Callable[[float | str | None], str],
-    status: Callable[[float | str | None], str],
-) -> str:
     if k is CauseKind.LOST_BRACES:
         return f"lost the brace point{'s' if n != 1 else ''} at {at}"
     if k is CauseKind.ADDED_BRACES:
@@ -422,19 +545,21 @@ def _cause_words(
         return f"now also bears on {who}"
     if k is CauseKind.LOST_SLAB_BRACING:
         return f"lost {length(cause.after)} of slab bracing"
+    # the stage a Lb or utilisation cause is of, where the change has causes of both
+    when = f" {STAGE_WORDS[cause.stage]}" if staged and cause.stage in STAGE_WORDS else ""
     if k is CauseKind.LB_GREW:
         if cause.before == 0.0:  # the governing length was braced throughout by the slab
             return (
-                "its governing length, braced continuously by the slab before, now has "
-                f"Lb = {length(cause.after)}"
+                f"its governing length{when}, braced continuously by the slab before, now "
+                f"has Lb = {length(cause.after)}"
             )
-        return f"its governing Lb grew from {length(cause.before)} to {length(cause.after)}"
+        return f"its governing Lb{when} grew from {length(cause.before)} to {length(cause.after)}"
     if k in (CauseKind.OUTCOME_WORSE, CauseKind.OUTCOME_BETTER):
         return f"went from {status(cause.before)} to {status(cause.after)}"
     if k is CauseKind.UTILISATION_ROSE:
-        return f"its utilisation rose from {ratio(cause.before)} to {ratio(cause.after)}"
+        return f"its utilisation{when} rose from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.UTILISATION_FELL:
-        return f"its utilisation fell from {ratio(cause.before)} to {ratio(cause.after)}"
+        return f"its utilisation{when} fell from {ratio(cause.before)} to {ratio(cause.after)}"
     if k is CauseKind.DEMAND_FELL_LOST_LOAD:
         return (
             f"its demand fell only because {who} no longer reaches it (that beam has lost "
@@ -468,36 +593,44 @@ def change_reasons(
     A longer Lb is said with the lost brace or slab bracing that made it, and
     an outcome change with the utilisation change behind it.
     """
-    causes = list(c.causes)
-    folded_into: dict[int, int] = {}  # index of the cause said → index of the one said with it
-    for i, x in enumerate(causes):
-        for folded, into in _FOLDED.items():
-            if x.kind not in into:
-                continue
-            j = next(
-                (
-                    j
-                    for j, y in enumerate(causes)
-                    if y.kind is folded
-                    and j not in folded_into.values()
-                    and (y.stage == x.stage or not y.stage or not x.stage)
-                ),
-                None,
-            )
-            if j is not None:
-                folded_into[i] = j
-                break
+    kinds = {x.kind for x in c.causes}
+    # name the stage of Lb and utilisation causes where the beam has more than one
+    staged = any(x.stage == "construction" for x in c.causes) or (
+        beam is not None and len(beam.stages) > 1
+    )
+    hosts = _fold_hosts(c.causes, kinds)
     out = []
-    for i, x in enumerate(causes):
-        if i in folded_into.values():
+    for i, x in enumerate(c.causes):
+        if any(k in kinds for k in _FOLDED.get(x.kind, ())):
             continue
-        text = cause_words(x, du, names, beam)
-        if i in folded_into:
-            other = causes[folded_into[i]]
-            joint = ", so " if other.kind is CauseKind.LB_GREW else " and it "
-            text += joint + cause_words(other, du, names, beam)
+        text = cause_words(x, du, names, beam, staged)
+        extras = [y for j, y in enumerate(c.causes) if hosts.get(j) == i]
+        if extras:
+            joint = ", so " if extras[0].kind is CauseKind.LB_GREW else " and it "
+            text += joint + " and ".join(cause_words(y, du, names, beam, staged) for y in extras)
         out.append(text)
     return out
+
+
+def _fold_hosts(causes: list[ChangeCause], kinds: set[CauseKind]) -> dict[int, int]:
+    """Index of each folded cause → index of the cause it is said with: every longer Lb
+    with the first lost bracing; an outcome change with the utilisation change that
+    crossed 1.0 (else the first of them)."""
+    hosts: dict[int, int] = {}
+    for j, y in enumerate(causes):
+        into = _FOLDED.get(y.kind, ())
+        candidates = [i for i, x in enumerate(causes) if x.kind in into]
+        if not candidates or not any(k in kinds for k in into):
+            continue
+
+        def crosses(i: int) -> bool:
+            a, b = causes[i].before, causes[i].after
+            if not isinstance(a, int | float) or not isinstance(b, int | float):
+                return False
+            return min(a, b) <= 1.0 < max(a, b)
+
+        hosts[j] = next((i for i in candidates if crosses(i)), candidates[0])
+    return hosts
 
 
 def diff_names(diff: DiffResult) -> dict[str, str]:
