@@ -309,6 +309,7 @@ def _summary_section(result: CheckResult, du: DisplayUnits, linked: set[str]) ->
         f"{s['fail']} fail, {s['not_checked']} not checked.</p>"
     )
     out.append('<div class="side-by-side">' + counts + _attention_list(result, linked) + "</div>")
+    out.append(_stage_summary(result))
     line = defaults_line(result, du)
     if line:
         out.append(f'<p class="defaults"><strong>Defaults.</strong> {escape(sentence(line))}</p>')
@@ -327,6 +328,60 @@ def _summary_section(result: CheckResult, du: DisplayUnits, linked: set[str]) ->
     return "".join(out)
 
 
+STAGE_WORDS = {"in_service": "in service", "construction": "construction"}
+
+
+def stage_words(stage: str) -> str:
+    return STAGE_WORDS.get(stage, stage.replace("_", " "))
+
+
+def stage_counts(result: CheckResult) -> dict[str, int]:
+    """Failing beams by the stages they fail in: in service (whatever construction
+    does), and only during construction (they pass, or are not checked, in service)."""
+    in_service = construction_only = 0
+    for b in result.beams:
+        if b.outcome != "fail":
+            continue
+        service = b.stage_result("in_service")
+        if service is None or service.outcome == "fail":
+            in_service += 1
+        else:
+            construction_only += 1
+    return {"in_service": in_service, "construction_only": construction_only}
+
+
+def _stage_summary(result: CheckResult) -> str:
+    """Counts per stage, when the settings declare a construction stage."""
+    if len(result.stages) < 2:
+        return ""
+    rows = []
+    for st in result.stages:
+        n = st.summary
+        bracing = "slabs brace top flanges" if st.slab_bracing else "no slab bracing"
+        rows.append(
+            [escape(st.title), escape(", ".join(st.levels) or "–"), escape(bracing),
+             _num(n.get("total", 0), 0), _num(n.get("pass", 0), 0), _num(n.get("fail", 0), 0),
+             _num(n.get("not_checked", 0), 0), _num(n.get("governing", 0), 0)]
+        )  # fmt: skip
+    c = stage_counts(result)
+    lead = (
+        f'<p class="stage-lead"><strong>Two stages.</strong> {c["in_service"]} beams fail in '
+        f"service; {c['construction_only']} more fail only during construction (wet concrete, "
+        "before the slab can brace them).</p>"
+    )
+    return (
+        '<div class="stages" id="stage-summary"><h3>By stage</h3>'
+        + lead
+        + _table(
+            ["Stage", "Levels", "Bracing", "Checked", "Pass", "Fail", "Not checked", "Governs"],
+            rows,
+            "stage-counts",
+        )
+        + '<p class="note">A beam\'s outcome is the worse of its stages; "governs" counts '
+        "the beams whose highest utilisation is in that stage.</p></div>"
+    )
+
+
 def _attention_list(result: CheckResult, linked: set[str], limit: int = 12) -> str:
     """The failing beams (worst first) and the not-checked ones, linked to their details."""
     fails = sorted((b for b in result.beams if b.outcome == "fail"), key=_most_utilised)
@@ -341,7 +396,7 @@ def _attention_list(result: CheckResult, linked: set[str], limit: int = 12) -> s
         elif b.outcome == "not_checked":
             name = f'<a href="#not-checked">{name}</a>'
         what = (
-            f"fails, utilisation {utilisation_text(b.utilisation)} in "
+            f"fails{_fail_stage_words(b)}, utilisation {utilisation_text(b.utilisation)} in "
             f"{escape(_controlling_words(b))}"
             if b.outcome == "fail"
             else f"not checked: {escape(b.reason.text if b.reason else 'no reason recorded')}"
@@ -355,6 +410,18 @@ def _attention_list(result: CheckResult, linked: set[str], limit: int = 12) -> s
         + tail
         + "</ul></div>"
     )
+
+
+def _fail_stage_words(b: BeamResult) -> str:
+    """' only during construction', ' in service and during construction' or ''."""
+    if len(b.stages) < 2 or b.outcome != "fail":
+        return ""
+    fails = [s.stage for s in b.stages if s.outcome == "fail"]
+    if fails == ["construction"]:
+        return " only during construction"
+    if len(fails) > 1:
+        return " in service and during construction"
+    return ""
 
 
 def _controlling_words(b: BeamResult) -> str:
@@ -380,33 +447,8 @@ def _basis_section(result: CheckResult, du: DisplayUnits) -> str:
         ("Tool", escape(f"{result.tool} {result.version}")),
     ]
     out.append(_table(["", ""], [[f"<strong>{k}</strong>", v] for k, v in facts], "facts"))
-    loads = level_loads(result)
-    if loads:
-        out.append("<h3>Loads per level</h3>")
-        out.append(
-            _table(
-                ["Level", "Case", "Load", f"Pressure ({du.label('pressure')})", "From"],
-                [[escape(x.level), escape(x.case), escape(x.what),
-                  f'<td class="num">{du.trade_number(x.pressure, "pressure")}</td>',
-                  escape(load_source_text(du, x, result))] for x in loads],
-                "loads",
-            )
-        )  # fmt: skip
-        density = float(s.get("loads", {}).get("steel_density", 7850.0))
-        out.append(
-            f'<p class="note">Steel self-weight is added on every beam from its section area '
-            f"at {escape(density_text(du, density))}.</p>"
-        )
-    out.append("<h3>Load combinations</h3>")
-    out.append(
-        _table(
-            ["Combination", "Used for", "Source"],
-            [[escape(c.name), escape("strength" if c.purpose == "strength" else
-                                     "deflection (serviceability)"), escape(c.source)]
-             for c in combinations(result)],
-            "combinations",
-        )
-    )  # fmt: skip
+    staged = len(result.stages) > 1
+    out += _stage_basis(result, du, 0, staged)
     deflection = s.get("deflection", {})
     framing = s.get("framing", {})
     limits = [
@@ -462,6 +504,8 @@ def _basis_section(result: CheckResult, du: DisplayUnits) -> str:
                 "balance",
             )
         )  # fmt: skip
+    for k in range(1, len(result.stages)):
+        out += _stage_basis(result, du, k, staged)
     settings = settings_list(s)
     out.append("<details><summary>Every setting the check ran with</summary>")
     out.append(
@@ -474,6 +518,73 @@ def _basis_section(result: CheckResult, du: DisplayUnits) -> str:
     )  # fmt: skip
     out.append("</details></section>")
     return "".join(out)
+
+
+def _stage_basis(result: CheckResult, du: DisplayUnits, stage: int, staged: bool) -> list[str]:
+    """Loads per level and load combinations of one stage; a later stage (construction)
+    under its own heading, with its bracing, levels and what it assumes."""
+    s = result.settings
+    out: list[str] = []
+    h = "h3"
+    suffix = ""
+    if staged:
+        st = result.stages[stage]
+        suffix = f" ({escape(st.title)})"
+        if stage > 0:
+            title = escape(st.title).capitalize()
+            out.append(f'<h3 id="basis-{attr(st.stage)}">{title} stage</h3>')
+            bracing = (
+                "slabs and decks brace the top flanges they bear on"
+                if st.slab_bracing
+                else "the deck is not attached: nothing braces the top flanges between brace points"
+            )
+            out.append(
+                f"<p>Levels: {escape(', '.join(st.levels) or 'none')}. Bracing: {bracing}.</p>"
+            )
+            if st.notes:
+                out.append("<ul>" + "".join(f"<li>{escape(n)}</li>" for n in st.notes) + "</ul>")
+            h = "h4"
+    loads = level_loads(result, stage)
+    if loads:
+        out.append(f"<{h}>Loads per level{suffix}</{h}>")
+        out.append(
+            _table(
+                ["Level", "Case", "Load", f"Pressure ({du.label('pressure')})", "From"],
+                [[escape(x.level), escape(x.case), escape(x.what),
+                  f'<td class="num">{du.trade_number(x.pressure, "pressure")}</td>',
+                  escape(load_source_text(du, x, result))] for x in loads],
+                "loads",
+            )
+        )  # fmt: skip
+        if stage == 0:
+            density = float(s.get("loads", {}).get("steel_density", 7850.0))
+            out.append(
+                f'<p class="note">Steel self-weight is added on every beam from its section '
+                f"area at {escape(density_text(du, density))}.</p>"
+            )
+    out.append(f"<{h}>Load combinations{suffix}</{h}>")
+    out.append(
+        _table(
+            ["Combination", "Used for", "Source"],
+            [[escape(c.name), escape("strength" if c.purpose == "strength" else
+                                     "deflection (serviceability)"), escape(c.source)]
+             for c in combinations(result, stage)],
+            "combinations",
+        )
+    )  # fmt: skip
+    if stage > 0 and result.stages[stage].load_balance:
+        out.append(f"<h4>Load balance{suffix}</h4>")
+        out.append(
+            _table(
+                ["Level", "Case", f"Applied ({du.label('force')})",
+                 f"Delivered ({du.label('force')})", "Difference"],
+                [[escape(x.level), escape(x.case), _qty(du, x.applied, "force", 1),
+                  _qty(du, x.delivered, "force", 1), _pct(x.delivered - x.applied, x.applied)]
+                 for x in result.stages[stage].load_balance],
+                "balance",
+            )
+        )  # fmt: skip
+    return out
 
 
 def _pct(diff: float, base: float) -> str:
@@ -503,6 +614,7 @@ def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
     order = {"fail": 0, "pass": 1, "not_checked": 2}
     beams = sorted(result.beams, key=lambda b: (order[b.outcome], -(b.utilisation or 0.0), b.name))
     strength = _strength_label(result.method)
+    staged = len(result.stages) > 1
     rows = []
     for b in beams:
         seg = b.governing
@@ -514,12 +626,14 @@ def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
         rows.append(
             f'<tr data-guid="{attr(b.guid)}" data-name="{attr(b.name)}" '
             f'data-storey="{attr(b.storey or NO_STOREY)}" data-outcome="{attr(b.outcome)}" '
-            f'data-profile="{attr(b.profile)}" data-utilisation="{u}" data-lb="{lb}">'
+            f'data-profile="{attr(b.profile)}" data-utilisation="{u}" data-lb="{lb}" '
+            f'data-stage="{attr(stage_words(b.stage))}">'
             + "".join(
                 c if c.startswith("<td") else f"<td>{c}</td>"
                 for c in [
                     name, escape(b.storey), escape(b.profile), _outcome(b.outcome),
                     _utilisation_cell(b.utilisation), escape(_controlling_words(b)),
+                    *([escape(stage_words(b.stage))] if staged else []),
                     _lb_cell(seg, du), _num(seg.cb if seg else None),
                     _qty(du, seg.moment_demand if seg else None, "moment", 1),
                     _qty(du, seg.moment_capacity if seg else None, "moment", 1),
@@ -531,7 +645,9 @@ def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
     head = [
         ("Beam", "name", "text"), ("Storey", "storey", "text"), ("Profile", "profile", "text"),
         ("Outcome", "outcome", "text"), ("Utilisation", "utilisation", "number"),
-        ("Controlling limit", "", ""), (f"Lb ({du.label('length')})", "lb", "number"),
+        ("Controlling limit", "", ""),
+        *([("Governing stage", "stage", "text")] if staged else []),
+        (f"Lb ({du.label('length')})", "lb", "number"),
         ("Cb", "", ""), (f"Moment ({du.label('moment')})", "", ""),
         (f"{strength} ({du.label('moment')})", "", ""), ("GUID", "guid", "text"),
     ]  # fmt: skip
@@ -684,6 +800,61 @@ def _trail_html(b: BeamResult, du: DisplayUnits, method: str) -> str:
     )
 
 
+def stage_rows(b: BeamResult) -> list[dict[str, object]]:
+    """Per stage of a beam (two or more): outcome, utilisation, controlling limit and its
+    governing segment (SI values; None where the stage has none)."""
+    out: list[dict[str, object]] = []
+    if len(b.stages) < 2:
+        return out
+    for st in b.stages:
+        seg = None if st.governing_segment is None else b.segments[st.governing_segment]
+        out.append(
+            {
+                "stage": st.stage,
+                "outcome": st.outcome,
+                "utilisation": st.utilisation,
+                "controlling_limit": st.controlling_limit,
+                "segment": st.governing_segment,
+                "lb": None if seg is None else seg.lb,
+                "continuous": bool(seg is not None and seg.continuous),
+                "cb": None if seg is None else seg.cb,
+                "load_combination": "" if seg is None else seg.load_combination,
+                "reason": st.reason.text if st.reason is not None else "",
+                "governs": st.stage == b.stage,
+            }
+        )
+    return out
+
+
+def _stages_table(b: BeamResult, du: DisplayUnits) -> str:
+    rows = []
+    marked = None
+    for i, r in enumerate(stage_rows(b)):
+        if r["governs"]:
+            marked = i
+        seg_lb = (
+            "continuous (slab)" if r["continuous"]
+            else "–" if r["lb"] is None else du.number(r["lb"], "length")  # type: ignore[arg-type]
+        )  # fmt: skip
+        u = r["utilisation"]
+        rows.append(
+            [escape(stage_words(str(r["stage"]))) + (" (governs)" if r["governs"] else ""),
+             _outcome(str(r["outcome"])), _utilisation_cell(u if isinstance(u, float) else None),
+             escape(CHECK_WORDS.get(str(r["controlling_limit"]), str(r["controlling_limit"]))),
+             "–" if r["segment"] is None else _num(int(r["segment"]) + 1, 0),  # type: ignore[call-overload]
+             f'<td class="num">{escape(seg_lb)}</td>',
+             _num(r["cb"] if isinstance(r["cb"], float) else None),
+             escape(str(r["load_combination"]) or str(r["reason"]))]
+        )  # fmt: skip
+    if not rows:
+        return ""
+    return "<h4>Stages</h4>" + _table(
+        ["Stage", "Outcome", "Utilisation", "Controlling limit", "Governing segment",
+         f"Lb ({du.label('length')})", "Cb", "Load combination"],
+        rows, "stages", marked=marked,
+    )  # fmt: skip
+
+
 def _beam_article(b: BeamResult, du: DisplayUnits, method: str, names: dict[str, str]) -> str:
     strength = _strength_label(method)
     out = [f'<article class="beam" id="beam-{attr(b.guid)}">']
@@ -701,6 +872,7 @@ def _beam_article(b: BeamResult, du: DisplayUnits, method: str, names: dict[str,
           _utilisation_cell(b.deflection_utilisation), escape(_controlling_words(b))]],
     )  # fmt: skip
     out.append(facts)
+    out.append(_stages_table(b, du))
     if b.outcome == "fail":
         why = explanation_sentences(b, du, names)
         if why:
