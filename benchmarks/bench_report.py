@@ -47,7 +47,7 @@ def check(n: int, folder: Path) -> tuple[Path, float]:
     out = folder / f"out-{n}"
     t = time.perf_counter()
     subprocess.run(
-        [sys.executable, "-m", "ifccheck", "check", str(model), "--config", str(settings),
+        [sys.executable, "-m", "ifccheck.cli", "check", str(model), "--config", str(settings),
          "--out", str(out), "--no-requirements"],
         check=False, capture_output=True,
     )  # fmt: skip
