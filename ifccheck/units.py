@@ -220,7 +220,14 @@ def convert(value: float, kind: str, system: UnitSystem) -> tuple[float, str]:
 
 def to_si(value: float, unit: str) -> float:
     """A value in a named unit ('ksi', 'lb/ft', 'ft') in SI base units."""
+    if value == 1.0:  # a unit's size, asked for often (the report's words): looked up once
+        return _unit_size(unit)
     return float(ureg.Quantity(value, unit).to_base_units().magnitude)
+
+
+@functools.lru_cache(maxsize=128)
+def _unit_size(unit: str) -> float:
+    return float(ureg.Quantity(1.0, unit).to_base_units().magnitude)
 
 
 def _format(value: float, kind: str, system: UnitSystem, digits: int) -> str:

@@ -10,7 +10,10 @@ import result_fixtures as rf
 
 from ifccheck import CAUTION
 from ifccheck.report import html_out
+from ifccheck.report.display import DisplayUnits
+from ifccheck.report.html_data import decode
 from ifccheck.report.html_out import diff_html, report_html, write_diff_html, write_report_html
+from ifccheck.report.svg import boxes_overlap, check_plan_svg, label_box
 
 EXTERNAL = re.compile(
     r"""(?:src|href|xlink:href|action|poster|data)\s*=\s*["']?\s*(?:https?:)?//"""
@@ -79,8 +82,10 @@ def test_page_is_self_contained(tmp_path):
     page = path.read_text(encoding="utf-8")
     assert not EXTERNAL.search(page)
     assert "<link" not in page and "<img" not in page
-    # one inline script (the beam table's sorting and filters), nothing fetched
-    assert page.count("<script") == 1 and "<script>" in page and "<script src" not in page
+    # one inline script that runs, and one data block that browsers never run
+    assert page.count("<script>") == 1 and "<script src" not in page
+    assert page.count("<script") == 2
+    assert '<script type="application/octet-stream" id="report-data"' in page
     assert html_out.TABLE_SCRIPT in page
     assert "http://" not in page and "https://" not in page
     dpage = write_diff_html(rf.diff_result(), tmp_path / "diff.html", "si").read_text()
@@ -109,18 +114,27 @@ def test_one_shape_per_beam_per_plan():
         assert sorted(p.guids[storey]) == sorted(b.guid for b in beams)
 
 
+def _counts(page: str, storey: str) -> Counter:
+    """data-n of the grouped paths of one storey's plan, by class."""
+    fig = page.split(f'data-storey="{storey}"', 1)[1].split("</figure>", 1)[0]
+    out: Counter = Counter()
+    for cls, n in re.findall(r'<path class="([^"]+)" data-n="(\d+)"', fig):
+        for c in cls.split():
+            out[c] += int(n)
+    return out
+
+
 def test_plan_marks_braces_slab_bands_failures_and_not_checked():
     result = rf.check_result()
-    p = _parse(report_html(result, "si"))
+    page = report_html(result, "si")
+    p = _parse(page)
     for storey, beams in _by_storey(result.beams).items():
-        c = p.classes[storey]
+        c, n = p.classes[storey], _counts(page, storey)
         points = [bp for b in beams for bp in b.brace_points]
-        assert c["brace"] == len(points)  # every brace point is a dot
-        assert c["brace-void"] == sum(
-            not bp.counts for bp in points
-        )  # hollow when it does not count
-        assert c["slab-braced"] == sum(len(b.continuous_bracing) for b in beams)
-        assert c["fail-casing"] == sum(b.outcome == "fail" for b in beams)
+        assert n["brace"] == len(points)  # every brace point is a dot
+        assert n["brace-void"] == sum(not bp.counts for bp in points)  # hollow: does not count
+        assert n["slab-braced"] == sum(len(b.continuous_bracing) for b in beams)
+        assert n["fail-casing"] == sum(b.outcome == "fail" for b in beams)
         assert c["oc-not_checked"] == sum(b.outcome == "not_checked" for b in beams)
         assert c["slab"] == sum(s.storey == storey for s in result.slabs)
         labels = " ".join(p.texts[storey])
@@ -128,7 +142,39 @@ def test_plan_marks_braces_slab_bands_failures_and_not_checked():
             # failing and not-checked beams are labelled, passing ones are not
             assert (b.name in labels) is (b.outcome != "pass")
             assert (f"{b.name} (not checked)" in labels) is (b.outcome == "not_checked")
-    assert p.classes["Level 2"]["brace-void"] == 1  # the unanchored strut on B-2
+    assert _counts(page, "Level 2")["brace-void"] == 1  # the unanchored strut on B-2
+
+
+def test_plan_labels_do_not_overlap_and_the_rest_are_counted():
+    # 400 beams on one storey, side by side 0.5 m apart: far more labels than fit
+    result = rf.many_beams(400)
+    beams = result.beams
+    for i, b in enumerate(beams):
+        b.storey = "Level 2"
+        b.outcome = "fail"
+        b.utilisation = 1.2
+        b.start = (0.0, 0.5 * i, 0.0)
+        b.end = (9.0, 0.5 * i, 0.0)
+    svg, wanted, dropped = check_plan_svg(beams, [], DisplayUnits("si"), set(), "Plan")
+    texts = re.findall(
+        r'<text class="label"[^>]*x="([\d.]+)" y="([\d.]+)" text-anchor="(\w+)"[^>]*>([^<]*)<',
+        svg,
+    )
+    assert wanted == 400 and 0 < len(texts) < 400 and dropped == 400 - len(texts)
+    boxes = [label_box(float(x), float(y), a, s) for x, y, a, s in texts]
+    width = float(re.search(r'width="([\d.]+)"', svg).group(1))
+    height = float(re.search(r'height="([\d.]+)"', svg).group(1))
+    for i, a in enumerate(boxes):
+        # inside the drawing, and clear of every other label (coordinates rounded to 0.1 px)
+        assert a[0] >= -0.1 and a[1] >= -0.1 and a[2] <= width + 0.1 and a[3] <= height + 0.1
+        for b in boxes[i + 1 :]:
+            shrunk = (b[0] + 0.1, b[1] + 0.1, b[2] - 0.1, b[3] - 0.1)
+            assert not boxes_overlap(a, shrunk)
+    # the worst first: the labels kept are the most highly utilised
+    for i, b in enumerate(beams):
+        b.utilisation = 1.0 + i / 1000
+    svg, _, _ = check_plan_svg(beams, [], DisplayUnits("si"), set(), "Plan")
+    assert f"{beams[-1].name} " in svg
 
 
 def test_sections_caution_and_summary():
@@ -152,31 +198,65 @@ def test_sections_caution_and_summary():
     assert "not found in the shape table" in page and "IfcIShapeProfileDef" in page
 
 
-def test_detail_has_diagram_curve_and_marker():
+def _data(page: str) -> dict:
+    block = page.split('id="report-data" data-encoding="gzip+base64">', 1)[1].split("<", 1)[0]
+    return decode(block)
+
+
+def test_detail_data_has_diagram_curve_and_marker():
     result = rf.check_result()
-    page = report_html(result, "imperial")
-    detail = page.split('id="beam-' + rf.guids()["b2"] + '"', 1)[1].split("</article>", 1)[0]
-    assert 'class="moment"' in detail and 'class="curve"' in detail
-    assert detail.count('class="segment-mark"') == 1
-    assert "Lb 15.00 ft" in detail
+    data = _data(report_html(result, "imperial"))
+    b2 = next(b for b in data["beams"] if b["g"] == rf.guids()["b2"])
+    d = b2["d"]
+    assert d["diagram"]["x"] and d["diagram"]["m"] and "curve" in d
+    assert d["mark"][2] > 1.0  # a cross: the governing segment fails
+    assert d["lbg"] == "15.00 ft"
+    why = " ".join(d["why"])
     # why and what would fix it, stations from a named end (the fixture's own explanation)
-    assert "at 15.00 ft from the end at J3" in detail
-    assert "does not count" in detail and "S1" in detail
-    assert "An opening in slab" in detail
-    assert "W16X31" in detail  # the lightest passing W16 (result_fixtures, Shapes Database)
+    assert "at 15.00 ft from the end at J3" in why
+    assert "does not count" in why and "S1" in why
+    assert "An opening in slab" in why
+    assert "W16X31" in why  # the lightest passing W16 (result_fixtures, Shapes Database)
     result.beams[1].curve = None
-    page = report_html(result, "imperial")
-    detail = page.split('id="beam-' + rf.guids()["b2"] + '"', 1)[1].split("</article>", 1)[0]
-    assert 'class="curve"' not in detail and 'class="segment-mark"' not in detail
+    d = next(b for b in _data(report_html(result, "imperial"))["beams"] if b["g"] == b2["g"])["d"]
+    assert "curve" not in d and "mark" not in d
 
 
-def test_detail_sections_are_capped_and_the_page_says_so(monkeypatch):
-    monkeypatch.setattr(html_out, "DETAIL_OTHERS", 20)
-    monkeypatch.setattr(html_out, "DETAIL_FAILS", 30)
-    result = rf.many_beams(400)  # 100 of each scenario beam: 100 fail, 200 pass
+def test_embedded_data_round_trips_to_the_result():
+    result = rf.many_beams(400)
     page = report_html(result, "si")
-    assert page.count('<article class="beam"') == 30 + 20
-    assert "Details of 30 of 100 failing beams and the 20 most highly utilised" in page
+    data = _data(page)
+    assert [b["g"] for b in data["beams"]] == [b.guid for b in result.beams]  # every beam
+    du = DisplayUnits("si")
+    for rec, b in zip(data["beams"], result.beams, strict=True):
+        assert rec["n"] == b.name and rec["p"] == b.profile
+        assert data["storeys"][rec["s"]] == b.storey
+        assert ["pass", "fail", "not_checked"][rec["o"]] == b.outcome
+        assert rec["u"] == (None if b.utilisation is None else round(b.utilisation, 4))
+        assert len(rec["d"]["segs"]) == len(b.segments)
+        for row, s in zip(rec["d"]["segs"], b.segments, strict=True):
+            assert float(row[1]) == round(s.start, 2) and float(row[2]) == round(s.end, 2)
+            assert row[3] == ("continuous (slab)" if s.continuous else du.number(s.lb, "length"))
+            assert float(row[4]) == round(s.cb, 2)
+            assert float(row[7]) == round(s.moment_capacity / 1000, 1)  # kN·m
+        assert rec["d"]["gov"] == b.governing_segment
+        stations = [p.station for p in sorted(b.brace_points, key=lambda p: p.station)]
+        assert [r[0] for r in rec["d"].get("braces", [])] == [round(x, 4) for x in stations]
+        if b.diagram is not None:
+            assert max(rec["d"]["diagram"]["m"]) == round(max(b.diagram.moment) / 1000, 3)
+    # no per-beam detail markup: details are drawn from the data on demand
+    markup = page.replace(html_out.TABLE_SCRIPT, "")
+    assert "<article" not in markup and 'class="moment"' not in markup
+
+
+def test_large_report_pages_the_table_and_caps_lists(monkeypatch):
+    monkeypatch.setattr(html_out, "NOT_CHECKED_ROWS", 10)
+    result = rf.many_beams(400)  # 100 of each scenario beam: 100 fail, 200 pass, 100 not
+    page = report_html(result, "si")
+    table = page.split('id="beam-table"', 1)[1].split("</table>", 1)[0]
+    assert table.count("<tr data-guid=") == html_out.PAGE_ROWS
+    assert f"The first {html_out.PAGE_ROWS} of 400 beams" in page
+    assert "The first 10 of 100 not-checked beams" in page
     p = _parse(page)
     assert sum(len(v) for v in p.guids.values()) == 400  # the plans still show every beam
 

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 from collections import Counter
 from pathlib import Path
 
@@ -37,6 +38,9 @@ def _open(browser, path: Path):
     page.on("request", lambda r: requests.append(r.url))
     page.goto(path.as_uri())
     page.wait_for_load_state("load")
+    if path.name.endswith(".report.html"):  # the check report's script says when it is done
+        page.wait_for_function("document.documentElement.dataset.ready", timeout=30_000)
+        assert page.evaluate("document.documentElement.dataset.ready") == "1"
     return page, requests
 
 
@@ -114,12 +118,26 @@ def test_beam_table_sorts_filters_and_finds(browser, tmp_path):
     assert _visible_names(page) == ["B-1"]
     page.fill("#filter-text", "")
     # a failing beam on the plan leads to its details
-    line = page.locator(f"svg.plan a[href='#beam-{rf.guids()['b2']}'] line.beam")
+    line = page.locator(f"svg.plan line.beam[data-guid='{rf.guids()['b2']}']")
     line.evaluate("e => e.scrollIntoView({block: 'center'})")
     box = line.evaluate("e => { const r = e.getBoundingClientRect(); "
                         "return [r.left + 0.3 * r.width, r.top + r.height / 2]; }")  # fmt: skip
     page.mouse.click(*box)  # on the drawn line (a zero-height box to the browser)
     assert page.evaluate("location.hash") == f"#beam-{rf.guids()['b2']}"
+    # ... rendered there from the embedded data: diagram, curve, a cross at the segment
+    detail = page.locator(f"#detail-view article#beam-{rf.guids()['b2']}")
+    assert detail.count() == 1
+    assert detail.locator("polyline.moment").count() == 1
+    assert detail.locator("polyline.curve").count() == 1
+    assert detail.locator("path.segment-mark").count() == 1  # it fails: a cross
+    text = detail.inner_text()
+    assert "Lb 15.00 ft" in text and "at 15.00 ft from the end at J3" in text
+    assert "An opening in slab" in text and "W16X31" in text
+    assert detail.locator("table.segments tr.governing").count() == 1
+    # a passing beam opened from the table
+    page.click("#beam-table a[href='#beam-" + rf.guids()["b1"] + "']")
+    passing = page.locator(f"#detail-view article#beam-{rf.guids()['b1']}")
+    assert passing.locator("circle.segment-mark").count() == 1  # it passes: a dot
     page.close()
 
 
@@ -141,12 +159,130 @@ def test_no_label_is_clipped_on_the_demo(browser, tmp_path):
     assert outside == []
     labels = page.evaluate("() => [...document.querySelectorAll('svg.plan text.label')].length")
     flagged = sum(b.outcome != "pass" for b in result.beams)
-    assert labels == flagged  # every failing and not-checked beam is labelled
-    # names show on hover: every beam shape carries a title starting with its name
-    titles = page.evaluate(
-        """() => [...document.querySelectorAll('svg.plan line.beam')]
-             .map(e => e.querySelector('title').textContent)"""
+    # every failing and not-checked beam is labelled where its label fits; the captions
+    # count the others
+    captions = page.evaluate(
+        "() => [...document.querySelectorAll('figure.storey .label-count')].map(e => e.textContent)"
     )
-    assert sorted(t.split(" · ")[0] for t in titles) == sorted(b.name for b in result.beams)
+    counts = [re.match(r"(\d+) of (\d+) ", c) for c in captions if c]
+    assert sum(int(m.group(1)) for m in counts) == labels
+    assert sum(int(m.group(2)) for m in counts) == flagged and labels >= flagged - 2
+    # names show on hover: the hover text of a beam starts with its name
+    first = page.locator("svg.plan line.beam").first
+    guid = first.get_attribute("data-guid")
+    first.dispatch_event("mouseover")
+    tip = page.inner_text("#plan-tip")
+    assert tip.split(" · ")[0] == next(b.name for b in result.beams if b.guid == guid)
     page.screenshot(path=str(tmp_path / "demo.png"), full_page=True)
+    page.close()
+
+
+def _label_boxes(page) -> list[list[float]]:
+    return page.evaluate(
+        """() => [...document.querySelectorAll('svg.plan text.label')].map(t => {
+             const r = t.getBoundingClientRect(); return [r.left, r.top, r.right, r.bottom]; })"""
+    )
+
+
+def _overlaps(boxes) -> list[tuple[int, int]]:
+    return [
+        (i, j)
+        for i, a in enumerate(boxes)
+        for j, b in enumerate(boxes[i + 1 :], i + 1)
+        if a[0] < b[2] - 0.5 and b[0] < a[2] - 0.5 and a[1] < b[3] - 0.5 and b[1] < a[3] - 0.5
+    ]
+
+
+def test_crowded_plan_labels_never_overlap_and_zoom_labels_more(browser, tmp_path):
+    result = rf.many_beams(400)
+    for i, b in enumerate(result.beams):  # one storey, beams 0.5 m apart, every one failing
+        b.storey, b.outcome, b.utilisation = "Level 2", "fail", 1.2 + i / 1000
+        b.start, b.end = (0.0, 0.5 * i, 0.0), (60.0, 0.5 * i, 0.0)
+    path = write_report_html(result, tmp_path / "crowded.report.html", "si")
+    page, requests = _open(browser, path)
+    assert requests == [path.as_uri()]
+    before = _label_boxes(page)
+    assert 0 < len(before) < 400 and _overlaps(before) == []
+    caption = page.inner_text("figure.storey .label-count")
+    assert f"{len(before)} of 400 failing or not-checked beams labelled" in caption
+    size = page.evaluate("getComputedStyle(document.querySelector('svg.plan text.label')).fontSize")
+    for _ in range(3):
+        page.click("figure.storey button[data-zoom=in]")
+    page.wait_for_timeout(400)  # labels are placed again once the zoom settles
+    after = _label_boxes(page)
+    assert after and _overlaps(after) == []
+    # at 8x, labels keep their size on the screen
+    height = sum(b[3] - b[1] for b in before) / len(before)
+    assert abs(sum(b[3] - b[1] for b in after) / len(after) - height) < 3
+    assert size == "11px"
+    # the labels shown are within the drawing's view
+    view = page.evaluate(
+        "(() => { const r = document.querySelector('svg.plan').getBoundingClientRect();"
+        " return [r.left, r.top, r.right, r.bottom]; })()"
+    )
+    assert all(b[0] >= view[0] - 1 and b[2] <= view[2] + 1 for b in after)
+    page.click("figure.storey button[data-zoom=reset]")
+    page.wait_for_timeout(200)
+    reset = _label_boxes(page)  # placed again by the script: as many, give or take rounding
+    assert _overlaps(reset) == [] and abs(len(reset) - len(before)) <= len(before) // 5
+    page.close()
+
+
+def test_table_pages_through_every_beam(browser, tmp_path):
+    result = rf.many_beams(400)
+    path = write_report_html(result, tmp_path / "many.report.html", "si")
+    page, _ = _open(browser, path)
+    assert page.inner_text("#beam-count") == "400 of 400 beams"
+    assert page.inner_text("#page-text") == "page 1 of 8"
+    seen = []
+    for _ in range(8):
+        seen += _visible_names(page)
+        page.click("#page-next") if page.is_enabled("#page-next") else None
+    assert len(seen) == 400
+    page.select_option("#filter-outcome", "not_checked")
+    assert page.inner_text("#beam-count") == "100 of 400 beams"
+    assert page.inner_text("#page-text") == "page 1 of 2"
+    page.close()
+
+
+def test_without_scripts_the_summary_and_caution_show(browser, tmp_path):
+    from ifccheck import CAUTION
+
+    path = write_report_html(rf.check_result(), tmp_path / "m.report.html", "si")
+    context = browser.new_context(java_script_enabled=False)
+    page = context.new_page()
+    page.goto(path.as_uri())
+    assert page.locator("#summary .caution").is_visible()
+    assert CAUTION in page.inner_text("#summary")
+    assert page.locator("#summary table.counts").is_visible()
+    assert page.locator("svg.plan line.beam").count() == len(rf.check_result().beams)
+    context.close()
+
+
+def test_demo_details_show_both_stages(browser, tmp_path):
+    from ifccheck.check import run_check
+    from ifccheck.config import load_settings
+
+    samples = Path(__file__).parents[1] / "sample_models"
+    result, _, _ = run_check(
+        samples / "quillfeather-rev-b.ifc", load_settings(samples / "quillfeather.toml")
+    )
+    b = next(
+        b for b in result.beams
+        if b.outcome == "fail" and b.stage_result("in_service").outcome == "pass"
+    )  # fmt: skip
+    path = write_report_html(result, tmp_path / "demo.report.html", "imperial")
+    page, _ = _open(browser, path)
+    page.evaluate(f"location.hash = '#beam-{b.guid}'")
+    article = page.locator(f"#detail-view article#beam-{b.guid}")
+    article.wait_for()
+    rows = article.locator("table.stages tbody tr")
+    assert rows.count() == 2
+    service, construction = rows.nth(0).inner_text(), rows.nth(1).inner_text()
+    assert service.startswith("in service") and "pass" in service
+    assert construction.startswith("construction (governs)") and "fail" in construction
+    con = b.stage_result("construction")
+    seg = b.segments[con.governing_segment]
+    assert f"{seg.cb:.2f}" in construction and seg.load_combination in construction
+    assert article.locator("table.stages tr.governing").inner_text() == construction
     page.close()

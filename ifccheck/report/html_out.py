@@ -40,6 +40,8 @@ from ifccheck.report.colours import (
     utilisation_colour,
 )
 from ifccheck.report.display import DisplayUnits, check_system, utilisation_text
+from ifccheck.report.html_data import controlling_words, encode, report_data, stage_words
+from ifccheck.report.html_script import REPORT_SCRIPT
 from ifccheck.report.json_out import diff_summary
 from ifccheck.report.requirements import model_information_section
 from ifccheck.report.svg import (
@@ -48,28 +50,18 @@ from ifccheck.report.svg import (
     check_plan_svg,
     diff_legend_svg,
     diff_plan_svg,
-    moment_diagram_svg,
-    strength_curve_svg,
+    plan_css,
 )
 from ifccheck.report.wording import (
-    CHECK_WORDS,
-    adequacy_words,
     advice,
     change_reasons,
     diff_names,
-    end_words,
-    explanation_sentences,
-    fix_words,
-    limit_state_words,
     member_ref,
     name_guids,
     sentence,
-    station_text,
 )
 from ifccheck.results import BeamResult, CheckResult, DiffResult, SegmentResult, SlabOutline
 
-DETAIL_OTHERS = 200  # most highly utilised non-failing beams given a detail section
-DETAIL_FAILS = 500  # failing beams given a detail section, at most (worst first)
 NO_STOREY = "(no storey)"
 TOLERANCE_WORDS = {
     "gap": "Connection gap (an end may stop this short of its host)",
@@ -82,58 +74,12 @@ DECK_SOURCE_WORDS = {
     "none": "not found",
 }
 
-# Sorts and filters the beam table; the rows carry their values in data- attributes.
-TABLE_SCRIPT = """
-(() => {
-  "use strict";
-  const table = document.getElementById("beam-table");
-  const form = document.getElementById("beam-filters");
-  if (!table || !form) return;
-  const body = table.tBodies[0];
-  const rows = Array.from(body.rows);
-  const storey = document.getElementById("filter-storey");
-  const outcome = document.getElementById("filter-outcome");
-  const text = document.getElementById("filter-text");
-  const count = document.getElementById("beam-count");
-  form.hidden = false;
-  form.addEventListener("submit", (e) => e.preventDefault());
-  function apply() {
-    const s = storey.value, o = outcome.value, q = text.value.trim().toLowerCase();
-    let shown = 0;
-    for (const r of rows) {
-      const d = r.dataset;
-      const found = !q || [d.name, d.guid, d.profile].some((v) => v.toLowerCase().includes(q));
-      const ok = (!s || d.storey === s) && (!o || d.outcome === o) && found;
-      r.hidden = !ok;
-      if (ok) shown += 1;
-    }
-    count.textContent = shown + " of " + rows.length + " beams";
-  }
-  storey.addEventListener("change", apply);
-  outcome.addEventListener("change", apply);
-  text.addEventListener("input", apply);
-  let key = null, dir = 1;
-  for (const button of table.querySelectorAll("button.sort")) {
-    button.addEventListener("click", () => {
-      dir = key === button.dataset.key ? -dir : 1;
-      key = button.dataset.key;
-      const number = button.dataset.kind === "number";
-      const value = (r) => {
-        const v = r.dataset[key] || "";
-        return number ? (v === "" ? -Infinity : parseFloat(v)) : v.toLowerCase();
-      };
-      rows.sort((a, b) => {
-        const x = value(a), y = value(b);
-        return (x < y ? -1 : x > y ? 1 : 0) * dir;
-      });
-      body.append(...rows);
-      for (const th of table.tHead.rows[0].cells) th.removeAttribute("aria-sort");
-      button.parentElement.setAttribute("aria-sort", dir > 0 ? "ascending" : "descending");
-    });
-  }
-  apply();
-})();
-"""
+# The page's one script (pages, sorts and filters the table, zooms the plans, renders
+# details from the embedded data); the name is the service's, which allows it by hash.
+TABLE_SCRIPT = REPORT_SCRIPT
+PAGE_ROWS = 50  # beam table rows per page (the first page is written into the page)
+NOT_CHECKED_ROWS = 200  # not-checked beams listed in their section, at most
+DETAIL_LINKS = 40  # failing beams linked from the details section, worst first
 # For a Content-Security-Policy that lets this script, and nothing else, run.
 TABLE_SCRIPT_HASH = "sha256-" + base64.b64encode(
     hashlib.sha256(TABLE_SCRIPT.encode("utf-8")).digest()
@@ -188,17 +134,38 @@ tr[hidden]{display:none}
 """
 
 
+CHECK_CSS = """
+.plan-view{overflow:hidden;touch-action:none}
+svg.plan{cursor:grab;user-select:none}
+svg.plan line.beam{cursor:pointer}
+.plan-tools{display:flex;gap:6px;align-items:center;margin-bottom:4px}
+.plan-tools button,.pager button{font:inherit;padding:0 8px}
+.plan-tip{position:absolute;z-index:5;background:#fff;border:1px solid #888;padding:4px 8px;
+font-size:.85em;white-space:pre-line;max-width:460px;pointer-events:none;box-shadow:0 1px 4px #0003}
+.plan-tip[hidden]{display:none}
+.pager{margin:.4em 0}
+html[data-ready] .js-off{display:none}
+"""
+
+
 def _page(
-    title: str, heading: str, subtitle: str, sections: Iterable[str], script: str = ""
-) -> str:
+    title: str, heading: str, subtitle: str, sections: Iterable[str], script: str = "",
+    data: str = "", css: str = "",
+) -> str:  # fmt: skip
     return (
         "<!DOCTYPE html>\n"
         '<html lang="en"><head><meta charset="utf-8">'
         '<meta name="viewport" content="width=device-width, initial-scale=1">'
-        f"<title>{escape(title)}</title><style>{CSS}</style></head><body>"
+        f"<title>{escape(title)}</title><style>{CSS}{css}</style></head><body>"
         f"<header><h1>{escape(heading)}</h1><p>{escape(subtitle)}</p></header><main>"
         + "".join(sections)
         + "</main>"
+        + (
+            f'<script type="application/octet-stream" id="report-data" '
+            f'data-encoding="gzip+base64">{data}</script>'
+            if data
+            else ""
+        )
         + (f"<script>{script}</script>" if script else "")
         + "</body></html>\n"
     )
@@ -267,24 +234,6 @@ def _most_utilised(b: BeamResult) -> float:
     return -(b.utilisation or 0.0)
 
 
-def detail_beams(result: CheckResult) -> tuple[list[BeamResult], str]:
-    """The beams given a detail section, and a sentence saying which they are."""
-    checked = [b for b in result.beams if b.outcome != "not_checked"]
-    fails = sorted((b for b in checked if b.outcome == "fail"), key=_most_utilised)
-    others = sorted((b for b in checked if b.outcome != "fail"), key=_most_utilised)
-    shown_fails = fails[:DETAIL_FAILS]
-    shown_others = others[:DETAIL_OTHERS]
-    if len(shown_fails) == len(fails) and len(shown_others) == len(others):
-        note = f"Details of all {len(checked)} checked beams, most highly utilised first."
-    else:
-        note = (
-            f"Details of {len(shown_fails)} of {len(fails)} failing beams and the "
-            f"{len(shown_others)} most highly utilised of the other {len(others)} checked beams; "
-            "the table above and the CSV and JSON results list every beam."
-        )
-    return shown_fails + shown_others, note
-
-
 # --- check report ---------------------------------------------------------------
 def _summary_section(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
     s = result.summary()
@@ -309,6 +258,7 @@ def _summary_section(result: CheckResult, du: DisplayUnits, linked: set[str]) ->
         f"{s['fail']} fail, {s['not_checked']} not checked.</p>"
     )
     out.append('<div class="side-by-side">' + counts + _attention_list(result, linked) + "</div>")
+    out.append(_stage_summary(result))
     line = defaults_line(result, du)
     if line:
         out.append(f'<p class="defaults"><strong>Defaults.</strong> {escape(sentence(line))}</p>')
@@ -327,6 +277,53 @@ def _summary_section(result: CheckResult, du: DisplayUnits, linked: set[str]) ->
     return "".join(out)
 
 
+def stage_counts(result: CheckResult) -> dict[str, int]:
+    """Failing beams by the stages they fail in: in service (whatever construction
+    does), and only during construction (they pass, or are not checked, in service)."""
+    in_service = construction_only = 0
+    for b in result.beams:
+        if b.outcome != "fail":
+            continue
+        service = b.stage_result("in_service")
+        if service is None or service.outcome == "fail":
+            in_service += 1
+        else:
+            construction_only += 1
+    return {"in_service": in_service, "construction_only": construction_only}
+
+
+def _stage_summary(result: CheckResult) -> str:
+    """Counts per stage, when the settings declare a construction stage."""
+    if len(result.stages) < 2:
+        return ""
+    rows = []
+    for st in result.stages:
+        n = st.summary
+        bracing = "slabs brace top flanges" if st.slab_bracing else "no slab bracing"
+        rows.append(
+            [escape(st.title), escape(", ".join(st.levels) or "–"), escape(bracing),
+             _num(n.get("total", 0), 0), _num(n.get("pass", 0), 0), _num(n.get("fail", 0), 0),
+             _num(n.get("not_checked", 0), 0), _num(n.get("governing", 0), 0)]
+        )  # fmt: skip
+    c = stage_counts(result)
+    lead = (
+        f'<p class="stage-lead"><strong>Two stages.</strong> {c["in_service"]} beams fail in '
+        f"service; {c['construction_only']} more fail only during construction (wet concrete, "
+        "before the slab can brace them).</p>"
+    )
+    return (
+        '<div class="stages" id="stage-summary"><h3>By stage</h3>'
+        + lead
+        + _table(
+            ["Stage", "Levels", "Bracing", "Checked", "Pass", "Fail", "Not checked", "Governs"],
+            rows,
+            "stage-counts",
+        )
+        + '<p class="note">A beam\'s outcome is the worse of its stages; "governs" counts '
+        "the beams whose highest utilisation is in that stage.</p></div>"
+    )
+
+
 def _attention_list(result: CheckResult, linked: set[str], limit: int = 12) -> str:
     """The failing beams (worst first) and the not-checked ones, linked to their details."""
     fails = sorted((b for b in result.beams if b.outcome == "fail"), key=_most_utilised)
@@ -341,8 +338,8 @@ def _attention_list(result: CheckResult, linked: set[str], limit: int = 12) -> s
         elif b.outcome == "not_checked":
             name = f'<a href="#not-checked">{name}</a>'
         what = (
-            f"fails, utilisation {utilisation_text(b.utilisation)} in "
-            f"{escape(_controlling_words(b))}"
+            f"fails{_fail_stage_words(b)}, utilisation {utilisation_text(b.utilisation)} in "
+            f"{escape(controlling_words(b))}"
             if b.outcome == "fail"
             else f"not checked: {escape(b.reason.text if b.reason else 'no reason recorded')}"
         )
@@ -357,11 +354,16 @@ def _attention_list(result: CheckResult, linked: set[str], limit: int = 12) -> s
     )
 
 
-def _controlling_words(b: BeamResult) -> str:
-    seg = b.governing
-    if b.controlling_limit == "flexure" and seg is not None:
-        return limit_state_words(seg.limit_state)
-    return CHECK_WORDS.get(b.controlling_limit, b.controlling_limit)
+def _fail_stage_words(b: BeamResult) -> str:
+    """' only during construction', ' in service and during construction' or ''."""
+    if len(b.stages) < 2 or b.outcome != "fail":
+        return ""
+    fails = [s.stage for s in b.stages if s.outcome == "fail"]
+    if fails == ["construction"]:
+        return " only during construction"
+    if len(fails) > 1:
+        return " in service and during construction"
+    return ""
 
 
 def _basis_section(result: CheckResult, du: DisplayUnits) -> str:
@@ -380,33 +382,8 @@ def _basis_section(result: CheckResult, du: DisplayUnits) -> str:
         ("Tool", escape(f"{result.tool} {result.version}")),
     ]
     out.append(_table(["", ""], [[f"<strong>{k}</strong>", v] for k, v in facts], "facts"))
-    loads = level_loads(result)
-    if loads:
-        out.append("<h3>Loads per level</h3>")
-        out.append(
-            _table(
-                ["Level", "Case", "Load", f"Pressure ({du.label('pressure')})", "From"],
-                [[escape(x.level), escape(x.case), escape(x.what),
-                  f'<td class="num">{du.trade_number(x.pressure, "pressure")}</td>',
-                  escape(load_source_text(du, x, result))] for x in loads],
-                "loads",
-            )
-        )  # fmt: skip
-        density = float(s.get("loads", {}).get("steel_density", 7850.0))
-        out.append(
-            f'<p class="note">Steel self-weight is added on every beam from its section area '
-            f"at {escape(density_text(du, density))}.</p>"
-        )
-    out.append("<h3>Load combinations</h3>")
-    out.append(
-        _table(
-            ["Combination", "Used for", "Source"],
-            [[escape(c.name), escape("strength" if c.purpose == "strength" else
-                                     "deflection (serviceability)"), escape(c.source)]
-             for c in combinations(result)],
-            "combinations",
-        )
-    )  # fmt: skip
+    staged = len(result.stages) > 1
+    out += _stage_basis(result, du, 0, staged)
     deflection = s.get("deflection", {})
     framing = s.get("framing", {})
     limits = [
@@ -462,6 +439,8 @@ def _basis_section(result: CheckResult, du: DisplayUnits) -> str:
                 "balance",
             )
         )  # fmt: skip
+    for k in range(1, len(result.stages)):
+        out += _stage_basis(result, du, k, staged)
     settings = settings_list(s)
     out.append("<details><summary>Every setting the check ran with</summary>")
     out.append(
@@ -474,6 +453,73 @@ def _basis_section(result: CheckResult, du: DisplayUnits) -> str:
     )  # fmt: skip
     out.append("</details></section>")
     return "".join(out)
+
+
+def _stage_basis(result: CheckResult, du: DisplayUnits, stage: int, staged: bool) -> list[str]:
+    """Loads per level and load combinations of one stage; a later stage (construction)
+    under its own heading, with its bracing, levels and what it assumes."""
+    s = result.settings
+    out: list[str] = []
+    h = "h3"
+    suffix = ""
+    if staged:
+        st = result.stages[stage]
+        suffix = f" ({escape(st.title)})"
+        if stage > 0:
+            title = escape(st.title).capitalize()
+            out.append(f'<h3 id="basis-{attr(st.stage)}">{title} stage</h3>')
+            bracing = (
+                "slabs and decks brace the top flanges they bear on"
+                if st.slab_bracing
+                else "the deck is not attached: nothing braces the top flanges between brace points"
+            )
+            out.append(
+                f"<p>Levels: {escape(', '.join(st.levels) or 'none')}. Bracing: {bracing}.</p>"
+            )
+            if st.notes:
+                out.append("<ul>" + "".join(f"<li>{escape(n)}</li>" for n in st.notes) + "</ul>")
+            h = "h4"
+    loads = level_loads(result, stage)
+    if loads:
+        out.append(f"<{h}>Loads per level{suffix}</{h}>")
+        out.append(
+            _table(
+                ["Level", "Case", "Load", f"Pressure ({du.label('pressure')})", "From"],
+                [[escape(x.level), escape(x.case), escape(x.what),
+                  f'<td class="num">{du.trade_number(x.pressure, "pressure")}</td>',
+                  escape(load_source_text(du, x, result))] for x in loads],
+                "loads",
+            )
+        )  # fmt: skip
+        if stage == 0:
+            density = float(s.get("loads", {}).get("steel_density", 7850.0))
+            out.append(
+                f'<p class="note">Steel self-weight is added on every beam from its section '
+                f"area at {escape(density_text(du, density))}.</p>"
+            )
+    out.append(f"<{h}>Load combinations{suffix}</{h}>")
+    out.append(
+        _table(
+            ["Combination", "Used for", "Source"],
+            [[escape(c.name), escape("strength" if c.purpose == "strength" else
+                                     "deflection (serviceability)"), escape(c.source)]
+             for c in combinations(result, stage)],
+            "combinations",
+        )
+    )  # fmt: skip
+    if stage > 0 and result.stages[stage].load_balance:
+        out.append(f"<h4>Load balance{suffix}</h4>")
+        out.append(
+            _table(
+                ["Level", "Case", f"Applied ({du.label('force')})",
+                 f"Delivered ({du.label('force')})", "Difference"],
+                [[escape(x.level), escape(x.case), _qty(du, x.applied, "force", 1),
+                  _qty(du, x.delivered, "force", 1), _pct(x.delivered - x.applied, x.applied)]
+                 for x in result.stages[stage].load_balance],
+                "balance",
+            )
+        )  # fmt: skip
+    return out
 
 
 def _pct(diff: float, base: float) -> str:
@@ -499,27 +545,32 @@ def _plans_section(
     return "".join(out)
 
 
-def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
+def table_order(result: CheckResult) -> list[BeamResult]:
+    """The table's order: failing first, then by utilisation, then by name."""
     order = {"fail": 0, "pass": 1, "not_checked": 2}
-    beams = sorted(result.beams, key=lambda b: (order[b.outcome], -(b.utilisation or 0.0), b.name))
+    return sorted(result.beams, key=lambda b: (order[b.outcome], -(b.utilisation or 0.0), b.name))
+
+
+def _beam_table(result: CheckResult, du: DisplayUnits) -> str:
+    """The table's first page as written; the script pages, sorts and filters every beam
+    from the embedded data."""
+    beams = table_order(result)
     strength = _strength_label(result.method)
+    staged = len(result.stages) > 1
     rows = []
-    for b in beams:
+    for b in beams[:PAGE_ROWS]:
         seg = b.governing
-        name = escape(b.name or b.guid)
-        if b.guid in linked:
-            name = f'<a href="#beam-{attr(b.guid)}">{name}</a>'
-        u = "" if b.utilisation is None else f"{b.utilisation:.6f}"
-        lb = "" if seg is None else ("0" if seg.continuous else f"{seg.lb:.6f}")
+        name = f'<a href="#beam-{attr(b.guid)}">{escape(b.name or b.guid)}</a>'
         rows.append(
             f'<tr data-guid="{attr(b.guid)}" data-name="{attr(b.name)}" '
             f'data-storey="{attr(b.storey or NO_STOREY)}" data-outcome="{attr(b.outcome)}" '
-            f'data-profile="{attr(b.profile)}" data-utilisation="{u}" data-lb="{lb}">'
+            f'data-profile="{attr(b.profile)}" data-stage="{attr(stage_words(b.stage))}">'
             + "".join(
                 c if c.startswith("<td") else f"<td>{c}</td>"
                 for c in [
                     name, escape(b.storey), escape(b.profile), _outcome(b.outcome),
-                    _utilisation_cell(b.utilisation), escape(_controlling_words(b)),
+                    _utilisation_cell(b.utilisation), escape(controlling_words(b)),
+                    *([escape(stage_words(b.stage))] if staged else []),
                     _lb_cell(seg, du), _num(seg.cb if seg else None),
                     _qty(du, seg.moment_demand if seg else None, "moment", 1),
                     _qty(du, seg.moment_capacity if seg else None, "moment", 1),
@@ -531,7 +582,9 @@ def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
     head = [
         ("Beam", "name", "text"), ("Storey", "storey", "text"), ("Profile", "profile", "text"),
         ("Outcome", "outcome", "text"), ("Utilisation", "utilisation", "number"),
-        ("Controlling limit", "", ""), (f"Lb ({du.label('length')})", "lb", "number"),
+        ("Controlling limit", "", ""),
+        *([("Governing stage", "stage", "text")] if staged else []),
+        (f"Lb ({du.label('length')})", "lb", "number"),
         ("Cb", "", ""), (f"Moment ({du.label('moment')})", "", ""),
         (f"{strength} ({du.label('moment')})", "", ""), ("GUID", "guid", "text"),
     ]  # fmt: skip
@@ -557,16 +610,31 @@ def _beam_table(result: CheckResult, du: DisplayUnits, linked: set[str]) -> str:
         'placeholder="name, GUID or profile" autocomplete="off"></label>'
         f'<span id="beam-count" class="note">{len(beams)} of {len(beams)} beams</span></form>'
     )
+    pager = (
+        '<div class="pager" id="beam-pager" hidden><button type="button" id="page-prev">'
+        'previous</button> <span id="page-text"></span> <button type="button" id="page-next">'
+        "next</button></div>"
+    )
+    shown = (
+        ""
+        if len(beams) <= PAGE_ROWS
+        else f'<p class="note js-off">The first {PAGE_ROWS} of {len(beams)} beams; with '
+        "scripts on, the table pages through all of them (and the CSV lists every beam).</p>"
+    )
     return (
         '<section id="beams"><h2>Beams</h2><p>Every beam, failing first, then by utilisation. '
         "Lb, Cb and moments are those of the governing unbraced segment. Select a column "
-        "heading to sort by it; narrow the list by storey, outcome or a name.</p>"
+        "heading to sort by it; narrow the list by storey, outcome or a name; select a beam "
+        "for its details.</p>"
         + controls
         + '<table class="beams" id="beam-table"><thead><tr>'
         + "".join(cells)
         + "</tr></thead><tbody>"
         + "".join(rows)
-        + "</tbody></table></section>"
+        + "</tbody></table>"
+        + pager
+        + shown
+        + "</section>"
     )
 
 
@@ -594,219 +662,105 @@ def _not_checked_section(result: CheckResult) -> str:
         [escape(b.name or b.guid), escape(b.storey), escape(b.profile),
          escape(name_guids(reason_text(b.reason), names)), escape(advice(b.reason)),
          f"<code>{escape(b.guid)}</code>"]
-        for b in beams
+        for b in beams[:NOT_CHECKED_ROWS]
     ]  # fmt: skip
+    more = ""
+    if len(beams) > NOT_CHECKED_ROWS:
+        by_reason = result.not_checked_by_reason()
+        more = (
+            f'<p class="note">The first {NOT_CHECKED_ROWS} of {len(beams)} not-checked beams; '
+            "filter the beam table by outcome for the others. By reason: "
+            + escape("; ".join(f"{k} {n}" for k, n in by_reason.items()))
+            + ".</p>"
+        )
     return (
         '<section id="not-checked"><h2>Not checked</h2>'
         + _table(["Beam", "Storey", "Profile", "Reason", "What the model needs", "GUID"], rows)
+        + more
         + "</section>"
     )
 
 
-def _demand_html(b: BeamResult, du: DisplayUnits, names: dict[str, str]) -> str:
-    d = b.demand
-    if d is None:
-        return ""
+def _check_plans_section(result: CheckResult, du: DisplayUnits, intro: str) -> str:
+    """Per storey a plan, with zoom buttons the script shows and a count of labels."""
+    beams_by = _by_storey(result.beams, lambda b: b.storey)
+    slabs_by = _by_storey(result.slabs, lambda s: s.storey)
     out = [
-        f"<h4>Demand</h4><p>Source: {escape(d.source)}. Tributary width "
-        f"{escape(du.text(d.tributary_left, 'length'))} left, "
-        f"{escape(du.text(d.tributary_right, 'length'))} right. Moment from "
-        f"{escape(d.moment_combination or '–')}, shear from "
-        f"{escape(d.shear_combination or '–')}.</p>"
+        f'<section id="plans"><h2>Storey plans</h2><p>{intro}</p>',
+        check_legend_svg(),
+        '<div id="plan-tip" class="plan-tip" hidden></div>',
     ]
-    if d.line_loads:
+    for name in _storey_order(result.storeys, beams_by):
+        beams = beams_by[name]
+        svg, wanted, dropped = check_plan_svg(beams, slabs_by.get(name, []), du, set(),
+                                              f"Plan of {name}")  # fmt: skip
+        labelled = (
+            f"{wanted - dropped} of {wanted} failing or not-checked beams labelled"
+            + ("; zoom in to label the others" if dropped else "")
+            + "."
+            if wanted
+            else ""
+        )
         out.append(
-            _table(
-                ["Case", f"Line load ({du.label('line load')})", "From", "To", "Source"],
-                [[escape(ll.case), _qty(du, ll.intensity, "line load", 3),
-                  _qty(du, ll.start, "length"), _qty(du, ll.end, "length"),
-                  escape(name_guids(ll.source, names))]
-                 for ll in d.line_loads],
-            )
-        )  # fmt: skip
-    if d.point_loads:
-        out.append(
-            _table(
-                ["Case", f"Point load ({du.label('force')})", "Station", "Delivered by"],
-                [[escape(p.case), _qty(du, p.force, "force", 2), _qty(du, p.station, "length"),
-                  escape(member_ref(p.source, names))] for p in d.point_loads],
-            )
-        )  # fmt: skip
+            f'<figure class="storey" data-storey="{attr(name)}">'
+            '<div class="plan-tools" hidden><button type="button" data-zoom="in" '
+            'title="zoom in">+</button><button type="button" data-zoom="out" title="zoom out">'
+            '−</button><button type="button" data-zoom="reset">whole storey</button> '
+            '<span class="note">wheel to zoom, drag to pan</span></div>'
+            f'<div class="plan-view">{svg}</div>'
+            f"<figcaption>{escape(name)}: {len(beams)} beams. Plan view, model x to the "
+            f'right, y up the page. <span class="label-count">{labelled}</span></figcaption>'
+            "</figure>"
+        )
+    out.append("</section>")
     return "".join(out)
 
 
-def _trail_html(b: BeamResult, du: DisplayUnits, method: str) -> str:
-    """The hand-check trail: the figures of the governing segment's strength, with equations."""
-    t = b.trail
-    if t is None:
-        return ""
-    v = t.values
-    seg = b.governing
-    strength = _strength_label(method)
-    rows = [
-        ("Fy", du.trade(v["fy"], "stress"), "yield stress of the grade"),
-        ("E", du.trade(v["e"], "stress"), "modulus of elasticity"),
-        ("Zx", du.section(v["zx"], "modulus"), "plastic modulus"),
-        ("Sx", du.section(v["sx"], "modulus"), "elastic modulus"),
-        ("ry", du.section(v["ry"], "section length"), "radius of gyration, minor axis"),
-        ("rts", du.section(v["rts"], "section length"), "effective radius of gyration, F2-7"),
-        ("J", du.section(v["j"], "inertia"), "torsional constant"),
-        ("ho", du.section(v["ho"], "section length"), "distance between flange centroids"),
-        ("c", f"{v['c']:.3f}", "F2-8a (I-shape) or F2-8b (channel)"),
-        ("Mp", du.text(v["mp"], "moment", 1), "Fy Zx, F2-1"),
-        ("0.7 Fy Sx", du.text(v["mr"], "moment", 1), "moment at Lr"),
-        ("Lp", du.text(v["lp"], "length"), "F2-5"),
-        ("Lr", du.text(v["lr"], "length"), "F2-6"),
-        ("Lb", "continuous (slab)" if seg is not None and seg.continuous
-         else du.text(v["lb"], "length"), "the governing segment"),
-        ("Cb", f"{v['cb']:.3f}", "F1-1" if seg is not None and not seg.continuous else "1.0"),
-    ]  # fmt: skip
-    if "fcr" in v:
-        rows.append(("Fcr", du.trade(v["fcr"], "stress"), "F2-4 at this Lb and Cb"))
-    rows += [
-        ("Mn", du.text(v["mn"], "moment", 1), limit_state_words(t.limit_state)),
-        (t.factor_symbol, f"{t.factor:.2f}", "resistance factor" if method.upper() == "LRFD"
-         else "safety factor"),
-        (strength, du.text(v["design_strength"], "moment", 1), "design strength"),
-        ("Mu" if method.upper() == "LRFD" else "Ma", du.text(v["moment_demand"], "moment", 1),
-         "moment demand, governing combination"),
-    ]  # fmt: skip
+def _details_section(result: CheckResult) -> str:
+    """The container the script renders a beam's details into, and links to the failing
+    beams worst first."""
+    fails = sorted((b for b in result.beams if b.outcome == "fail"), key=_most_utilised)
+    links = "".join(
+        f'<li><a href="#beam-{attr(b.guid)}">{escape(b.name or b.guid)}</a> '
+        f"({escape(b.storey)}, {utilisation_text(b.utilisation)})</li>"
+        for b in fails[:DETAIL_LINKS]
+    )
+    more = (
+        f"<li>and {len(fails) - DETAIL_LINKS} more (the beam table lists them all)</li>"
+        if len(fails) > DETAIL_LINKS
+        else ""
+    )
     return (
-        '<details class="trail"><summary>Hand-check trail</summary>'
-        + _table(
-            ["Quantity", "Value", "Note"],
-            [[escape(a), escape(x), escape(n)] for a, x, n in rows],
-            "trail",
-        )
-        + "<p class='note'>Equations used:</p><ul class='equations'>"
-        + "".join(f"<li>{escape(e)}</li>" for e in t.equations)
-        + "</ul></details>"
+        '<section id="details"><h2>Beam details</h2><p class="note">Every beam has details: '
+        "select it in the table, on a plan or below. They are drawn from the data embedded in "
+        "this page, and need scripts on; the JSON results carry the same figures.</p>"
+        + (f'<ul class="detail-links">{links}{more}</ul>' if links else "")
+        + '<div id="detail-view"></div></section>'
     )
-
-
-def _beam_article(b: BeamResult, du: DisplayUnits, method: str, names: dict[str, str]) -> str:
-    strength = _strength_label(method)
-    out = [f'<article class="beam" id="beam-{attr(b.guid)}">']
-    out.append(
-        f"<h3>{escape(b.name or b.guid)} {_outcome(b.outcome)}</h3>"
-        f'<p class="note">{escape(b.profile)} · {escape(b.grade)} · {escape(b.storey)} · '
-        f"<code>{escape(b.guid)}</code></p>"
-    )
-    facts = _table(
-        [f"Span ({du.label('length')})", f"Fy ({du.label('stress')})", "Utilisation",
-         "Strength", "Flexure", "Shear", "Deflection", "Controlling limit"],
-        [[_qty(du, b.span, "length"), f'<td class="num">{du.trade_number(b.fy, "stress")}</td>',
-          _utilisation_cell(b.utilisation), _utilisation_cell(b.strength_utilisation),
-          _utilisation_cell(b.flexure_utilisation), _utilisation_cell(b.shear_utilisation),
-          _utilisation_cell(b.deflection_utilisation), escape(_controlling_words(b))]],
-    )  # fmt: skip
-    out.append(facts)
-    if b.outcome == "fail":
-        why = explanation_sentences(b, du, names)
-        if why:
-            out.append(
-                '<div class="why"><h4>Why it fails and what would make it pass</h4><ul>'
-                + "".join(f"<li>{escape(x)}</li>" for x in why)
-                + "</ul></div>"
-            )
-        else:
-            out.append(f'<p class="fix">{escape(fix_words(b, du))}</p>')
-    ends = (
-        f"Stations are measured from {escape(end_words(b, 'start'))} "
-        f"(the beam's start) towards {escape(end_words(b, 'end'))}."
-    )
-    rows = []
-    for i, s in enumerate(b.segments):
-        cells = [
-            _num(i + 1, 0), _qty(du, s.start, "length"), _qty(du, s.end, "length"),
-            _lb_cell(s, du), _num(s.cb),
-            escape(s.flange + (" (slab)" if s.continuous else "")),
-            _qty(du, s.moment_demand, "moment", 1), _qty(du, s.moment_capacity, "moment", 1),
-            _utilisation_cell(s.utilisation), escape(limit_state_words(s.limit_state)),
-            escape(s.load_combination),
-        ]  # fmt: skip
-        rows.append(cells)
-    if rows:
-        head = [
-            "#", f"From ({du.label('length')})", f"To ({du.label('length')})",
-            f"Lb ({du.label('length')})", "Cb", "Compression flange",
-            f"Moment ({du.label('moment')})", f"{strength} ({du.label('moment')})", "Utilisation",
-            "Limit state", "Load combination",
-        ]  # fmt: skip
-        table = _table(head, rows, "segments", marked=b.governing_segment)
-        out.append(f"<h4>Unbraced segments</h4><p class='note'>{ends}</p>" + table)
-    charts = []
-    moment = moment_diagram_svg(b, du)
-    if moment:
-        charts.append(
-            f"<figure>{moment}<figcaption>Moment under the governing combination; dots are "
-            "brace points (hollow: does not count), the shaded band the governing segment, "
-            "the blue band slab-braced length.</figcaption></figure>"
-        )
-    curve = strength_curve_svg(b, du, method)
-    if curve:
-        charts.append(
-            f"<figure>{curve}<figcaption>Design strength {strength} against unbraced length "
-            "for this section and the governing segment's Cb, with Lp and Lr marked; the "
-            "marker is the governing segment at its Lb and moment (a cross where it fails)."
-            "</figcaption></figure>"
-        )
-    out += charts
-    out.append(_trail_html(b, du, method))
-    if b.brace_points:
-        out.append(
-            "<h4>Brace points</h4>"
-            + _table(
-                [f"Station ({du.label('length')})", "From the nearer end", "Kind", "Flange",
-                 "Counts", "By", "Appendix 6 (needed / provided)", "Why not"],
-                [[_qty(du, p.station, "length"), escape(station_text(b, p.station, du)),
-                  escape(p.kind), escape(p.flange), "yes" if p.counts else "no",
-                  escape(member_ref(p.by, {p.by: p.by_name} if p.by_name else names)),
-                  escape(adequacy_words(p.adequacy, du)),
-                  escape(name_guids(reason_text(p.reason), names, with_guid=False))]
-                 for p in sorted(b.brace_points, key=lambda p: p.station)],
-            )
-        )  # fmt: skip
-    out.append(_demand_html(b, du, names))
-    if b.notes:
-        out.append(
-            "<h4>Notes</h4><ul>"
-            + "".join(f"<li>{escape(name_guids(n, names))}</li>" for n in b.notes)
-        )
-        out.append("</ul>")
-    out.append("</article>")
-    return "".join(out)
 
 
 def report_html(result: CheckResult, units: str) -> str:
     """The check report page as text."""
     du = DisplayUnits(check_system(units))
-    details, note = detail_beams(result)
-    linked = {b.guid for b in details}
-    beams_by = _by_storey(result.beams, lambda b: b.storey)
-    slabs_by = _by_storey(result.slabs, lambda s: s.storey)
-    names = result.names
-
-    def draw(name, beams, slabs):
-        return check_plan_svg(beams, slabs, du, linked, f"Plan of {name}")
-
+    linked = {b.guid for b in result.beams}
     intro = (
         "Beams coloured by their utilisation (demand over strength) in steps; failing beams "
         "are red with a dark casing and a label, beams not checked are grey, dashed and "
-        "labelled. Dots are brace points, hollow where a brace does not count; blue bands "
-        "mark lengths braced by a slab. Hover over a beam for its name and figures; select "
-        "it for its details."
+        "labelled, as many labels as fit without overlapping. Dots are brace points, hollow "
+        "where a brace does not count; blue bands mark lengths braced by a slab. Hover over a "
+        "beam for its name, figures and brace points; select it for its details; zoom to read "
+        "a crowded plan."
     )
+    storeys = _storey_order(result.storeys, {b.storey or NO_STOREY for b in result.beams})
+    data = encode(report_data(result, du, storeys, NO_STOREY))
     sections = [
         _summary_section(result, du, linked),
         _basis_section(result, du),
         model_information_section(result),
-        _plans_section(result.storeys, beams_by, slabs_by, draw, check_legend_svg(), intro),
-        _beam_table(result, du, linked),
+        _check_plans_section(result, du, intro),
+        _beam_table(result, du),
         _not_checked_section(result),
-        f'<section id="details"><h2>Beam details</h2><p class="note">{escape(note)}</p>'
-        + "".join(_beam_article(b, du, result.method, names) for b in details)
-        + "</section>",
+        _details_section(result),
         f'<footer><p class="note">{escape(result.caution or CAUTION)}</p></footer>',
     ]
     return _page(
@@ -816,6 +770,8 @@ def report_html(result: CheckResult, units: str) -> str:
         f"{result.checked_at}",
         sections,
         script=TABLE_SCRIPT,
+        data=data,
+        css=plan_css() + CHECK_CSS,
     )
 
 

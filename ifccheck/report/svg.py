@@ -9,6 +9,7 @@ page.
 from __future__ import annotations
 
 import math
+from collections import defaultdict
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass
 from html import escape
@@ -22,11 +23,11 @@ from ifccheck.report.colours import (
     NEUTRAL,
     NOT_CHECKED,
     UTILISATION_BANDS,
-    utilisation_colour,
+    utilisation_band,
 )
 from ifccheck.report.display import DisplayUnits, utilisation_text
 from ifccheck.report.wording import lb_text, station_text
-from ifccheck.results import BeamChange, BeamResult, SlabOutline
+from ifccheck.results import BeamChange, BeamResult, BracePointOut, SlabOutline
 
 Point2 = tuple[float, float]
 
@@ -102,44 +103,119 @@ def _line(frame: Frame, a: Point2, b: Point2, extra: str) -> str:
 
 
 LABEL_CHAR = 6.6  # px per character of an 11 px label (a generous average, so labels fit)
+LABEL_HEIGHT = 14.0  # px: an 11 px label's box, ascent and descent with its halo
+LABEL_CELL = 64.0  # px: the collision grid's cell
+
+
+@dataclass(frozen=True)
+class Label:
+    """A placed plan label: its text, anchor point and box (pixels)."""
+
+    guid: str
+    text: str
+    x: float
+    y: float
+    anchor: str  # "start", "middle", "end"
+    box: tuple[float, float, float, float]  # left, top, right, bottom
+    cls: str = "label"
+    colour: str = "#000"
+
+
+def label_box(x: float, y: float, anchor: str, text: str) -> tuple[float, float, float, float]:
+    """The box an 11 px label takes with its baseline at (x, y)."""
+    w = LABEL_CHAR * len(text)
+    left = x - w / 2 if anchor == "middle" else x if anchor == "start" else x - w
+    return left, y - 11.0, left + w, y + LABEL_HEIGHT - 11.0
+
+
+def boxes_overlap(a: Sequence[float], b: Sequence[float]) -> bool:
+    return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
+
+
+def _candidates(
+    x0: float, y0: float, x1: float, y1: float, w: float, width: float, height: float
+) -> list[tuple[float, float, str]]:
+    """Where a label may go beside a beam drawn from (x0, y0) to (x1, y1), best first:
+    beside its midpoint, then beside its quarter points; kept inside the drawing."""
+    out = []
+    for t in (0.5, 0.25, 0.75):
+        mx, my = x0 + t * (x1 - x0), y0 + t * (y1 - y0)
+        if abs(x1 - x0) >= abs(y1 - y0):  # along x: above, else below, centred
+            x = min(max(mx, w / 2 + 2), width - w / 2 - 2)
+            for y in (my - 7, my + 15):
+                out.append((x, min(max(y, 12.0), height - 4), "middle"))
+        else:  # along y: to the right, else to the left
+            if mx + 6 + w <= width - 2:
+                out.append((mx + 6, min(max(my + 4, 12.0), height - 4), "start"))
+            if mx - 6 - w >= 2:
+                out.append((mx - 6, min(max(my + 4, 12.0), height - 4), "end"))
+    return out
+
+
+def place_labels(
+    wanted: Sequence[tuple[str, str, tuple[float, float, float, float], str, str]],
+    width: float, height: float,
+) -> tuple[list[Label], int]:  # fmt: skip
+    """Greedy placement: each label (in the order given, most important first) takes the
+    first of its candidate places whose box meets no label placed before it; a label with
+    no free place is left out. ``wanted`` holds (guid, text, pixel line, class, colour).
+    Returns the placed labels and how many were left out."""
+    grid: dict[tuple[int, int], list[tuple[float, float, float, float]]] = defaultdict(list)
+    placed: list[Label] = []
+    dropped = 0
+    for guid, text, (x0, y0, x1, y1), cls, colour in wanted:
+        w = LABEL_CHAR * len(text)
+        for x, y, anchor in _candidates(x0, y0, x1, y1, w, width, height):
+            box = label_box(x, y, anchor, text)
+            cells = [
+                (i, j)
+                for i in range(int(box[0] // LABEL_CELL), int(box[2] // LABEL_CELL) + 1)
+                for j in range(int(box[1] // LABEL_CELL), int(box[3] // LABEL_CELL) + 1)
+            ]
+            if any(boxes_overlap(box, other) for c in cells for other in grid.get(c, ())):
+                continue
+            for c in cells:
+                grid[c].append(box)
+            placed.append(Label(guid, text, x, y, anchor, box, cls, colour))
+            break
+        else:
+            dropped += 1
+    return placed, dropped
+
+
+def _label_svg(lab: Label) -> str:
+    return (
+        f'<text class="{lab.cls}" data-guid-label="{attr(lab.guid)}" x="{_f(lab.x)}" '
+        f'y="{_f(lab.y)}" text-anchor="{lab.anchor}" fill="{lab.colour}">{escape(lab.text)}</text>'
+    )
 
 
 def _label(frame: Frame, b: BeamResult, text: str, colour: str = "#000", cls: str = "label") -> str:
-    """A label beside the beam's midpoint, kept wholly inside the drawing."""
-    mx, my = frame.px(*_along(b, b.length / 2))
+    """A label beside the beam's midpoint, kept wholly inside the drawing (diff plans)."""
     (x0, y0), (x1, y1) = frame.px(b.start[0], b.start[1]), frame.px(b.end[0], b.end[1])
-    w = LABEL_CHAR * len(text)
-    if abs(x1 - x0) >= abs(y1 - y0):  # along x: above the line, centred
-        x = min(max(mx, w / 2 + 2), frame.width - w / 2 - 2)
-        y = my - 7 if my - 7 >= 12 else my + 15
-        anchor = "middle"
-    elif mx + 6 + w <= frame.width - 2:  # along y: to the right
-        x, y, anchor = mx + 6, my + 4, "start"
-    else:  # to the left, where the right would run off the drawing
-        x, y, anchor = max(mx - 6, w + 2), my + 4, "end"
-    y = min(max(y, 12.0), frame.height - 4)
+    placed, _ = place_labels([(b.guid, text, (x0, y0, x1, y1), cls, colour)], frame.width,
+                             frame.height)  # fmt: skip
+    if not placed:
+        return ""
+    lab = placed[0]
     return (
-        f'<text class="{cls}" x="{_f(x)}" y="{_f(y)}" text-anchor="{anchor}" fill="{colour}" '
-        f'stroke="#fff" stroke-width="3" paint-order="stroke" font-size="11">'
+        f'<text class="{cls}" x="{_f(lab.x)}" y="{_f(lab.y)}" text-anchor="{lab.anchor}" '
+        f'fill="{colour}" stroke="#fff" stroke-width="3" paint-order="stroke" font-size="11">'
         f"{escape(text)}</text>"
     )
 
 
-def _brace_marks(frame: Frame, b: BeamResult, du: DisplayUnits) -> list[str]:
+def _dots(frame: Frame, points: Iterable[Point2]) -> str:
+    """Zero-length subpaths: with a round cap each draws a dot of the stroke's width."""
+    return "".join(f"M{_f(x)} {_f(y)}h0" for x, y in (frame.px(*p) for p in points))
+
+
+def _segments_path(frame: Frame, pairs: Iterable[tuple[Point2, Point2]]) -> str:
     out = []
-    for p in b.brace_points:
-        x, y = frame.px(*_along(b, p.station))
-        fill = "#222" if p.counts else "#fff"
-        cls = "brace" if p.counts else "brace brace-void"
-        by = f"{p.by_name} ({p.by})" if p.by_name else p.by
-        tip = f"{b.name or b.guid}: {p.kind} brace at {station_text(b, p.station, du)} by {by}"
-        if not p.counts:
-            tip += f"; does not count: {p.reason.text if p.reason else 'no reason recorded'}"
-        out.append(
-            f'<circle class="{cls}" cx="{_f(x)}" cy="{_f(y)}" r="3.2" fill="{fill}" '
-            f'stroke="#222" stroke-width="1.2"><title>{escape(tip)}</title></circle>'
-        )
-    return out
+    for a, b in pairs:
+        (x0, y0), (x1, y1) = frame.px(*a), frame.px(*b)
+        out.append(f"M{_f(x0)} {_f(y0)}L{_f(x1)} {_f(y1)}")
+    return "".join(out)
 
 
 def beam_tooltip(b: BeamResult, du: DisplayUnits) -> str:
@@ -154,65 +230,122 @@ def beam_tooltip(b: BeamResult, du: DisplayUnits) -> str:
     return " · ".join(p for p in parts if p)
 
 
+def brace_tip(b: BeamResult, p: BracePointOut, du: DisplayUnits) -> str:
+    """A brace point in words: kind, station from the nearer named end, member, and why
+    it does not count."""
+    by = f"{p.by_name} ({p.by})" if p.by_name else p.by
+    tip = f"{p.kind} brace at {station_text(b, p.station, du)} by {by}"
+    if not p.counts:
+        tip += f"; does not count: {p.reason.text if p.reason else 'no reason recorded'}"
+    return tip
+
+
 def _placed(b: BeamResult) -> bool:
     """Whether a beam has a position to draw (one the reader could not place has NaN)."""
     return all(math.isfinite(v) for v in (*b.start[:2], *b.end[:2]))
 
 
+BAND_CLASSES = ("u0", "u1", "u2", "u3", "u4")  # the utilisation bands, then fail
+
+
+def plan_css() -> str:
+    """The plan's shared styles: one rule per band instead of attributes on every beam."""
+    rules = [
+        "svg.plan line.beam{stroke-width:3.5px;stroke-linecap:round}",
+        f"svg.plan line.oc-not_checked{{stroke:{NOT_CHECKED};stroke-width:2.5px;"
+        "stroke-dasharray:6 4;stroke-linecap:butt}",
+        "svg.plan .outline{stroke:#4d4d4d;stroke-width:5px;stroke-linecap:round;fill:none}",
+        f"svg.plan .fail-casing{{stroke:{FAIL_CASING};stroke-width:8px;stroke-linecap:round;"
+        "fill:none}",
+        "svg.plan .slab-braced{stroke:#6a9fc0;stroke-opacity:.45;stroke-width:11px;fill:none}",
+        "svg.plan .brace{stroke:#222;stroke-width:6.4px;stroke-linecap:round;fill:none}",
+        "svg.plan .brace-void-in{stroke:#fff;stroke-width:4px;stroke-linecap:round;fill:none}",
+        "svg.plan .slab{fill:#f4f4f4;fill-rule:evenodd;stroke:#b5b5b5;stroke-width:1px}",
+        "svg.plan text.label{font-size:11px;stroke:#fff;stroke-width:3px;paint-order:stroke}",
+        "svg.plan line,svg.plan path{vector-effect:non-scaling-stroke}",
+    ]
+    colours = [c for _u, c, _l in UTILISATION_BANDS] + [FAIL]
+    rules += [
+        f"svg.plan line.{k}{{stroke:{c}}}" for k, c in zip(BAND_CLASSES, colours, strict=True)
+    ]
+    return "".join(rules)
+
+
 def check_plan_svg(
     beams: Sequence[BeamResult], slabs: Sequence[SlabOutline], du: DisplayUnits,
     linked: set[str], title: str,
-) -> str:  # fmt: skip
-    """One storey: slabs, slab-braced bands, beams coloured by utilisation, brace points, labels."""
+) -> tuple[str, int, int]:  # fmt: skip
+    """One storey: slabs, slab-braced bands, beams coloured by utilisation, brace points,
+    labels for failing and not-checked beams placed without overlap.
+
+    Returns the SVG, how many beams wanted a label and how many were left out. Styles
+    come from :func:`plan_css`; bands, casings and brace points are one path each per
+    storey, each beam one ``line`` with its ``data-guid``.
+    """
     beams = [b for b in beams if _placed(b)]
     pts: list[Point2] = [(b.start[0], b.start[1]) for b in beams]
     pts += [(b.end[0], b.end[1]) for b in beams]
     pts += [(p[0], p[1]) for s in slabs for p in s.exterior]
     frame = Frame.fit(pts)
     body: list[str] = _slabs_svg(frame, slabs)
-    bands, casings, lines, marks, labels = [], [], [], [], []
+    bands: list[tuple[Point2, Point2]] = []
+    outlines: list[tuple[Point2, Point2]] = []
+    casings: list[tuple[Point2, Point2]] = []
+    lines: list[str] = []
+    counting: list[Point2] = []
+    void: list[Point2] = []
+    wanted = []
+    fails = sorted((b for b in beams if b.outcome == "fail"), key=lambda b: -(b.utilisation or 0))
+    for b in [*fails, *(b for b in beams if b.outcome == "not_checked")]:
+        (x0, y0), (x1, y1) = frame.px(b.start[0], b.start[1]), frame.px(b.end[0], b.end[1])
+        if b.outcome == "fail":
+            wanted.append((b.guid, f"{b.name or b.guid} {utilisation_text(b.utilisation)}",
+                           (x0, y0, x1, y1), "label", "#000"))  # fmt: skip
+        else:
+            wanted.append((b.guid, f"{b.name or b.guid} (not checked)", (x0, y0, x1, y1),
+                           "label nc-label", "#444"))  # fmt: skip
     for b in beams:
         a, e = (b.start[0], b.start[1]), (b.end[0], b.end[1])
-        for s0, s1 in b.continuous_bracing:
-            bands.append(
-                _line(
-                    frame, _along(b, s0), _along(b, s1),
-                    'class="slab-braced" stroke="#6a9fc0" stroke-opacity="0.45" '
-                    'stroke-width="11" stroke-linecap="butt"',
-                )
-            )  # fmt: skip
+        bands += [(_along(b, s0), _along(b, s1)) for s0, s1 in b.continuous_bracing]
         if b.outcome == "fail":
-            casings.append(
-                _line(frame, a, e, f'class="fail-casing" stroke="{FAIL_CASING}" '
-                      'stroke-width="8" stroke-linecap="round"')
-            )  # fmt: skip
-            labels.append(_label(frame, b, f"{b.name or b.guid} {utilisation_text(b.utilisation)}"))
+            casings.append((a, e))
         elif b.outcome != "not_checked":
-            casings.append(
-                _line(frame, a, e, 'class="outline" stroke="#4d4d4d" stroke-width="5" '
-                      'stroke-linecap="round"')
-            )  # fmt: skip
-        if b.outcome == "not_checked":
-            labels.append(
-                _label(frame, b, f"{b.name or b.guid} (not checked)", "#444", "label nc-label")
-            )
-            style = f'stroke="{NOT_CHECKED}" stroke-width="2.5" stroke-dasharray="6 4"'
-        else:
-            colour = utilisation_colour(b.utilisation)
-            style = f'stroke="{colour}" stroke-width="3.5" stroke-linecap="round"'
-        u = "" if b.utilisation is None else f' data-utilisation="{b.utilisation:.3f}"'
-        shape = _line(
-            frame, a, e,
-            f'class="beam oc-{b.outcome}" data-guid="{attr(b.guid)}" '
-            f'data-outcome="{b.outcome}"{u} {style}',
-        )  # fmt: skip
-        shape = shape[:-2] + f"><title>{escape(beam_tooltip(b, du))}</title></line>"
-        if b.guid in linked:
-            shape = f'<a href="#beam-{attr(b.guid)}">{shape}</a>'
-        lines.append(shape)
-        marks.extend(_brace_marks(frame, b, du))
-    body += bands + casings + lines + marks + labels
-    return _svg(frame.width, frame.height, title, body, "plan")
+            outlines.append((a, e))
+        band = utilisation_band(b.utilisation)
+        k = "" if b.outcome == "not_checked" or band is None else " " + BAND_CLASSES[band]
+        (x0, y0), (x1, y1) = frame.px(*a), frame.px(*e)
+        lines.append(
+            f'<line class="beam oc-{b.outcome}{k}" data-guid="{attr(b.guid)}" '
+            f'x1="{_f(x0)}" y1="{_f(y0)}" x2="{_f(x1)}" y2="{_f(y1)}"/>'
+        )
+        for p in b.brace_points:
+            (counting if p.counts else void).append(_along(b, p.station))
+    if bands:
+        body.append(f'<path class="slab-braced" data-n="{len(bands)}" '
+                    f'd="{_segments_path(frame, bands)}"/>')  # fmt: skip
+    if outlines:
+        body.append(f'<path class="outline" data-n="{len(outlines)}" '
+                    f'd="{_segments_path(frame, outlines)}"/>')  # fmt: skip
+    if casings:
+        body.append(f'<path class="fail-casing" data-n="{len(casings)}" '
+                    f'd="{_segments_path(frame, casings)}"/>')  # fmt: skip
+    body.append('<g class="beams">' + "".join(lines) + "</g>")
+    if counting:
+        body.append(f'<path class="brace" data-n="{len(counting)}" d="{_dots(frame, counting)}"/>')
+    if void:
+        d = _dots(frame, void)
+        body.append(f'<path class="brace brace-void" data-n="{len(void)}" d="{d}"/>'
+                    f'<path class="brace-void-in" d="{d}"/>')  # fmt: skip
+    placed, dropped = place_labels(wanted, frame.width, frame.height)
+    body.append('<g class="labels">' + "".join(_label_svg(lab) for lab in placed) + "</g>")
+    svg = (
+        f'<svg class="plan" role="img" viewBox="0 0 {_f(frame.width)} {_f(frame.height)}" '
+        f'width="{_f(frame.width)}" height="{_f(frame.height)}" aria-label="{attr(title)}" '
+        f'data-scale="{frame.scale:.6g}" data-x0="{frame.xmin:.6g}" data-y1="{frame.ymax:.6g}" '
+        f'data-pad="{frame.pad:g}">'
+        f"<title>{escape(title)}</title>" + "".join(body) + "</svg>"
+    )
+    return svg, len(wanted), dropped
 
 
 def _svg(width: float, height: float, title: str, body: Sequence[str], cls: str) -> str:
