@@ -199,7 +199,7 @@ def _section(shape: str, fabrication: str | None) -> Section:
     if section is None:  # the spellings models write in names: "RHS 200x100x8", "HE 300 A"
         named = find_shape(shape)
         if named is not None and named.section is None and named.reason is not None:
-            raise UsageError(f"shape {shown(shape)}: {named.reason.text}")
+            raise UsageError(f"unknown shape {shown(shape)}: {named.reason.text}")
         section = named.section if named is not None else None
     if section is None:
         raise UsageError(
