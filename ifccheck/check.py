@@ -47,6 +47,7 @@ from ifccheck.loads.spans import is_floor_beam
 from ifccheck.loads.statics import Diagram
 from ifccheck.loads.tributary import DeckSpan, level_entries, level_of
 from ifccheck.model import MaterialCategory, Member, MemberRole, Model
+from ifccheck.perf import timed
 from ifccheck.reasons import NotChecked, Reason
 from ifccheck.results import (
     OUTCOMES,
@@ -133,25 +134,30 @@ def run_check(
     ``length_unit`` is the unit of a model that assigns none (``--length-unit``)."""
     path = Path(model_path)
     standard = standard_of(settings)
-    model = read_model(
-        path,
-        default_grade=settings.steel.default_grade,
-        materials=settings.steel.materials,
-        length_unit=length_unit,
-    )
-    audit = _audit_ifc(path, settings, requirements, project_ids)
-    prepare_floors(model, settings, strict_keys)
-    framing = analyse_framing(model, settings.framing, settings.bracing)
+    with timed("read"):
+        model = read_model(
+            path,
+            default_grade=settings.steel.default_grade,
+            materials=settings.steel.materials,
+            length_unit=length_unit,
+        )
+    with timed("requirements"):
+        audit = _audit_ifc(path, settings, requirements, project_ids)
+    with timed("framing"):
+        prepare_floors(model, settings, strict_keys)
+        framing = analyse_framing(model, settings.framing, settings.bracing)
     overrides = None
     warnings: list[tuple[str, str]] = list(model.warnings) + list(framing.warnings)
     if demands_path is not None:
         overrides = load_demand_csv(Path(demands_path))
-    demand = compute_demand(model, framing, settings, overrides)
+    with timed("loads"):
+        demand = compute_demand(model, framing, settings, overrides)
     warnings += [w for w in demand.warnings if w not in warnings]
-    assess_bracing(
-        model, framing, demand, standard, settings.design.method, settings.bracing.adequacy,
-        tuple(settings.bracing.moment_connections),
-    )  # fmt: skip
+    with timed("adequacy"):
+        assess_bracing(
+            model, framing, demand, standard, settings.design.method, settings.bracing.adequacy,
+            tuple(settings.bracing.moment_connections),
+        )  # fmt: skip
     beams = [
         (m, framing.members.get(m.guid), demand.beams.get(m.guid))
         for m in model.members
@@ -160,12 +166,14 @@ def run_check(
     # beams the reader could not place: listed as not checked, with the reason
     beams += [(m, None, None) for m in model.unreadable if m.role is MemberRole.BEAM]
     spec = StageSpec(IN_SERVICE, settings.bracing.slab, True)
-    results = check_beams(beams, standard, settings, progress, spec)
-    for b in results:
-        b.stages = [_stage_of(b, IN_SERVICE)]
-    stages = [_stage_result(spec, demand, results, model, settings)]
+    with timed("check"):
+        results = check_beams(beams, standard, settings, progress, spec)
+        for b in results:
+            b.stages = [_stage_of(b, IN_SERVICE)]
+        stages = [_stage_result(spec, demand, results, model, settings)]
     if settings.construction is not None:
-        stage, c_warnings = _construction_stage(model, settings, standard, results)
+        with timed("construction"):
+            stage, c_warnings = _construction_stage(model, settings, standard, results)
         stages.append(stage)
         warnings += [w for w in c_warnings if w not in warnings]
     names = {m.guid: m.name for m in [*model.members, *model.unreadable] if m.name}
@@ -174,7 +182,8 @@ def run_check(
     for b in results:
         for p in b.brace_points:
             p.by_name = names.get(p.by, "")
-    explain_beams(results, model, standard, settings, names)
+    with timed("explain"):
+        explain_beams(results, model, standard, settings, names)
     slabs = [
         SlabOutline(
             s.guid,
@@ -213,8 +222,9 @@ def run_check(
     if audit is not None:
         from ifccheck.ifc.requirements import name_unmet
 
-        result.requirements = _audit_model(audit, model, framing, settings, requirements)
-        name_unmet(result.beams, result.requirements)
+        with timed("requirements"):
+            result.requirements = _audit_model(audit, model, framing, settings, requirements)
+            name_unmet(result.beams, result.requirements)
     return result, model, framing
 
 
@@ -551,8 +561,9 @@ def check_beams(
     cbs: list[float] = []
     tops: list[bool] = []
     axes: list[str] = []
+    cache: dict[bytes, tuple[np.ndarray, np.ndarray]] = {}  # beams sharing a diagram
     for m, mf, bd in beams:
-        prepared = _prepare(m, mf, bd, standard, settings, spec)
+        prepared = _prepare(m, mf, bd, standard, settings, spec, cache)
         results.append(prepared.out if isinstance(prepared, _Pending) else prepared)
         if not isinstance(prepared, _Pending):
             continue
@@ -587,6 +598,7 @@ def _prepare(
     standard: DesignStandard,
     settings: Settings,
     spec: StageSpec = IN_SERVICE_SPEC,
+    cache: dict[bytes, tuple[np.ndarray, np.ndarray]] | None = None,
 ) -> _Pending | BeamResult:
     out = _base(m, mf)
     if bd is not None:
@@ -614,7 +626,9 @@ def _prepare(
         either = given is not None and not given.signed
         off = bd.offset if bd.analysis is not None else 0.0  # analysis line from a centreline
         for name, d in diagrams:
-            demand, cb = _segment_demands(d, starts + off, ends + off, tips, top, standard, either)
+            demand, cb = _segment_demands(
+                d, starts + off, ends + off, tips, top, standard, either, cache
+            )
             if given is not None and given.cb is not None:
                 cb = np.full_like(cb, given.cb)  # the analysis's own Cb
             cb = np.where(loose, cb, 1.0)
@@ -707,19 +721,34 @@ def _segment_demands(
     top: np.ndarray,
     standard,
     either_flange: bool = False,
+    cache: dict[bytes, tuple[np.ndarray, np.ndarray]] | None = None,
 ) -> tuple[np.ndarray, np.ndarray]:
     """Per segment: the moment compressing its flange, and the moment-gradient factor.
 
     ``either_flange`` takes the largest |M| for both flanges (sign unknown).
+    ``cache`` holds the answers by their exact inputs: the beams of a typical floor
+    share a diagram and segments, and get the very same numbers without recomputing.
     """
     # node stations appear twice and may differ by rounding: keep them monotone
     x = np.maximum.accumulate(np.asarray(d.x, dtype=float))
     moment = np.asarray(d.M, dtype=float)
+    key = b""
+    if cache is not None:
+        parts = (x, moment, starts, ends, np.asarray(tips, dtype=bool), np.asarray(top, dtype=bool))
+        key = b"|".join(
+            [str((id(standard), either_flange, *(p.shape for p in parts))).encode()]
+            + [np.ascontiguousarray(p).tobytes() for p in parts]
+        )
+        hit = cache.get(key)
+        if hit is not None:
+            return hit[0].copy(), hit[1].copy()
     sagging = segment_moments(x, compression_moment("top", moment), starts, ends)[0]
     hogging = segment_moments(x, compression_moment("bottom", moment), starts, ends)[0]
     demand = np.maximum(sagging, hogging) if either_flange else np.where(top, sagging, hogging)
-    cb = standard.moment_gradient(x, moment, starts, ends, tips)
-    return demand, np.asarray(cb, dtype=float)
+    cb = np.asarray(standard.moment_gradient(x, moment, starts, ends, tips), dtype=float)
+    if cache is not None:
+        cache[key] = (demand.copy(), cb.copy())
+    return demand, cb
 
 
 class _UniformMoment:

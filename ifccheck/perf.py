@@ -4,7 +4,13 @@ from __future__ import annotations
 
 import contextlib
 import gc
+import os
+import sys
+import time
 from collections.abc import Iterator
+
+TIMINGS_ENV = "IFCCHECK_TIMINGS"
+"""Set to 1 to print each stage's wall time to stderr (``ifccheck timing: STAGE SECONDS s``)."""
 
 
 @contextlib.contextmanager
@@ -20,3 +26,17 @@ def gc_paused() -> Iterator[None]:
     finally:
         if was_enabled:
             gc.enable()
+
+
+@contextlib.contextmanager
+def timed(stage: str) -> Iterator[None]:
+    """Time a pipeline stage; with ``IFCCHECK_TIMINGS=1`` in the environment its wall time
+    goes to stderr as one line ``ifccheck timing: STAGE SECONDS s`` (benchmarks read it)."""
+    if not os.environ.get(TIMINGS_ENV):
+        yield
+        return
+    t0 = time.perf_counter()
+    try:
+        yield
+    finally:
+        print(f"ifccheck timing: {stage} {time.perf_counter() - t0:.3f} s", file=sys.stderr)

@@ -13,6 +13,7 @@ from typing import TYPE_CHECKING
 import click
 
 from ifccheck import CAUTION
+from ifccheck.perf import timed
 from ifccheck.report.display import DisplayUnits, utilisation_text
 from ifccheck.units import UnitSystem
 
@@ -362,7 +363,8 @@ def check(
             project_ids=ids_files, length_unit=length_unit,
         )  # fmt: skip
         chosen = _units(units, model.length_unit)
-        written = _written(lambda: write_all(result, Path(model_path), out, chosen), out)
+        with timed("outputs"):
+            written = _written(lambda: write_all(result, Path(model_path), out, chosen), out)
     for line in _warning_lines(result.warnings, result.names):
         click.echo(line, err=True)
     du = DisplayUnits(chosen)

@@ -13,6 +13,8 @@ import importlib
 from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
+from ifccheck.perf import timed
+
 if TYPE_CHECKING:
     from ifccheck.results import CheckResult, DiffResult
 
@@ -73,11 +75,16 @@ def write_all(result: CheckResult, source_ifc: Path, out_dir: Path, units: str) 
     source_ifc = Path(source_ifc)
     paths = output_paths(source_ifc.stem, out_dir)
     Path(out_dir).mkdir(parents=True, exist_ok=True)
-    write_results_json(result, paths["json"])
-    write_beams_csv(result, paths["csv"], units)
-    write_checked_ifc(source_ifc, result, paths["ifc"])
-    write_issues_bcf(result, paths["bcf"], units)
-    write_report_html(result, paths["html"], units)
+    with timed("json"):
+        write_results_json(result, paths["json"])
+    with timed("csv"):
+        write_beams_csv(result, paths["csv"], units)
+    with timed("ifc"):
+        write_checked_ifc(source_ifc, result, paths["ifc"])
+    with timed("bcf"):
+        write_issues_bcf(result, paths["bcf"], units)
+    with timed("html"):
+        write_report_html(result, paths["html"], units)
     return paths
 
 

@@ -24,6 +24,7 @@ from bcf.v2.visinfo import VisualizationInfoHandler
 from xsdata.models.datatype import XmlDateTime
 
 from ifccheck.atomic import atomic_path
+from ifccheck.report.bcf_xml import FastXmlHandler
 from ifccheck.report.display import DisplayUnits
 from ifccheck.report.requirements import add_requirement_topics
 from ifccheck.report.wording import (
@@ -186,7 +187,8 @@ def _topic(
 
 
 def _new_bcf(project: str) -> BcfXml:
-    bcf_file = BcfXml.create_new(project)
+    # bcf-client's data model, written by a planned serializer (xsdata's output, faster)
+    bcf_file = BcfXml.create_new(project, xml_handler=FastXmlHandler())
     info = bcf_file.project_info
     assert info is not None and info.project is not None  # create_new makes both
     info.project.project_id = _uuid("project", project)
