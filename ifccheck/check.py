@@ -176,6 +176,10 @@ def run_check(
             stage, c_warnings = _construction_stage(model, settings, standard, results)
         stages.append(stage)
         warnings += [w for w in c_warnings if w not in warnings]
+        # counted before the construction stage could take over: count again
+        stages[0].summary["governing"] = sum(
+            b.stage == IN_SERVICE and b.outcome != "not_checked" for b in results
+        )
     names = {m.guid: m.name for m in [*model.members, *model.unreadable] if m.name}
     names.update({w.guid: w.name for w in model.walls if w.name})
     names.update({s.guid: s.name for s in model.slabs if s.name})

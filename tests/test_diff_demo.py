@@ -45,6 +45,8 @@ def test_revision_a_passes_in_service(revisions):
         if b.storey == "Level 2" and "-G" not in b.name
     }  # fmt: skip
     assert a.summary() == {"pass": 51, "fail": 21, "not_checked": 0, "total": 72}
+    # each checked beam is governed by exactly one stage: 21 by construction, 51 in service
+    assert (service.summary["governing"], construction.summary["governing"]) == (51, 21)
 
 
 def test_revision_b_findings(revisions):
