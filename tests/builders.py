@@ -36,6 +36,9 @@ LBF = 4.4482216152605  # N per lbf (exact)
 PSF = LBF / FT**2  # Pa per psf
 PCF = 0.45359237 / FT**3  # kg/m³ per lb/ft³
 KSI = 1000 * LBF / IN**2  # Pa per ksi
+KIP = 1000 * LBF  # N per kip
+KIP_IN = KIP * IN  # N·m per kip-in
+KIP_FT = KIP * FT  # N·m per kip-ft
 G = 9.80665  # m/s², standard gravity
 E_STEEL = 29000 * KSI  # AISC 360-16 §B4 / Table notes: E = 29,000 ksi
 # ASTM A992: Fy = 50 ksi, Fu = 65 ksi (AISC 360-16 Table 2-4 of the Manual, from memory)

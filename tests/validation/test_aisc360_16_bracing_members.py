@@ -13,6 +13,7 @@ from __future__ import annotations
 import math
 
 import pytest
+from builders import FT, IN, KIP, KIP_IN, KSI
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -36,12 +37,6 @@ from ifccheck.model import Section, Steel
 from ifccheck.sections import lookup, steel_from_yield, tabulated
 from ifccheck.sections.shapes import singly_symmetric_i_from_dimensions
 
-IN = 0.0254
-FT = 0.3048
-KSI = 6.894757293168361e6
-KIP = 4448.2216152605
-KIP_IN = KIP * IN
-KIP_FT = KIP * FT
 KIP_PER_IN = KIP / IN
 E = 29000.0
 G = 11200.0

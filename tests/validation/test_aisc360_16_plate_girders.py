@@ -13,6 +13,7 @@ import math
 
 import numpy as np
 import pytest
+from builders import FT, IN, KIP, KIP_FT, KIP_IN, KSI
 
 from ifccheck.design.aisc360 import flexure, is_rolled, shear
 from ifccheck.model import Section
@@ -20,12 +21,6 @@ from ifccheck.sections import i_section_from_dimensions, lookup, steel_from_yiel
 from ifccheck.sections.classify import classify_flexure, is_built_up
 from ifccheck.sections.shapes import singly_symmetric_i_from_dimensions
 
-IN = 0.0254
-FT = 0.3048
-KSI = 6.894757293168361e6
-KIP = 4448.2216152605
-KIP_IN = KIP * IN
-KIP_FT = KIP * FT
 E = 29000.0  # ksi
 FY = 50.0  # ksi
 STEEL = steel_from_yield(FY * KSI, "Fy 50 ksi")

@@ -14,18 +14,13 @@ import math
 
 import numpy as np
 import pytest
+from builders import FT, IN, KIP, KIP_FT, KIP_IN, KSI
 
 from ifccheck.design.aisc360 import flexure, scope, shear
 from ifccheck.model import Section, Steel
 from ifccheck.sections import lookup, steel_from_name, steel_from_yield, tabulated
 from ifccheck.sections.shapes import round_hollow_from_dimensions
 
-IN = 0.0254
-FT = 0.3048
-KSI = 6.894757293168361e6
-KIP = 4448.2216152605
-KIP_IN = KIP * IN
-KIP_FT = KIP * FT
 E = 29000.0
 G = 11200.0
 
